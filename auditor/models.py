@@ -1,0 +1,157 @@
+"""Plain data passed between the pipeline stages (DESIGN.md §2–3).
+
+Stages talk through these dataclasses and the SQLite store; none of them holds behaviour beyond
+trivial derived values, so every stage can be tested with hand-made instances.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from datetime import date
+
+# Valid values live here once, so that error messages and validation cannot drift apart.
+GRANULARITIES = ("day", "week", "month", "quarter", "half", "season", "year", "decade")
+ROLES = ("as_of", "effective", "expires", "planned", "event", "period", "other")
+VERDICTS = ("covered", "stale", "gap")
+STALE_REASONS = ("too_old", "expired", "overtaken")
+AS_OF_SOURCES = ("statement", "metadata", "file", "none")
+
+
+# --- ingest ---------------------------------------------------------------------------------------
+
+@dataclass(frozen=True)
+class MetaDate:
+    """A date a document states about itself, with where it came from.
+
+    `kind` is what the date means: "modified", "published", "reviewed", "expires" or "created".
+    `source` names the standard field, e.g. "front_matter:updated", "jsonld:dateModified",
+    "og:article:modified_time", "dcterms:modified", "time:datetime", "pdf:xmp:ModifyDate",
+    "pdf:info:ModDate", "sitemap:lastmod", "http:last-modified".
+    """
+
+    value: date
+    kind: str
+    source: str
+
+
+@dataclass(frozen=True)
+class Block:
+    """A run of text from a parser: a paragraph, list or table, under a heading path."""
+
+    text: str
+    heading_path: tuple[str, ...] = ()
+    page: int | None = None
+
+
+@dataclass
+class ParsedDocument:
+    """What a format parser returns for one file."""
+
+    blocks: list[Block]
+    title: str | None = None
+    dates: list[MetaDate] = field(default_factory=list)  # most specific first
+    owner: str | None = None  # front matter `owner:`, wins over the config's owner map
+    tags: tuple[str, ...] = ()
+
+
+@dataclass(frozen=True)
+class Passage:
+    """A retrievable unit of ~100–250 words, never across documents."""
+
+    ordinal: int
+    text: str
+    heading_path: tuple[str, ...]
+    page: int | None
+    char_start: int  # offsets into the document's concatenated block text
+    char_end: int
+
+
+# --- temporal -------------------------------------------------------------------------------------
+
+@dataclass(frozen=True)
+class TemporalExpression:
+    """A normalized temporal expression (DESIGN.md §3.2, §4.4).
+
+    `char_start`/`char_end` locate `expression` in the text that was scanned.
+    """
+
+    text: str  # the sentence it stands in
+    expression: str  # the span as written
+    start: date
+    end: date
+    granularity: str
+    role: str
+    char_start: int = 0
+    char_end: int = 0
+
+    def as_json(self) -> dict:
+        return {
+            "text": self.text,
+            "expression": self.expression,
+            "start": self.start.isoformat(),
+            "end": self.end.isoformat(),
+            "granularity": self.granularity,
+            "role": self.role,
+        }
+
+
+@dataclass(frozen=True)
+class Freshness:
+    """Freshness of one passage at audit date T (DESIGN.md §3.3)."""
+
+    as_of: date | None
+    as_of_source: str  # one of AS_OF_SOURCES
+    expires: date | None
+    fresh: bool
+    reasons: tuple[str, ...]  # subset of STALE_REASONS, empty when fresh
+    age_days: int | None  # T − as_of, None when undated
+
+
+# --- questions and verdicts -----------------------------------------------------------------------
+
+@dataclass(frozen=True)
+class Question:
+    id: str
+    question: str
+    owner: str | None = None
+    topic: str | None = None
+    weight: float = 1.0
+    horizon_days: int | None = None  # per-question override of the freshness horizon
+
+
+@dataclass
+class Evidence:
+    """One retrieved passage and what the judge made of it (results.json `evidence[]`)."""
+
+    document: str
+    page: int | None
+    section: str
+    passage: int  # passage id in the store
+    score: float
+    support: float
+    supporting: bool
+    as_of: date | None
+    as_of_source: str
+    expires: date | None
+    fresh: bool
+    reasons: list[str]
+    text: str
+    owner: str | None = None
+    terms: dict[str, float] = field(default_factory=dict)  # per-term BM25 contribution
+    statements: list[dict] = field(default_factory=list)  # TemporalExpression.as_json() + role
+
+
+@dataclass
+class QuestionResult:
+    id: str
+    question: str
+    owner: str | None
+    topic: str | None
+    weight: float
+    verdict: str  # one of VERDICTS
+    reasons: list[str]
+    support: float
+    missing_terms: list[str]
+    evidence: list[Evidence]
+    flags: list[str] = field(default_factory=list)  # stale_competitor, weak, file_dated, ...
+    action: str | None = None  # write | refresh | retire | None
