@@ -114,7 +114,8 @@ CREATE TABLE IF NOT EXISTS runs (
     corpus             TEXT NOT NULL DEFAULT '{}',  -- JSON: results.json run.corpus
     summary            TEXT NOT NULL DEFAULT '{}',  -- JSON: results.json summary
     gate               TEXT,                        -- JSON: gate outcome, when a gate ran
-    ingest_errors      TEXT NOT NULL DEFAULT '[]'   -- JSON: results.json ingest_errors at run time
+    ingest_errors      TEXT NOT NULL DEFAULT '[]',  -- JSON: results.json ingest_errors at run time
+    extras             TEXT NOT NULL DEFAULT '{}'   -- JSON: report-only parts (documents inventory, briefs)
 );
 
 -- Per-question results of a run, in question-set order. `result` is the results.json question
