@@ -100,6 +100,20 @@ CREATE TABLE IF NOT EXISTS ingest_errors (
     recorded_at TEXT NOT NULL
 );
 
+-- Question sets as last loaded, in file order. Query-log text is redacted before it gets here:
+-- nothing personal is ever stored.
+CREATE TABLE IF NOT EXISTS questions (
+    set_name     TEXT NOT NULL,             -- the question file's name
+    position     INTEGER NOT NULL,
+    qid          TEXT NOT NULL,
+    question     TEXT NOT NULL,
+    owner        TEXT,
+    topic        TEXT,
+    weight       REAL NOT NULL DEFAULT 1.0,
+    horizon_days INTEGER,
+    PRIMARY KEY (set_name, position)
+);
+
 -- Audit runs: what was audited with which settings, and the summary.
 CREATE TABLE IF NOT EXISTS runs (
     id                 INTEGER PRIMARY KEY,
