@@ -1,0 +1,272 @@
+"""Command line: a thin skin over the library. Each command parses flags, calls one function, prints.
+
+Exit codes (DESIGN.md §4.1): 0 done; 1 an error the user can fix (one line on stderr, no traceback);
+2 bad usage (click's own); 3 a gate failed.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import json
+import os
+import sys
+from datetime import date
+from pathlib import Path
+
+import click
+
+from . import __version__
+from .config import Config, load_config
+from .errors import AuditorError, InputError
+
+EXIT_GATE_FAILED = 3
+
+
+class AuditorGroup(click.Group):
+    """Turns every AuditorError into one line on stderr and exit code 1, for main() and CliRunner alike."""
+
+    def invoke(self, ctx: click.Context):
+        try:
+            return super().invoke(ctx)
+        except AuditorError as exc:
+            click.echo(f"error: {exc}", err=True)
+            ctx.exit(1)
+
+
+def _config(path: str | None, *, db: str | None = None, as_of: date | None = None,
+            horizon: int | None = None, out: str | None = None) -> Config:
+    """Defaults < file < environment < flags. Without -c, ./audit.toml is used when present."""
+    if path is None:
+        path = os.environ.get("AUDITOR_CONFIG") or ("audit.toml" if Path("audit.toml").is_file() else None)
+    config = load_config(path)
+    changes: dict = {}
+    if db:
+        changes["database"] = Path(db)
+    if as_of:
+        changes["as_of"] = as_of
+    if horizon is not None:
+        if horizon < 0:
+            raise click.BadParameter("must not be negative", param_hint="--horizon")
+        changes["freshness"] = dataclasses.replace(config.freshness, horizon_days=horizon)
+    if out:
+        changes["report"] = dataclasses.replace(config.report, out=Path(out))
+    return config.replace(**changes) if changes else config
+
+
+def _progress(quiet: bool) -> bool:
+    return not quiet and sys.stderr.isatty()
+
+
+class IsoDate(click.ParamType):
+    name = "YYYY-MM-DD"
+
+    def convert(self, value, param, ctx):
+        if isinstance(value, date):
+            return value
+        try:
+            return date.fromisoformat(value)
+        except ValueError:
+            self.fail(f"{value!r} is not a date YYYY-MM-DD", param, ctx)
+
+
+ISO_DATE = IsoDate()
+config_option = click.option("-c", "--config", "config_path", type=click.Path(dir_okay=False),
+                             help="TOML config (default: ./audit.toml when present).")
+db_option = click.option("--db", type=click.Path(dir_okay=False), help="SQLite database (default: the config's, else ./auditor.db).")
+quiet_option = click.option("-q", "--quiet", is_flag=True, help="No progress bars.")
+
+
+@click.group(cls=AuditorGroup, context_settings={"help_option_names": ["-h", "--help"]})
+@click.version_option(__version__, prog_name="auditor")
+def cli():
+    """Corpus Auditor: which questions does the knowledge base not support, or support only with stale passages?"""
+
+
+@cli.command()
+@config_option
+@click.option("--as-of", type=ISO_DATE, help="Audit date (default: the config's, else today).")
+@click.option("--out", type=click.Path(file_okay=False), help="Report folder (default: reports/<as-of>/).")
+@click.option("--wait", type=click.FloatRange(min=0), default=0.0, help="Wait this many seconds for another scan's lock.")
+@click.option("--jobs", type=click.IntRange(min=1), help="Parser processes (default: one per core).")
+@quiet_option
+def scan(config_path, as_of, out, wait, jobs, quiet):
+    """The main job: ingest, audit, compare with the last run, gate, report."""
+    from .scan import scan as run_scan, summary_lines
+
+    config = _config(config_path, as_of=as_of, out=out)
+    outcome = run_scan(config, wait=wait, jobs=jobs, progress=_progress(quiet))
+    click.echo(f"ingest: {outcome.ingest_line}")
+    _finish(outcome.run, outcome.out_dir, summary_lines)
+
+
+def _finish(run: dict, out_dir: Path, summary_lines) -> None:
+    for line in summary_lines(run):
+        click.echo(line)
+    click.echo(f"report: {out_dir / 'index.html'}")
+    gate = run.get("gate")
+    if gate is not None and not gate["passed"]:
+        click.echo(gate["message"], err=True)
+        sys.exit(EXIT_GATE_FAILED)
+
+
+@cli.command()
+@click.argument("paths", nargs=-1, required=True, type=click.Path(exists=True))
+@config_option
+@db_option
+@click.option("--jobs", type=click.IntRange(min=1), help="Parser processes (default: one per core).")
+@quiet_option
+def ingest(paths, config_path, db, jobs, quiet):
+    """Ingest documents under PATH... into the database (unchanged files are skipped)."""
+    from .ingest import ingest_corpus
+    from .store import Store
+
+    config = _config(config_path, db=db)
+    with Store(config.database) as store:
+        summary = ingest_corpus(store, config, paths=[Path(p) for p in paths], jobs=jobs, progress=_progress(quiet))
+    for error in summary.errors:
+        click.echo(f"failed: {error}", err=True)
+    click.echo(summary.line())
+
+
+@cli.command()
+@click.option("--questions", "question_files", multiple=True, type=click.Path(dir_okay=False),
+              help="Question set or query log (CSV, JSONL or text); default: the config's.")
+@config_option
+@db_option
+@click.option("--as-of", type=ISO_DATE, help="Audit date (default: the config's, else today).")
+@click.option("--horizon", type=int, help="Freshness horizon in days (default: the config's, else 365).")
+@click.option("--out", type=click.Path(file_okay=False), help="Report folder (default: reports/<as-of>/).")
+def audit(question_files, config_path, db, as_of, horizon, out):
+    """Audit the stored corpus against a question set and write the report."""
+    from .scan import audit_and_report, load_question_files, summary_lines
+    from .store import Store
+
+    config = _config(config_path, db=db, as_of=as_of, horizon=horizon, out=out)
+    questions = load_question_files(config, [Path(p) for p in question_files] or None)
+    with Store(config.database) as store:
+        run, out_dir = audit_and_report(store, config, questions, as_of=config.audit_date())
+    _finish(run, out_dir, summary_lines)
+
+
+@cli.command()
+@config_option
+@db_option
+@click.option("--run", "run_id", type=int, help="Run id (default: the newest).")
+@click.option("--out", type=click.Path(file_okay=False), help="Report folder (default: reports/<as-of>/).")
+def report(config_path, db, run_id, out):
+    """Write the report of a stored run again, without re-auditing."""
+    from .report import write_report
+    from .runs import load_run
+    from .scan import default_out_dir
+    from .store import Store
+
+    config = _config(config_path, db=db, out=out)
+    with Store(config.database) as store:
+        run = load_run(store, run_id)
+    out_dir = default_out_dir(config, date.fromisoformat(run["run"]["as_of"]))
+    click.echo(f"report: {write_report(run, out_dir)}")
+
+
+@cli.command()
+@config_option
+@db_option
+def runs(config_path, db):
+    """Run history."""
+    from .runs import format_runs, list_runs
+    from .store import Store
+
+    with Store(_config(config_path, db=db).database) as store:
+        click.echo(format_runs(list_runs(store)))
+
+
+@cli.command()
+@click.argument("base", type=int, required=False)
+@click.argument("head", type=int, required=False)
+@config_option
+@db_option
+def diff(base, head, config_path, db):
+    """What changed between two runs (default: the newest and the one before it)."""
+    from .runs import diff_runs, format_diff, load_run, previous_run
+    from .store import Store
+
+    with Store(_config(config_path, db=db).database) as store:
+        head_run = load_run(store, head)
+        if base is None:
+            base = previous_run(store, head_run["run"]["id"])
+            if base is None:
+                raise InputError(f"{str(store.path)!r}: only one run stored; nothing to compare with")
+        click.echo(format_diff(diff_runs(load_run(store, base), head_run)))
+
+
+@cli.command()
+@click.argument("files", nargs=-1, type=click.Path(allow_dash=True, dir_okay=False))
+@click.option("--reference-date", type=ISO_DATE, help="Anchor for relative expressions (default: today).")
+@click.option("--day-first", is_flag=True, help="Read 03/04/2025 as 3 April.")
+def dates(files, reference_date, day_first):
+    """Temporal expressions in FILE... (or standard input) as JSON lines."""
+    from .temporal import extract
+
+    for name in files or ("-",):
+        if name == "-":
+            text = sys.stdin.read()
+        else:
+            try:
+                text = Path(name).read_text(encoding="utf-8", errors="replace")
+            except OSError as exc:
+                raise InputError(f"{name!r}: cannot read ({exc.strerror})") from None
+        for expression in extract(text, reference_date or date.today(), day_first=day_first):
+            click.echo(json.dumps(expression.as_json(), ensure_ascii=False))
+
+
+@cli.command()
+@click.argument("query")
+@config_option
+@db_option
+@click.option("-k", "k", type=click.IntRange(min=1), default=5, show_default=True, help="How many passages.")
+@click.option("--json", "as_json", is_flag=True, help="JSON instead of text.")
+def search(query, config_path, db, k, as_json):
+    """Top passages for QUERY with a per-term score breakdown."""
+    from .retrieval import PassageIndex, describe_hits
+    from .store import Store
+
+    config = _config(config_path, db=db)
+    with Store(config.database) as store:
+        result = PassageIndex.load_or_build(store, config.retrieval).search(query, k)
+        hits = describe_hits(store, result)
+    if as_json:
+        click.echo(json.dumps({"query": query, "terms": result.terms, "missing_terms": result.missing_terms,
+                               "hits": hits}, ensure_ascii=False, indent=2))
+        return
+    if result.missing_terms:
+        click.echo(f"never in the corpus: {', '.join(result.missing_terms)}")
+    if not hits:
+        click.echo("no passage matches")
+    for rank, hit in enumerate(hits, 1):
+        breakdown = ", ".join(f"{t} {s:.2f}" for t, s in sorted(hit["term_scores"].items(), key=lambda x: -x[1]))
+        where = hit["document"] + (f" p.{hit['page']}" if hit.get("page") else "")
+        click.echo(f"{rank}. {hit['score']:.3f}  {where}  {hit['section']}\n   [{breakdown}]\n   {hit['text'][:240]}")
+
+
+@cli.command()
+@click.option("--labels", required=True, type=click.Path(dir_okay=False), help="Labelled questions CSV.")
+@config_option
+@db_option
+@click.option("--target-precision", type=click.FloatRange(0, 1), help="Pick the lowest threshold reaching this gap precision.")
+@click.option("--holdout", is_flag=True, help="Also hide each question's expected documents and measure the gap verdict.")
+def calibrate(labels, config_path, db, target_precision, holdout):
+    """Choose support thresholds from labelled questions; later audits use them."""
+    from .calibrate import calibrate as run_calibrate, format_calibration
+    from .store import Store
+
+    config = _config(config_path, db=db)
+    with Store(config.database) as store:
+        outcome = run_calibrate(store, config, Path(labels), target_precision=target_precision, holdout=holdout)
+    click.echo(format_calibration(outcome))
+
+
+def main() -> None:
+    cli(prog_name="auditor")
+
+
+if __name__ == "__main__":  # pragma: no cover
+    main()

@@ -1,0 +1,107 @@
+"""The main job as library functions: ingest, audit, compare with the last run, gate, report.
+
+The CLI commands are thin wrappers over these; each stage function can also be called alone.
+"""
+
+from __future__ import annotations
+
+import sys
+from dataclasses import dataclass
+from datetime import date
+from pathlib import Path
+
+from .config import Config
+from .errors import InputError
+from .models import Question
+from .store import Store
+
+
+@dataclass
+class ScanOutcome:
+    run: dict
+    out_dir: Path
+    ingest_line: str
+    gate: dict | None
+
+
+def default_out_dir(config: Config, as_of: date) -> Path:
+    """`--out`, else the config's report folder, else reports/<as-of date>/ (DESIGN.md §4.2)."""
+    return config.report.out or Path("reports") / as_of.isoformat()
+
+
+def load_question_files(config: Config, paths: list[Path] | None = None) -> list[Question]:
+    """Every configured question file, in order; ids must stay unique across files."""
+    from .questions import load_questions
+
+    files = list(paths or config.questions)
+    if not files:
+        where = repr(str(config.source)) if config.source else "the command line"
+        raise InputError(f"{where}: no question file given (set `questions` in the config or pass --questions)")
+    questions: list[Question] = []
+    seen: dict[str, Path] = {}
+    for path in files:
+        for question in load_questions(path):
+            if question.id in seen:
+                raise InputError(f"{str(path)!r}: question id {question.id!r} is also used in {str(seen[question.id])!r}")
+            seen[question.id] = path
+            questions.append(question)
+    return questions
+
+
+def audit_and_report(store: Store, config: Config, questions: list[Question], *, as_of: date,
+                     horizon_days: int | None = None, out_dir: Path | None = None,
+                     gate: bool = True) -> tuple[dict, Path]:
+    """Audit, attach the diff against the previous run and the gate outcome, write the report."""
+    from .audit import run_audit
+    from .gate import evaluate_gate
+    from .report import write_report
+    from .runs import apply_retention, diff_runs, load_run, previous_run, record_gate, update_latest
+
+    run = run_audit(store, config, questions, as_of=as_of, horizon_days=horizon_days)
+    run_id = run["run"]["id"]
+    base_id = previous_run(store, run_id)
+    run["diff"] = diff_runs(load_run(store, base_id), run) if base_id is not None else None
+    run["history"] = load_run(store, run_id).get("history", [])
+    run["gate"] = evaluate_gate(run, run["diff"], config.gate) if gate else None
+    if run["gate"] is not None:
+        record_gate(store, run_id, run["gate"])
+    out_dir = out_dir or default_out_dir(config, as_of)
+    write_report(run, out_dir)
+    update_latest(out_dir)
+    if config.report.keep_runs:
+        apply_retention(store, config.report.keep_runs)
+    return run, out_dir
+
+
+def scan(config: Config, *, as_of: date | None = None, out_dir: Path | None = None,
+         wait: float = 0.0, progress: bool = False, jobs: int | None = None) -> ScanOutcome:
+    """The whole job under the scan lock: ingest, audit, diff, gate, report."""
+    from .ingest import ingest_corpus
+    from .lock import ScanLock
+
+    as_of = as_of or config.audit_date()
+    questions = load_question_files(config)  # fail on a bad question file before any work
+    with ScanLock(config.database, wait=wait):
+        with Store(config.database) as store:
+            summary = ingest_corpus(store, config, jobs=jobs, progress=progress)
+            run, out_dir = audit_and_report(store, config, questions, as_of=as_of, out_dir=out_dir)
+    return ScanOutcome(run=run, out_dir=out_dir, ingest_line=summary.line(), gate=run.get("gate"))
+
+
+def summary_lines(run: dict) -> list[str]:
+    """The few lines a lead reads in the terminal after a scan or audit."""
+    s = run["summary"]
+    corpus = run["run"]["corpus"]
+    lines = [
+        f"audit {run['run']['as_of']} (run {run['run']['id']}, horizon {run['run']['horizon_days']} days): "
+        f"{corpus['documents']} documents, {corpus['passages']} passages, {corpus['failed']} failed",
+        f"{s['questions']} questions: {s['covered']} covered, {s['stale']} stale, {s['gap']} gap",
+        f"weighted fallback exposure {s['fallback_exposure']:.1%}, stale exposure {s['stale_exposure']:.1%}",
+    ]
+    if run.get("diff"):
+        lines.append(f"since run {run['diff'].get('base_run', '?')}: {run['diff'].get('summary', '')}")
+    return lines
+
+
+def warn(message: str) -> None:
+    print(f"warning: {message}", file=sys.stderr)
