@@ -1,0 +1,90 @@
+"""Config loading: precedence defaults < file < environment < flags, unknown keys, bad values."""
+
+from datetime import date
+from pathlib import Path
+
+import pytest
+
+from auditor.cli import _config
+from auditor.config import load_config
+from auditor.errors import ConfigError
+
+
+def write(tmp_path, text, name="audit.toml"):
+    path = tmp_path / name
+    path.write_text(text, encoding="utf-8")
+    return path
+
+
+def test_defaults_without_file():
+    config = load_config(None, env={})
+    assert config.freshness.horizon_days == 365
+    assert config.retrieval.variant == "lucene"
+    assert config.database == Path.cwd() / "auditor.db"
+
+
+def test_file_values_and_relative_paths(tmp_path):
+    path = write(tmp_path, """
+database = "data/a.db"
+as_of = 2026-12-01
+questions = ["q.csv"]
+[corpus]
+paths = ["kb"]
+exclude = ["**/drafts/**"]
+[freshness]
+horizon_days = 200
+[[freshness.rules]]
+path = "rates/**"
+horizon_days = 90
+[owners]
+"billing/**" = "Billing"
+""")
+    config = load_config(path, env={})
+    assert config.database == tmp_path / "data" / "a.db"
+    assert config.as_of == date(2026, 12, 1)
+    assert config.questions == (tmp_path / "q.csv",)
+    assert config.corpus.paths == (tmp_path / "kb",)
+    assert config.corpus.exclude == ("**/drafts/**",)
+    assert config.freshness.horizon_days == 200
+    assert config.freshness.rules[0].path == "rates/**" and config.freshness.rules[0].horizon_days == 90
+    assert config.owners == (("billing/**", "Billing"),)
+
+
+def test_environment_overrides_file_and_flags_override_environment(tmp_path, monkeypatch):
+    path = write(tmp_path, "[freshness]\nhorizon_days = 200\n")
+    assert load_config(path, env={"AUDITOR_HORIZON_DAYS": "30"}).freshness.horizon_days == 30
+    monkeypatch.setenv("AUDITOR_HORIZON_DAYS", "30")
+    assert _config(str(path), horizon=7).freshness.horizon_days == 7
+    assert _config(str(path)).freshness.horizon_days == 30
+
+
+def test_unknown_key_warns_and_is_ignored(tmp_path):
+    path = write(tmp_path, "horizon = 3\n[freshness]\nhorizon_day = 5\n")
+    warnings = []
+    config = load_config(path, env={}, warn=warnings.append)
+    assert config.freshness.horizon_days == 365
+    assert len(warnings) == 2
+    assert "'horizon'" in warnings[0] and "'freshness.horizon_day'" in warnings[1]
+
+
+@pytest.mark.parametrize("text, key", [
+    ("[freshness]\nhorizon_days = \"soon\"\n", "freshness.horizon_days"),
+    ("as_of = \"yesterday\"\n", "as_of"),
+    ("[corpus]\nfollow_symlinks = 3\n", "corpus.follow_symlinks"),
+    ("[support]\nthreshold = 1.5\n", "support.threshold"),
+    ("[corpus]\nhemisphere = \"east\"\n", "corpus.hemisphere"),
+    ("[[freshness.rules]]\nhorizon_days = 3\n", "freshness.rules[0]"),
+    ("questions = 3\n", "questions"),
+])
+def test_bad_value_names_key_and_file(tmp_path, text, key):
+    path = write(tmp_path, text)
+    with pytest.raises(ConfigError) as info:
+        load_config(path, env={})
+    assert str(path) in str(info.value) and key in str(info.value)
+
+
+def test_invalid_toml_and_missing_file(tmp_path):
+    with pytest.raises(ConfigError, match="not valid TOML"):
+        load_config(write(tmp_path, "database = \n"), env={})
+    with pytest.raises(ConfigError, match="config file not found"):
+        load_config(tmp_path / "nope.toml", env={})
