@@ -1,0 +1,205 @@
+"""Support signals and verdict rules (DESIGN.md §3.4)."""
+
+import math
+
+import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
+from rank_bm25 import BM25Okapi
+
+from auditor.answer_types import ANSWER_TYPES, expected_answer_type, has_answer_type
+from auditor.judge import (ANSWER_TYPE_PENALTY, SIGNAL_WEIGHTS, Judged, bm25_share, combine, judge,
+                           passage_support, split_sentences, term_coverage, window_coverage)
+from auditor.tokenize import Tokenizer
+
+TOKENIZE = Tokenizer().tokenize
+
+
+# --- signals ----------------------------------------------------------------------------------------
+
+WORDS = st.sampled_from("meter leak bill rate water main pipe valve fee".split())
+
+
+@settings(max_examples=60, deadline=None)
+@given(docs=st.lists(st.lists(WORDS, min_size=1, max_size=12), min_size=2, max_size=8),
+       query=st.lists(WORDS, min_size=1, max_size=4, unique=True))
+def test_bm25_share_stays_below_one_for_the_reference_scores(docs, query):
+    # The bound Σ idf_t·(k1+1) holds because each BM25 term weight tf·(k1+1)/(tf + K) < k1 + 1
+    # (Robertson & Zaragoza, "The Probabilistic Relevance Framework: BM25 and Beyond", 2009, §3.4).
+    # Checked against rank-bm25, the project's BM25 oracle, with its own idf values.
+    bm25 = BM25Okapi(docs, k1=1.2, b=0.75)
+    max_score = sum(max(bm25.idf.get(t, 0.0), 0.0) * (1.2 + 1) for t in query)
+    for score in bm25.get_scores(query):
+        share = bm25_share(score, max_score)
+        assert 0.0 <= share <= 1.0
+        if max_score > 0 and score > 0:
+            assert score < max_score
+            assert share == pytest.approx(score / max_score)
+
+
+def test_bm25_share_approaches_one_as_term_frequency_grows():
+    # tf·(k1+1)/(tf + k1) → k1+1 as tf → ∞ for a passage of average length (same source).
+    k1, idf = 1.2, 2.0
+    weight = lambda tf: idf * tf * (k1 + 1) / (tf + k1)
+    assert bm25_share(weight(1), idf * (k1 + 1)) == pytest.approx(1 / (k1 + 1))
+    assert bm25_share(weight(1000), idf * (k1 + 1)) > 0.99
+    assert bm25_share(5.0, 0.0) == 0.0
+
+
+def test_term_coverage_is_the_idf_weighted_share():
+    idf = {"autopay": 3.0, "bill": 1.0}
+    assert term_coverage({"bill"}, idf) == pytest.approx(0.25)  # 1 / (3 + 1), by hand
+    assert term_coverage({"bill", "autopay", "other"}, idf) == 1.0
+    assert term_coverage(set(), idf) == 0.0
+    assert term_coverage({"x"}, {}) == 0.0
+
+
+def test_split_sentences_breaks_at_stops_and_lines():
+    text = "Pay online. Or call us!\n- item one\n\nLast line"
+    spans = split_sentences(text)
+    assert [text[a:b] for a, b in spans] == ["Pay online.", "Or call us!", "- item one", "Last line"]
+    assert split_sentences("   ") == []
+
+
+def test_window_coverage_needs_the_terms_together():
+    idf = {"leak": 2.0, "report": 1.0}
+    scattered = [{"leak"}, {"other"}, {"other"}, {"report"}]
+    together = [{"other"}, {"leak"}, {"report"}, {"other"}]
+    assert window_coverage(scattered, idf, 2) == (pytest.approx(2 / 3), 0)
+    assert window_coverage(together, idf, 2) == (1.0, 1)
+    assert window_coverage([], idf) == (0.0, 0)
+    assert window_coverage([{"leak"}], idf, 3) == (pytest.approx(2 / 3), 0)
+
+
+def test_combine_is_a_weighted_mean():
+    assert sum(SIGNAL_WEIGHTS.values()) == pytest.approx(1.0)
+    assert combine({"bm25": 1, "coverage": 1, "window": 1}) == pytest.approx(1.0)
+    assert combine({"a": 0.2, "b": 0.8}, {"a": 1, "b": 3}) == pytest.approx(0.65)
+    with pytest.raises(ValueError):
+        combine({"a": 1}, {"a": 0})
+
+
+def _support(question, text, score=5.0):
+    terms = TOKENIZE(question)
+    idf = {t: 1.0 for t in terms}
+    return passage_support(question, text, score=score, max_score=2.2 * len(idf), idf=idf, tokenize=TOKENIZE)
+
+
+def test_passage_support_prefers_a_passage_that_answers_in_one_window():
+    question = "How do I report a water leak?"
+    close = "To report a water leak, call the leak line. Crews come out day and night."
+    far = ("Water use rises in summer. Gardens need care. Meters are read monthly. "
+           "You can report problems online. A leak may raise your bill.")
+    a, b = _support(question, close), _support(question, far)
+    assert a.signals["coverage"] == b.signals["coverage"] == 1.0
+    assert a.signals["window"] == 1.0 > b.signals["window"]
+    assert a.support > b.support
+    assert close[a.window[0]:a.window[1]].startswith("To report a water leak")
+
+
+def test_passage_support_downgrades_when_the_answer_type_is_absent():
+    question = "When does the rebate programme close?"
+    dated = "The rebate programme closes on 30 June 2025."
+    undated = "The rebate programme closes once the budget is spent."
+    a, b = _support(question, dated), _support(question, undated)
+    assert a.answer_type == "date" and a.answer_type_found and not b.answer_type_found
+    assert b.support == pytest.approx(a.support * ANSWER_TYPE_PENALTY, abs=1e-6)
+
+
+# --- answer types -----------------------------------------------------------------------------------
+
+# Coarse classes after Li & Roth (COLING 2002): NUM:date, NUM:money/count, NUM:period, HUM, LOC.
+@pytest.mark.parametrize("question, answer_type", [
+    ("When is the office open?", "date"),
+    ("What time does the lobby close?", "date"),
+    ("How much is the late fee?", "amount"),
+    ("How many meters can one account have?", "amount"),
+    ("What does a new connection cost?", "amount"),
+    ("How long does a reconnection take?", "duration"),
+    ("How often are meters read?", "duration"),
+    ("Who do I call about a burst pipe?", "name"),
+    ("Which team handles rebates?", "name"),
+    ("Where do I drop off my payment?", "place"),
+    ("Can I pay my bill by phone?", None),
+    ("What is a boil-water advisory?", None),
+])
+def test_expected_answer_type(question, answer_type):
+    assert expected_answer_type(question) == answer_type
+
+
+@pytest.mark.parametrize("text, answer_type, found", [
+    ("Rates changed on 1 March 2024.", "date", True),
+    ("The lobby is open weekdays 8 a.m. to 5 p.m.", "date", True),
+    ("Rates change from time to time.", "date", False),
+    ("The late fee is $12.50.", "amount", True),
+    ("Connections are free for new homes.", "amount", True),
+    ("There is a fee.", "amount", False),
+    ("Reconnection takes 2 business days.", "duration", True),
+    ("Reconnection takes three to five days.", "duration", True),
+    ("Reconnection is quick.", "duration", False),
+    ("Call Customer Care about burst pipes.", "name", True),
+    ("Our field crew will come out.", "name", True),
+    ("Call us.", "name", False),
+    ("Drop payments at 12 Mill Road.", "place", True),
+    ("Pay on our website.", "place", True),
+    ("Pay it soon.", "place", False),
+])
+def test_has_answer_type(text, answer_type, found):
+    assert has_answer_type(text, answer_type) is found
+
+
+def test_has_answer_type_without_a_type_and_with_an_unknown_one():
+    assert has_answer_type("anything", None)
+    with pytest.raises(ValueError, match="unknown answer type"):
+        has_answer_type("x", "colour")
+    assert set(ANSWER_TYPES) == {"date", "amount", "duration", "name", "place"}
+
+
+# --- verdicts ---------------------------------------------------------------------------------------
+
+T, M = 0.45, 0.05
+
+
+def test_no_evidence_is_a_gap_to_write():
+    v = judge([], threshold=T, weak_margin=M, missing_terms=["autopay"], missing_share=1.0)
+    assert (v.verdict, v.reasons, v.action, v.support) == ("gap", ["no_passages", "missing_terms"], "write", 0.0)
+
+
+def test_low_support_is_a_gap():
+    v = judge([Judged(0.30, True), Judged(0.20, False, ("too_old",))], threshold=T, weak_margin=M)
+    assert v.verdict == "gap" and v.reasons == ["low_support"] and v.action == "write"
+    assert v.supporting == [False, False] and v.support == 0.30
+
+
+def test_a_fresh_supporting_passage_covers_and_flags_competitors():
+    v = judge([Judged(0.80, False, ("too_old",)), Judged(0.47, True, (), "file")], threshold=T, weak_margin=M)
+    assert v.verdict == "covered" and v.action is None and v.reasons == []
+    assert v.flags == ["stale_competitor", "weak", "file_dated"]
+    assert v.support == 0.47 and v.supporting == [True, True]
+
+
+def test_covered_without_flags():
+    v = judge([Judged(0.90, True, (), "statement"), Judged(0.10, False, ("expired",))], threshold=T, weak_margin=M)
+    assert (v.verdict, v.flags) == ("covered", [])
+
+
+def test_stale_only_support_is_refreshed_or_retired():
+    old = judge([Judged(0.7, False, ("too_old",)), Judged(0.6, False, ("expired",))], threshold=T, weak_margin=M)
+    assert old.verdict == "stale" and old.reasons == ["too_old", "expired"] and old.action == "refresh"
+    ended = judge([Judged(0.7, False, ("overtaken",)), Judged(0.6, False, ("expired", "too_old"))],
+                  threshold=T, weak_margin=M)
+    assert ended.reasons == ["too_old", "expired", "overtaken"] and ended.action == "retire"
+
+
+def test_missing_answer_type_is_named_when_it_decides_the_gap():
+    support = 0.5 * ANSWER_TYPE_PENALTY  # 0.40: below T only because of the downgrade
+    v = judge([Judged(support, True, answer_type_found=False)], threshold=T, weak_margin=M)
+    assert v.verdict == "gap" and v.reasons == ["no_answer_type", "low_support"]
+    assert v.flags == ["no_answer_type"]
+    weak = judge([Judged(0.2, True, answer_type_found=False)], threshold=T, weak_margin=M)
+    assert weak.reasons == ["low_support"]
+
+
+def test_threshold_is_inclusive():
+    assert judge([Judged(T, True)], threshold=T, weak_margin=0.0).verdict == "covered"
+    assert judge([Judged(math.nextafter(T, 0), True)], threshold=T, weak_margin=0.0).verdict == "gap"
