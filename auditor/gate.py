@@ -1,0 +1,91 @@
+"""The release gate: limits on a run's figures, turned into pass/fail and one line for the operator.
+
+`auditor scan` exits with code 3 when the gate fails; the outcome is also stored with the run
+(`runs.gate`) and written into results.json (`gate`).
+
+Figures (all from the run object, DESIGN.md §3.4):
+  gap_share          gap questions / questions (unweighted)
+  fallback_exposure  weight share of gap questions (summary.fallback_exposure)
+  stale_share        stale questions / questions (unweighted)
+  stale_exposure     weight share of stale questions (summary.stale_exposure)
+  new_gaps           questions that are gaps now and were not gaps in the previous done run;
+                     a question new to the set that is a gap counts (it was not a gap before,
+                     because nobody asked it), so with no previous run every gap is new. A
+                     release gate should not pass vacuously on its first run; use only the share
+                     limits if that is not wanted.
+A figure passes when it is at most its limit; limits left unset (None) are not checked.
+"""
+
+from __future__ import annotations
+
+from .config import GateConfig
+
+# limit (the config key) -> figure it bounds; the order of the checks and of the message.
+LIMITS = {
+    "max_gap_share": "gap_share",
+    "max_fallback_exposure": "fallback_exposure",
+    "max_stale_share": "stale_share",
+    "max_stale_exposure": "stale_exposure",
+    "max_new_gaps": "new_gaps",
+}
+
+
+def gate_figures(run: dict, diff: dict | None) -> dict[str, float | int]:
+    """The figures the limits bound, computed from the run object and its diff (see module doc)."""
+    questions = run.get("questions", [])
+    summary = run.get("summary", {})
+    total = summary.get("questions", len(questions))
+    gaps = summary.get("gap", sum(q["verdict"] == "gap" for q in questions))
+    stale = summary.get("stale", sum(q["verdict"] == "stale" for q in questions))
+    if diff is None:
+        new_gaps = sum(q["verdict"] == "gap" for q in questions)
+    else:
+        new_gaps = len(diff["new_gaps"]) + sum(item["after"] == "gap" for item in diff["added"])
+    return {
+        "gap_share": gaps / total if total else 0.0,
+        "fallback_exposure": float(summary.get("fallback_exposure", 0.0)),
+        "stale_share": stale / total if total else 0.0,
+        "stale_exposure": float(summary.get("stale_exposure", 0.0)),
+        "new_gaps": int(new_gaps),
+    }
+
+
+def evaluate_gate(run: dict, diff: dict | None, limits: GateConfig) -> dict:
+    """Check the run against the configured limits.
+
+    Returns {"passed": bool, "checks": [{"limit", "figure", "max", "value", "passed"}],
+    "message": one line}, e.g. "gate failed: fallback_exposure 0.27 > max 0.20".
+    """
+    figures = gate_figures(run, diff)
+    checks = []
+    for limit, figure in LIMITS.items():
+        maximum = getattr(limits, limit)
+        if maximum is None:
+            continue
+        value = figures[figure]
+        checks.append({"limit": limit, "figure": figure, "max": maximum, "value": value,
+                       "passed": value <= maximum})
+    failed = [c for c in checks if not c["passed"]]
+    if failed:
+        message = "gate failed: " + ", ".join(_describe(c, ">") for c in failed)
+    elif checks:
+        message = "gate passed: " + ", ".join(_describe(c, "<=") for c in checks)
+    else:
+        message = "gate passed: no limits set"
+    return {"passed": not failed, "checks": checks, "message": message}
+
+
+def _describe(check: dict, relation: str) -> str:
+    value, maximum = _pair(check["value"], check["max"], integer=check["figure"] == "new_gaps")
+    return f"{check['figure']} {value} {relation} max {maximum}"
+
+
+def _pair(value: float, maximum: float, *, integer: bool) -> tuple[str, str]:
+    """Value and limit as text with just enough decimals that a failing pair never reads equal."""
+    if integer:
+        return f"{value:g}", f"{maximum:g}"
+    for digits in (2, 3, 4, 6):
+        left, right = f"{value:.{digits}f}", f"{maximum:.{digits}f}"
+        if (left != right) or value == maximum:
+            return left, right
+    return repr(float(value)), repr(float(maximum))

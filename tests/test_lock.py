@@ -1,0 +1,144 @@
+"""The scan lock with real processes: refusal naming the holder, waiting, takeover after SIGKILL."""
+
+from __future__ import annotations
+
+import json
+import os
+import signal
+import subprocess
+import sys
+import threading
+import time
+from pathlib import Path
+
+import pytest
+
+from auditor.errors import StoreError
+from auditor.lock import ScanLock, read_holder
+
+REPO = Path(__file__).resolve().parent.parent
+
+# A child that takes the lock, says so, and holds it until a line arrives on stdin.
+HOLDER = """
+import sys
+sys.path.insert(0, sys.argv[2])
+from auditor.lock import ScanLock
+lock = ScanLock(sys.argv[1]).acquire()
+print("locked", flush=True)
+sys.stdin.readline()
+lock.release()
+print("released", flush=True)
+"""
+
+
+def start_holder(db: Path) -> subprocess.Popen:
+    child = subprocess.Popen([sys.executable, "-c", HOLDER, str(db), str(REPO)], stdin=subprocess.PIPE,
+                             stdout=subprocess.PIPE, text=True)
+    assert child.stdout.readline().strip() == "locked"
+    return child
+
+
+def test_second_holder_is_refused_with_the_holders_pid_and_start(tmp_path):
+    db = tmp_path / "audit.db"
+    child = start_holder(db)
+    try:
+        started = time.monotonic()
+        with pytest.raises(StoreError) as refused:
+            ScanLock(db).acquire()
+        assert time.monotonic() - started < 2.0  # refused at once, not after a wait
+        holder = read_holder(db)
+        assert holder["pid"] == child.pid
+        assert str(refused.value) == (f"{str(db)!r}: another scan holds the lock "
+                                      f"(pid {child.pid} since {holder['started']}); wait with --wait SECONDS")
+        assert holder["started"].endswith("Z") and holder["started"][:2] == "20"
+    finally:
+        child.stdin.write("\n")
+        child.stdin.flush()
+        assert child.wait(10) == 0
+
+
+def test_lock_of_a_sigkilled_holder_is_taken_over(tmp_path):
+    db = tmp_path / "audit.db"
+    child = start_holder(db)
+    with pytest.raises(StoreError):
+        ScanLock(db).acquire()
+    os.kill(child.pid, signal.SIGKILL)
+    assert child.wait(10) == -signal.SIGKILL
+    with ScanLock(db) as lock:
+        # the killed holder's details were still in the file: that is how a takeover is recognised
+        assert lock.taken_over["pid"] == child.pid
+        assert read_holder(db)["pid"] == os.getpid()
+    assert read_holder(db) is None  # a clean release empties the file
+    with ScanLock(db) as again:
+        assert again.taken_over is None
+
+
+def test_waiting_holder_gets_the_lock_when_it_is_released(tmp_path):
+    db = tmp_path / "audit.db"
+    child = start_holder(db)
+
+    def release_soon():
+        time.sleep(0.5)
+        child.stdin.write("\n")
+        child.stdin.flush()
+
+    threading.Thread(target=release_soon).start()
+    with ScanLock(db, wait=30) as lock:
+        assert lock.held
+        assert child.wait(10) == 0
+        assert lock.taken_over is None  # released cleanly, not killed
+
+
+def test_waiting_gives_up_after_the_wait(tmp_path):
+    db = tmp_path / "audit.db"
+    child = start_holder(db)
+    try:
+        started = time.monotonic()
+        with pytest.raises(StoreError) as refused:
+            ScanLock(db, wait=0.5).acquire()
+        assert time.monotonic() - started >= 0.5
+        assert str(refused.value).startswith(f"{str(db)!r}: another scan still holds the lock after waiting 0.5 s "
+                                             f"(pid {child.pid} since ")
+        assert str(refused.value).endswith("; try a longer --wait SECONDS")
+    finally:
+        child.kill()
+        child.wait(10)
+
+
+def test_two_locks_in_one_process_exclude_each_other(tmp_path):
+    db = tmp_path / "audit.db"
+    first = ScanLock(db).acquire()
+    with pytest.raises(StoreError, match=f"pid {os.getpid()} since"):
+        ScanLock(db).acquire()
+    first.release()
+    first.release()  # releasing twice is harmless
+    with ScanLock(db) as second:
+        assert second.held and second.taken_over is None
+    assert json.loads((tmp_path / "audit.db.lock").read_text() or "null") is None
+
+
+def test_racing_processes_only_one_wins(tmp_path):
+    db = tmp_path / "audit.db"
+    racer = ("import sys; sys.path.insert(0, sys.argv[2]); from auditor.lock import ScanLock\n"
+             "from auditor.errors import StoreError\n"
+             "try:\n    lock = ScanLock(sys.argv[1]).acquire()\nexcept StoreError as e:\n"
+             "    print('refused', e); sys.exit(1)\n"
+             "print('won', flush=True); sys.stdin.readline()\n")
+    children = [subprocess.Popen([sys.executable, "-c", racer, str(db), str(REPO)], stdin=subprocess.PIPE,
+                                 stdout=subprocess.PIPE, text=True) for _ in range(4)]
+    # The winner holds the lock until told to stop, which happens only once the others have exited,
+    # so the outcome does not depend on how fast the processes start.
+    deadline = time.monotonic() + 60
+    while sum(c.poll() is not None for c in children) < 3 and time.monotonic() < deadline:
+        time.sleep(0.05)
+    outputs = [c.communicate("\n", timeout=30)[0] for c in children]
+    assert sorted(c.returncode for c in children) == [0, 1, 1, 1], outputs
+    assert sum(out.startswith("won") for out in outputs) == 1
+    assert sum("another scan holds the lock" in out for out in outputs) == 3
+
+
+def test_lock_file_that_cannot_be_made_is_a_store_error(tmp_path):
+    blocker = tmp_path / "not-a-folder"
+    blocker.write_text("x")
+    with pytest.raises(StoreError, match=r"audit.db.lock': cannot create the scan lock"):
+        ScanLock(blocker / "audit.db").acquire()
