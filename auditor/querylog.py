@@ -1,0 +1,293 @@
+"""Query-log import (DESIGN.md §4.5): search or chat logs -> a weighted question set.
+
+A query log is a CSV or JSON Lines file with a text column and, optionally, a count and a
+timestamp column (the names below, case-insensitive; or named by the caller); plain text is read as
+one query a line. Each record goes through, in this order:
+
+1. **redaction** (`redact.redact`) of e-mail addresses, phone and card numbers — first, so that no
+   later step, summary or stored row ever holds the original;
+2. **normalization**: Unicode NFKC, whitespace collapsed; the merge key is the *set* of casefolded
+   words minus filler words (`FILLER`), so case, punctuation, word order and "please" do not
+   separate two queries;
+3. **exact merging** of records with the same key, then **near-duplicate merging** of keys whose
+   token sets have a Jaccard similarity ≥ `similarity` (|A∩B| / |A∪B|). Keys are visited by
+   falling count and each joins the first existing group whose *leader* (its most frequent key) is
+   similar enough — leader clustering, so similarity never chains A~B~C into one group. Candidates
+   come from a prefix filter (Chaudhuri, Ganti & Kaushik, ICDE 2006; Bayardo et al., WWW 2007):
+   two sets with Jaccard ≥ t share a token among the first |X| − ⌈t·|X|⌉ + 1 tokens of each, in
+   one global order (rarest first), so only those are compared;
+4. **counts → weights**: a group's weight is the sum of its records' counts (1 per record without a
+   count column); its wording is its most frequent redacted variant (first seen on a tie).
+
+Questions come out heaviest first (first seen on a tie), with ids q-001, q-002, ... in that order.
+Columns other than text, count, timestamp, owner and topic are dropped (listed in the summary, never
+stored): logs carry session and user columns that must not travel further.
+"""
+
+from __future__ import annotations
+
+import math
+import re
+import unicodedata
+from collections import Counter
+from dataclasses import dataclass, field
+from datetime import datetime, timezone
+from pathlib import Path
+
+from .errors import InputError
+from .models import Question
+from .redact import PLACEHOLDERS
+from .redact import redact as redact_text
+
+# Column names that mark a query log (first present wins); "question" is accepted as the text
+# column only once a count or timestamp column has made the file a query log.
+TEXT_COLUMNS = ("query", "text", "search", "utterance", "question")
+COUNT_COLUMNS = ("count", "hits", "frequency", "freq", "searches", "occurrences")
+TIMESTAMP_COLUMNS = ("timestamp", "time", "ts", "datetime", "date", "created_at")
+CARRIED_COLUMNS = ("owner", "topic")
+
+# Words that change nothing about what is asked; common practice, no single source.
+FILLER = frozenset(
+    "please pls plz hi hello hey thanks thank thx um uh er hmm just kindly quick question help".split()
+)
+_WORD = re.compile(r"\[(?:email|phone|card)\]|\w+")
+_PLACEHOLDER_TOKENS = frozenset(PLACEHOLDERS.values())
+
+
+@dataclass
+class QueryLogSummary:
+    """What an import did: counts only, so it can be printed or stored without leaking anything."""
+
+    path: str
+    text_column: str | None = None
+    count_column: str | None = None
+    timestamp_column: str | None = None
+    ignored_columns: list[str] = field(default_factory=list)
+    records: int = 0  # log lines (records) read
+    total_count: int = 0  # Σ counts of the kept records = Σ weights of the questions
+    empty: int = 0  # records with no query text left (blank, or only placeholders / filler)
+    distinct: int = 0  # distinct merge keys after normalization
+    merged_exact: int = 0  # records folded into an identical key
+    merged_near: int = 0  # keys folded into a similar group
+    questions: int = 0
+    similarity: float = 0.85
+    redacted: Counter = field(default_factory=Counter)  # finds by kind: email, phone, card
+    redacted_records: int = 0
+    first_seen: str | None = None  # ISO timestamps, when a timestamp column parses
+    last_seen: str | None = None
+    largest_merges: list[dict] = field(default_factory=list)  # {"question","variants","count"}
+
+    def line(self) -> str:
+        kinds = ", ".join(f"{self.redacted[k]} {k}" for k in ("email", "phone", "card") if self.redacted[k])
+        return (
+            f"{self.records} log lines -> {self.questions} questions "
+            f"({self.merged_exact} exact and {self.merged_near} near duplicates merged, "
+            f"{self.empty} empty); redacted {kinds or 'nothing'}"
+        )
+
+
+def tokens(text: str) -> frozenset[str]:
+    """The merge key of a (redacted) query: casefolded words and placeholders, minus filler."""
+    return frozenset(t for t in _WORD.findall(text.casefold()) if t not in FILLER)
+
+
+def jaccard(a: frozenset, b: frozenset) -> float:
+    """|A∩B| / |A∪B| (Jaccard 1901); 1.0 for two empty sets."""
+    if not a and not b:
+        return 1.0
+    inter = len(a & b)
+    return inter / (len(a) + len(b) - inter)
+
+
+def _pick(columns: list[str], wanted: str | None, names: tuple[str, ...], what: str, path: Path) -> str | None:
+    if wanted is not None:
+        key = wanted.strip().casefold()
+        if key not in columns:
+            raise InputError(f"{str(path)!r}: line 1: no {what} column {wanted!r} (found: {', '.join(columns)})")
+        return key
+    return next((n for n in names if n in columns), None)
+
+
+def _count(path: Path, line: int, value) -> int:
+    if value in ("", None):
+        return 1
+    try:
+        if isinstance(value, bool):
+            raise ValueError
+        number = float(value)
+        if not math.isfinite(number) or not number.is_integer():
+            raise ValueError
+    except (TypeError, ValueError):
+        raise InputError(f"{str(path)!r}: line {line}: count {value!r} is not a whole number") from None
+    if number < 1:
+        raise InputError(f"{str(path)!r}: line {line}: count must be 1 or more, got {value!r}")
+    return int(number)
+
+
+def _timestamp(value) -> datetime | None:
+    if value in ("", None):
+        return None
+    if isinstance(value, (int, float)) and not isinstance(value, bool):
+        try:
+            return datetime.fromtimestamp(float(value), timezone.utc)
+        except (OverflowError, OSError, ValueError):
+            return None
+    try:
+        return datetime.fromisoformat(str(value).replace("Z", "+00:00"))
+    except ValueError:
+        return None  # unparseable stamps only leave the period open; the query still counts
+
+
+def _read(path: Path, text_column, count_column, summary: QueryLogSummary) -> list[tuple[int, str, int, dict]]:
+    """[(line, raw text, count, carried fields)] of the log; InputError on structural problems."""
+    from .questions import read_records, read_text, sniff_format
+
+    content = read_text(path)
+    fmt = sniff_format(path, content)
+    if fmt == "text":
+        summary.text_column = None
+        rows = [(n, line, 1, {}) for n, line in enumerate(content.splitlines(), 1) if line.strip()]
+        summary.records = len(rows)
+        return rows
+    columns, records = read_records(path, content, fmt)
+    text_key = _pick(columns, text_column, TEXT_COLUMNS, "text", path)
+    if text_key is None:
+        raise InputError(f"{str(path)!r}: line 1: no query text column; name one of "
+                         f"{', '.join(TEXT_COLUMNS)} (found: {', '.join(columns) or 'nothing'})")
+    count_key = _pick(columns, count_column, COUNT_COLUMNS, "count", path)
+    time_key = next((n for n in TIMESTAMP_COLUMNS if n in columns and n not in (text_key, count_key)), None)
+    used = {text_key, count_key, time_key, *CARRIED_COLUMNS}
+    summary.text_column, summary.count_column, summary.timestamp_column = text_key, count_key, time_key
+    summary.ignored_columns = [c for c in columns if c not in used]
+    summary.records = len(records)
+    first = last = None
+    rows = []
+    for line, fields in records:
+        raw = fields.get(text_key)
+        if isinstance(raw, (int, float)) and not isinstance(raw, bool):
+            raw = str(raw)
+        if raw is not None and not isinstance(raw, str):
+            raise InputError(f"{str(path)!r}: line {line}: {text_key} must be text, got {raw!r}")
+        count = _count(path, line, fields.get(count_key)) if count_key else 1
+        if time_key:
+            when = _timestamp(fields.get(time_key))
+            if when is not None:
+                if when.tzinfo is not None:  # compare in UTC, naive stamps taken as UTC
+                    when = when.astimezone(timezone.utc).replace(tzinfo=None)
+                stamp = when.isoformat()
+                first = stamp if first is None or stamp < first else first
+                last = stamp if last is None or stamp > last else last
+        carried = {c: fields.get(c) for c in CARRIED_COLUMNS if isinstance(fields.get(c), str) and fields.get(c)}
+        rows.append((line, raw or "", count, carried))
+    summary.first_seen, summary.last_seen = first, last
+    return rows
+
+
+def _prefix(key: tuple[str, ...], t: float) -> tuple[str, ...]:
+    return key[: len(key) - math.ceil(t * len(key) - 1e-9) + 1]
+
+
+def import_query_log(path, *, text_column: str | None = None, count_column: str | None = None,
+                     similarity: float = 0.85, redact: bool = True) -> tuple[list[Question], QueryLogSummary]:
+    """Import a query log as a weighted question set (module docstring), with a summary.
+
+    `similarity` is the Jaccard threshold for near duplicates (1.0 merges only identical keys).
+    With `redact=False` personal data is kept — for logs already scrubbed upstream.
+    Raises InputError naming the file (and line) for a missing file, bad encoding, a missing text
+    column, a bad count, or a log without any query.
+    """
+    path = Path(path)
+    if not 0.0 < similarity <= 1.0:
+        raise InputError(f"{str(path)!r}: similarity must be in (0, 1], got {similarity!r}")
+    summary = QueryLogSummary(path=str(path), similarity=similarity)
+    rows = _read(path, text_column, count_column, summary)
+
+    # Exact merge: key -> [count, first order, Counter(variant wording), Counter(owner), Counter(topic)]
+    groups: dict[frozenset, list] = {}
+    for order, (_line, raw, count, carried) in enumerate(rows):
+        text = " ".join(unicodedata.normalize("NFKC", raw).split())
+        if redact:
+            text, found = redact_text(text)
+            if found:
+                summary.redacted.update(found)
+                summary.redacted_records += 1
+        key = tokens(text)
+        if not key - _PLACEHOLDER_TOKENS:
+            summary.empty += 1
+            continue
+        entry = groups.get(key)
+        if entry is None:
+            entry = groups[key] = [0, order, Counter(), Counter(), Counter()]
+        else:
+            summary.merged_exact += 1
+        entry[0] += count
+        entry[2][text] += count
+        for name, slot in (("owner", 3), ("topic", 4)):
+            if name in carried:
+                entry[slot][carried[name]] += count
+        summary.total_count += count
+    if not groups:
+        raise InputError(f"{str(path)!r}: no queries found (empty log, or nothing left after redaction)")
+    summary.distinct = len(groups)
+
+    # Near-duplicate merge: leader clustering over keys by falling count, prefix-filtered.
+    df = Counter(t for key in groups for t in key)
+    keys = sorted(groups, key=lambda k: (-groups[k][0], groups[k][1]))
+    clusters: list[list[frozenset]] = []
+    leaders: list[frozenset] = []
+    index: dict[str, list[int]] = {}
+    for key in keys:
+        ordered = tuple(sorted(key, key=lambda t: (df[t], t)))
+        home = None
+        if similarity < 1.0:
+            seen: set[int] = set()
+            for tok in _prefix(ordered, similarity):
+                for c in index.get(tok, ()):
+                    if c not in seen:
+                        seen.add(c)
+                        if jaccard(key, leaders[c]) >= similarity and (home is None or c < home):
+                            home = c
+        if home is None:
+            home = len(clusters)
+            clusters.append([key])
+            leaders.append(key)
+            for tok in _prefix(ordered, similarity):
+                index.setdefault(tok, []).append(home)
+        else:
+            clusters[home].append(key)
+            summary.merged_near += 1
+
+    merged = []
+    for members in clusters:
+        count = sum(groups[k][0] for k in members)
+        first = min(groups[k][1] for k in members)
+        variants: Counter = Counter()
+        owners: Counter = Counter()
+        topics: Counter = Counter()
+        firsts: dict[str, int] = {}
+        for k in members:
+            variants.update(groups[k][2])
+            owners.update(groups[k][3])
+            topics.update(groups[k][4])
+            for v in groups[k][2]:
+                firsts[v] = min(firsts.get(v, groups[k][1]), groups[k][1])
+        wording = min(variants, key=lambda v: (-variants[v], firsts[v], v))
+        merged.append((count, first, wording, _top(owners), _top(topics), len(variants)))
+    merged.sort(key=lambda m: (-m[0], m[1]))
+
+    from .questions import generated_id
+
+    questions = [
+        Question(id=generated_id(i, len(merged)), question=wording, owner=owner, topic=topic, weight=float(count))
+        for i, (count, _first, wording, owner, topic, _n) in enumerate(merged, 1)
+    ]
+    summary.questions = len(questions)
+    summary.largest_merges = [
+        {"question": m[2], "variants": m[5], "count": m[0]}
+        for m in sorted(merged, key=lambda m: (-m[5], -m[0], m[1]))[:10] if m[5] > 1
+    ]
+    return questions, summary
+
+
+def _top(counter: Counter) -> str | None:
+    return min(counter, key=lambda v: (-counter[v], v)) if counter else None

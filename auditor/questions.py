@@ -1,0 +1,334 @@
+"""Question sets (DESIGN.md §4.5): CSV, JSON Lines or plain text -> `models.Question` list.
+
+Format, by extension first and content second:
+
+* ``.csv`` / ``.tsv`` -> CSV (delimiter ``,``; ``;`` or tab when the header uses that instead);
+  ``.jsonl`` / ``.ndjson`` / ``.json`` -> JSON Lines; ``.txt`` / ``.text`` -> plain text.
+* Any other extension: the first non-blank line decides — ``{`` starts JSON Lines, a header with a
+  ``question`` (or query-log text) column is CSV, anything else is plain text.
+
+A CSV or JSON Lines file is a **query log**, handed to `querylog.import_query_log`, when its
+columns (keys) include a query-log text column (``query``, ``text``, ``search``, ``utterance``)
+or a count or timestamp column (see `querylog.TEXT_COLUMNS`, `COUNT_COLUMNS`,
+`TIMESTAMP_COLUMNS`). So ``question,count`` is a query log, ``question,weight`` a question set.
+Plain text is always a question set.
+
+Question-set rules (each breach is an InputError naming the file and the line):
+
+* columns: ``question`` (required), ``id``, ``owner``, ``topic``, ``weight``, ``horizon_days``
+  (case and surrounding spaces ignored). An **unknown column is an error**: a typo such as
+  ``wieght`` would otherwise silently give every question weight 1. (Query logs differ: their
+  extra columns — session, user — are dropped and listed in the import summary, never stored.)
+* ``weight``: a finite number > 0, default 1; ``horizon_days``: a whole number > 0.
+* a missing id becomes ``q-NNN``, NNN being the question's position in the file (1-based,
+  zero-padded to at least 3 digits), so ids stay stable while the order stays; a generated id
+  that collides with a given one is a duplicate-id error like any other.
+* plain text: one question a line; blank lines and lines starting with ``#`` are skipped.
+* encodings: UTF-8 (with or without BOM) or UTF-16 with a BOM; anything else is refused with the
+  line of the first undecodable byte, rather than guessed.
+* no questions at all (empty file, header only) is an error.
+
+Curated question sets are not redacted (their authors chose the wording); query logs are.
+"""
+
+from __future__ import annotations
+
+import codecs
+import csv
+import io
+import json
+import logging
+import math
+from pathlib import Path
+
+from .errors import InputError
+from .models import Question
+
+log = logging.getLogger(__name__)
+
+QUESTION_COLUMNS = ("id", "question", "owner", "topic", "weight", "horizon_days")
+CSV_EXTENSIONS = (".csv", ".tsv")
+JSONL_EXTENSIONS = (".jsonl", ".ndjson", ".json")
+TEXT_EXTENSIONS = (".txt", ".text")
+
+
+# --- reading --------------------------------------------------------------------------------------
+
+def read_text(path: Path) -> str:
+    """The file's text: UTF-8 (BOM optional) or BOM-marked UTF-16; InputError otherwise."""
+    try:
+        data = path.read_bytes()
+    except FileNotFoundError:
+        raise InputError(f"{str(path)!r}: file not found") from None
+    except IsADirectoryError:
+        raise InputError(f"{str(path)!r}: is a folder, not a question file") from None
+    except OSError as exc:
+        raise InputError(f"{str(path)!r}: cannot read ({exc.strerror or exc})") from None
+    if data.startswith((codecs.BOM_UTF16_LE, codecs.BOM_UTF16_BE)):
+        encoding, body = "utf-16", data
+    else:
+        encoding, body = "utf-8-sig", data
+    try:
+        return body.decode(encoding)
+    except UnicodeDecodeError as exc:
+        # Line of the first bad byte, so the user can find it; UTF-16 offsets count code units.
+        prefix = body[: exc.start]
+        line = (prefix.decode(encoding, "replace").count("\n") if encoding == "utf-16"
+                else prefix.count(b"\n")) + 1
+        raise InputError(
+            f"{str(path)!r}: line {line}: not valid {'UTF-16' if encoding == 'utf-16' else 'UTF-8'} "
+            f"(byte 0x{body[exc.start]:02x}); save the file as UTF-8"
+        ) from None
+
+
+def _first_line(text: str) -> str:
+    for line in text.splitlines():
+        if line.strip():
+            return line.strip()
+    return ""
+
+
+def _csv_delimiter(header: str) -> str:
+    # The header decides: whichever of , ; tab splits it into the most fields.
+    counts = {d: header.count(d) for d in (",", ";", "\t")}
+    best = max(counts, key=lambda d: counts[d])
+    return best if counts[best] else ","
+
+
+def _norm_key(name) -> str:
+    return str(name).strip().casefold()
+
+
+def sniff_format(path: Path, text: str) -> str:
+    """"csv", "jsonl" or "text" for a question file, by extension, then by content."""
+    suffix = path.suffix.casefold()
+    if suffix in CSV_EXTENSIONS:
+        return "csv"
+    if suffix in JSONL_EXTENSIONS:
+        return "jsonl"
+    if suffix in TEXT_EXTENSIONS:
+        return "text"
+    first = _first_line(text)
+    if first.startswith("{"):
+        return "jsonl"
+    from .querylog import TEXT_COLUMNS
+
+    fields = {_norm_key(f) for f in next(csv.reader([first], delimiter=_csv_delimiter(first)), [])}
+    if "question" in fields or fields & set(TEXT_COLUMNS):
+        return "csv"
+    return "text"
+
+
+def read_records(path: Path, text: str, fmt: str) -> tuple[list[str], list[tuple[int, dict]]]:
+    """(column names, [(line number, {column: value})]) of a CSV or JSON Lines file.
+
+    Column names are case-folded and stripped. Shared by question sets and query logs.
+    """
+    if fmt == "csv":
+        return _read_csv(path, text)
+    return _read_jsonl(path, text)
+
+
+def _read_csv(path: Path, text: str) -> tuple[list[str], list[tuple[int, dict]]]:
+    delimiter = "\t" if path.suffix.casefold() == ".tsv" else _csv_delimiter(_first_line(text))
+    reader = csv.reader(io.StringIO(text, newline=""), delimiter=delimiter)
+    header: list[str] | None = None
+    records: list[tuple[int, dict]] = []
+    last = 0
+    try:
+        for row in reader:
+            start, last = last + 1, reader.line_num
+            if not row or not any(cell.strip() for cell in row):
+                continue
+            if header is None:
+                header = [_norm_key(c) for c in row]
+                seen = set()
+                for name in header:
+                    if not name:
+                        raise InputError(f"{str(path)!r}: line {start}: empty column name in the header")
+                    if name in seen:
+                        raise InputError(f"{str(path)!r}: line {start}: column {name!r} appears twice")
+                    seen.add(name)
+                continue
+            if len(row) > len(header):
+                raise InputError(
+                    f"{str(path)!r}: line {start}: {len(row)} fields but the header has {len(header)}"
+                    " (quote fields that contain the delimiter)"
+                )
+            records.append((start, dict(zip(header, (c.strip() for c in row)))))
+    except csv.Error as exc:
+        raise InputError(f"{str(path)!r}: line {reader.line_num}: malformed CSV ({exc})") from None
+    return header or [], records
+
+
+def _read_jsonl(path: Path, text: str) -> tuple[list[str], list[tuple[int, dict]]]:
+    columns: dict[str, None] = {}
+    records: list[tuple[int, dict]] = []
+    for number, line in enumerate(text.splitlines(), 1):
+        if not line.strip():
+            continue
+        try:
+            obj = json.loads(line)
+        except json.JSONDecodeError as exc:
+            raise InputError(f"{str(path)!r}: line {number}: not valid JSON ({exc.msg})") from None
+        if not isinstance(obj, dict):
+            raise InputError(f"{str(path)!r}: line {number}: expected a JSON object, got {type(obj).__name__}")
+        record = {}
+        for key, value in obj.items():
+            name = _norm_key(key)
+            if isinstance(value, (dict, list)):
+                raise InputError(f"{str(path)!r}: line {number}: {key!r} must be a string or number")
+            record[name] = "" if value is None else (value.strip() if isinstance(value, str) else value)
+            columns.setdefault(name)
+        records.append((number, record))
+    return list(columns), records
+
+
+# --- question sets --------------------------------------------------------------------------------
+
+def _weight(path: Path, line: int, value) -> float:
+    if value in ("", None):
+        return 1.0
+    try:
+        if isinstance(value, bool):
+            raise ValueError
+        weight = float(value)
+    except (TypeError, ValueError):
+        raise InputError(f"{str(path)!r}: line {line}: weight {value!r} is not a number") from None
+    if not math.isfinite(weight) or weight <= 0:
+        raise InputError(f"{str(path)!r}: line {line}: weight must be a finite number above 0, got {value!r}")
+    return weight
+
+
+def _horizon(path: Path, line: int, value) -> int | None:
+    if value in ("", None):
+        return None
+    try:
+        if isinstance(value, bool) or (isinstance(value, float) and not value.is_integer()):
+            raise ValueError
+        days = int(value)
+    except (TypeError, ValueError):
+        raise InputError(f"{str(path)!r}: line {line}: horizon_days {value!r} is not a whole number") from None
+    if days <= 0:
+        raise InputError(f"{str(path)!r}: line {line}: horizon_days must be above 0, got {value!r}")
+    return days
+
+
+def _text_field(path: Path, line: int, name: str, value) -> str | None:
+    if value in ("", None):
+        return None
+    if isinstance(value, bool) or not isinstance(value, (str, int)):
+        raise InputError(f"{str(path)!r}: line {line}: {name} must be text, got {value!r}")
+    return " ".join(str(value).split())
+
+
+def generated_id(position: int, total: int) -> str:
+    """Stable id of the question at 1-based `position`: q-001, ... (wider past 999 questions)."""
+    return f"q-{position:0{max(3, len(str(total)))}d}"
+
+
+def build_questions(path: Path, rows: list[tuple[int, dict]]) -> list[Question]:
+    """Validated questions from (line, fields) rows, ids filled in; InputError on the first breach."""
+    if not rows:
+        raise InputError(f"{str(path)!r}: no questions found (empty file?)")
+    total = len(rows)
+    given: dict[str, int] = {}
+    for line, fields in rows:
+        qid = _text_field(path, line, "id", fields.get("id"))
+        if qid is not None:
+            if qid in given:
+                raise InputError(f"{str(path)!r}: line {line}: duplicate id {qid!r} (first on line {given[qid]})")
+            given[qid] = line
+    questions: list[Question] = []
+    used: dict[str, int] = {}
+    for position, (line, fields) in enumerate(rows, 1):
+        text = _text_field(path, line, "question", fields.get("question"))
+        if not text:
+            raise InputError(f"{str(path)!r}: line {line}: empty question")
+        qid = _text_field(path, line, "id", fields.get("id")) or generated_id(position, total)
+        if qid in used:
+            raise InputError(f"{str(path)!r}: line {line}: duplicate id {qid!r} (first on line {used[qid]})")
+        used[qid] = line
+        questions.append(Question(
+            id=qid,
+            question=text,
+            owner=_text_field(path, line, "owner", fields.get("owner")),
+            topic=_text_field(path, line, "topic", fields.get("topic")),
+            weight=_weight(path, line, fields.get("weight")),
+            horizon_days=_horizon(path, line, fields.get("horizon_days")),
+        ))
+    return questions
+
+
+def is_query_log(columns) -> bool:
+    """The documented rule: a query-log text column, or a count or timestamp column."""
+    from .querylog import COUNT_COLUMNS, TEXT_COLUMNS, TIMESTAMP_COLUMNS
+
+    names = {_norm_key(c) for c in columns}
+    return bool(names & (set(TEXT_COLUMNS) - {"question"} | set(COUNT_COLUMNS) | set(TIMESTAMP_COLUMNS)))
+
+
+def load_questions(path) -> list[Question]:
+    """Load a question set (CSV, JSON Lines or plain text) or a query log, in file order.
+
+    Query logs (see the module docstring for the rule) are imported with the default settings of
+    `querylog.import_query_log` — redacted, near-duplicates merged, counts as weights — and its
+    summary line is logged at INFO. Raises InputError naming the file (and line) on bad input.
+    """
+    path = Path(path)
+    text = read_text(path)
+    fmt = sniff_format(path, text)
+    if fmt == "text":
+        rows = [(n, {"question": line.strip()}) for n, line in enumerate(text.splitlines(), 1)
+                if line.strip() and not line.lstrip().startswith("#")]
+        return build_questions(path, rows)
+    columns, records = read_records(path, text, fmt)
+    if is_query_log(columns):
+        from .querylog import import_query_log
+
+        questions, summary = import_query_log(path)
+        log.info("%s: %s", path, summary.line())
+        return questions
+    if fmt == "csv" and "question" not in columns:
+        raise InputError(f"{str(path)!r}: line 1: the header needs a 'question' column "
+                         f"(found: {', '.join(columns) or 'nothing'})")
+    # CSV: the header is checked even when no row follows; JSON Lines: each object on its line.
+    checks = [(1, dict.fromkeys(columns))] if fmt == "csv" else records
+    for line, fields in checks:
+        unknown = [c for c in fields if c not in QUESTION_COLUMNS]
+        if unknown:
+            raise InputError(f"{str(path)!r}: line {line}: unknown column {unknown[0]!r}; "
+                             f"expected {', '.join(QUESTION_COLUMNS)}")
+    return build_questions(path, records)
+
+
+# --- storing --------------------------------------------------------------------------------------
+
+def store_questions(store, questions: list[Question], set_name: str) -> int:
+    """Replace the stored question set `set_name` (the file's name) with `questions`, in order.
+
+    One transaction: a failure leaves the previous set in place. Query-log questions arrive here
+    already redacted (`querylog.import_query_log`), so nothing personal reaches the database.
+    Returns the number of rows written.
+    """
+    rows = [
+        (set_name, position, q.id, q.question, q.owner, q.topic, float(q.weight), q.horizon_days)
+        for position, q in enumerate(questions)
+    ]
+    with store.transaction() as db:
+        db.execute("DELETE FROM questions WHERE set_name = ?", [set_name])
+        db.conn.executemany(
+            "INSERT INTO questions (set_name, position, qid, question, owner, topic, weight, horizon_days) "
+            "VALUES (?, ?, ?, ?, ?, ?, ?, ?)",
+            rows,
+        )
+    return len(rows)
+
+
+def stored_questions(store, set_name: str) -> list[Question]:
+    """The question set `set_name` as last stored, in order."""
+    return [
+        Question(id=r["qid"], question=r["question"], owner=r["owner"], topic=r["topic"],
+                 weight=r["weight"], horizon_days=r["horizon_days"])
+        for r in store.query("SELECT * FROM questions WHERE set_name = ? ORDER BY position", [set_name])
+    ]

@@ -1,0 +1,166 @@
+"""Redaction of personal data in query-log text: e-mail addresses, phone numbers, card numbers.
+
+Pure functions, run on every query before it is normalized, merged or stored. Each find is replaced
+by a placeholder (`PLACEHOLDERS`) and counted, so the import summary can say what was removed
+without keeping any of it.
+
+* E-mail: an RFC 5322 addr-spec — a dot-atom or quoted-string local part, "@", a domain of dotted
+  labels (at least one dot) or a domain literal in brackets — with the UTF-8 letters that RFC 6531
+  (SMTPUTF8) allows on both sides. Dotless domains ("me@home") are left: in search queries they are
+  far more often not addresses.
+* Card: 13–19 digits, optionally grouped by single spaces or hyphens, whose Luhn check digit
+  (ISO/IEC 7812-1, annex B) is right. A digit run that fails the check is not a card.
+* Phone: digit groups in the layouts of ITU-T E.123 / E.164 — "+" or "00" and a country code with
+  at most 15 digits in all (E.164's limit), or national forms with separators such as
+  "(415) 555-0100", "020 7946 0958", "01 23 45 67 89" (7–15 digits), or a bare run of 10–15 digits.
+  Not phones: dates (2025-03-14, 14.03.2025), year lists and ranges (2019-2024), IPv4 addresses,
+  amounts next to a currency sign or code, and short numbers ("2025", "Q3", "ext 12").
+"""
+
+from __future__ import annotations
+
+import re
+from collections import Counter
+
+PLACEHOLDERS = {"email": "[email]", "phone": "[phone]", "card": "[card]"}
+
+# RFC 5322 §3.2.3 atext, plus any non-ASCII letter or digit (RFC 6531 §3.3 extends atext with
+# UTF8-non-ascii). Python's \w is Unicode-aware, so it covers letters of every script.
+_ATEXT = r"[\w!#$%&'*+/=?^`{|}~-]"
+_LOCAL = rf'(?:{_ATEXT}+(?:\.{_ATEXT}+)*|"(?:[^"\\\r\n]|\\.)+")'
+_LABEL = r"[^\W_](?:[\w-]*[^\W_])?"
+_DOMAIN = rf"(?:{_LABEL}(?:\.{_LABEL})+|\[[^\]\s]+\])"
+EMAIL = re.compile(rf"(?<![\w.!#$%&'*+/=?^`{{|}}~-]){_LOCAL}@{_DOMAIN}")
+
+# Digit groups joined by a space, a hyphen or a dot (with optional spaces around the last two), a
+# group possibly in parentheses (area codes), optionally led by "+" or "00". Every phone and card
+# candidate is such a run; classification happens in Python, where the rules are readable.
+_GROUP = r"(?:\(\d{1,5}\)|\d+)"
+_SEP = r"(?:[ \u00a0]|[ ]?[.\-\u2013\u2012][ ]?)"
+DIGIT_RUN = re.compile(rf"(?<![\w.,/:+\-])(?:\+[ ]?)?{_GROUP}(?:{_SEP}{_GROUP})*(?![\w]|[.,/:]\d)")
+_GROUP_DIGITS = re.compile(r"\d+")
+
+# A date at the start of a run: year-month-day, or day/month first with a 2- or 4-digit year, one
+# separator used twice (never a space: "01 23 45 67 89" is a French phone number, not a date).
+_DATE = re.compile(r"^(?:(\d{4})([.\-])(\d{1,2})\2(\d{1,2})|(\d{1,2})([.\-])(\d{1,2})\6(?:\d{4}|\d{2}))(?![.\-]?\d)")
+_YEAR = re.compile(r"^(?:1[89]|20|21)\d\d$")
+_CURRENCY_BEFORE = re.compile(r"(?:[$€£¥₹]|\b(?:USD|EUR|GBP|CHF|CAD|AUD|JPY|SEK|NOK|DKK|kr|Rs))\s?$")
+_CURRENCY_AFTER = re.compile(
+    r"^\s?(?:[$€£¥₹%]|(?:USD|EUR|GBP|CHF|CAD|AUD|JPY|SEK|NOK|DKK|kr|dollars?|euros?|pounds?|cents?)\b)",
+    re.IGNORECASE,
+)
+
+
+def luhn_valid(digits: str) -> bool:
+    """True when the last digit is the Luhn check digit of the others (ISO/IEC 7812-1 annex B).
+
+    From the right, every second digit is doubled (9 subtracted when above 9); the sum of all
+    digits must be a multiple of 10.
+    """
+    if not digits.isdigit() or len(digits) < 2:
+        return False
+    total = 0
+    for i, ch in enumerate(reversed(digits)):
+        d = ord(ch) - 48
+        if i % 2:
+            d = d * 2 - 9 if d > 4 else d * 2
+        total += d
+    return total % 10 == 0
+
+
+def _card_span(run: str, groups: list[re.Match]) -> tuple[int, int] | None:
+    """(start, end) within `run` of a Luhn-valid 13–19-digit window of whole groups, or None.
+
+    Windows, not only the whole run, so "2024 4111 1111 1111 1111" still finds the card after a
+    year. Card groups are joined by space or hyphen only (never dots: those are dates or versions).
+    """
+    n = len(groups)
+    for i in range(n):
+        digits = ""
+        for j in range(i, n):
+            if j > i and run[groups[j - 1].end():groups[j].start()].strip(" -\u00a0"):
+                break
+            if run[groups[j].start() - 1:groups[j].start()] == "(" or run[groups[j].end():groups[j].end() + 1] == ")":
+                break
+            digits += groups[j].group()
+            if len(digits) > 19:
+                break
+            if len(digits) >= 13 and luhn_valid(digits):
+                return groups[i].start(), groups[j].end()
+    return None
+
+
+def _is_date(run: str) -> bool:
+    match = _DATE.match(run)
+    if not match:
+        return False
+    if match.group(1):
+        return 1 <= int(match.group(3)) <= 12 and 1 <= int(match.group(4)) <= 31
+    a, b = int(match.group(5)), int(match.group(7))
+    return 1 <= min(a, b) <= 12 and 1 <= max(a, b) <= 31
+
+
+def _is_phone(run: str, groups: list[re.Match], before: str, after: str) -> bool:
+    digits = "".join(g.group() for g in groups)
+    values = [g.group() for g in groups]
+    international = run.startswith("+") or (run.startswith("00") and len(groups) > 1)
+    if international:
+        count = len(digits) - (0 if run.startswith("+") else 2)
+        return 8 <= count <= 15
+    if _CURRENCY_BEFORE.search(before) or _CURRENCY_AFTER.search(after):
+        return False
+    if len(groups) == 1:
+        # A bare run: 10–15 digits is a national or international number without separators;
+        # shorter runs are order numbers, postcodes, years.
+        return 10 <= len(digits) <= 15
+    if not 7 <= len(digits) <= 15:
+        return False
+    if _is_date(run):
+        return False
+    if all(_YEAR.match(v) for v in values):
+        return False  # "2019-2024", "2023 2024 2025"
+    if len(values) == 4 and "." in run and all(int(v) <= 255 for v in values):
+        return False  # IPv4 address
+    return True
+
+
+def redact(text: str) -> tuple[str, Counter]:
+    """`text` with e-mail addresses, card numbers and phone numbers replaced by placeholders.
+
+    Returns the redacted text and a Counter of finds by kind ("email", "card", "phone").
+    E-mail goes first (a local part may hold digits), then digit runs: a run (or a window of its
+    groups) that passes the Luhn check is a card, else the phone rules decide.
+    """
+    found: Counter = Counter()
+
+    def email(match: re.Match) -> str:
+        found["email"] += 1
+        return PLACEHOLDERS["email"]
+
+    text = EMAIL.sub(email, text)
+    if not any(ch.isdigit() for ch in text):
+        return text, found
+
+    out: list[str] = []
+    pos = 0
+    for match in DIGIT_RUN.finditer(text):
+        run = match.group()
+        groups = list(_GROUP_DIGITS.finditer(run))
+        total = sum(len(g.group()) for g in groups)
+        if total < 7:
+            continue
+        start, end = match.span()
+        card = _card_span(run, groups) if total >= 13 else None
+        if card is not None:
+            out.append(text[pos:start + card[0]])
+            out.append(PLACEHOLDERS["card"])
+            found["card"] += 1
+            pos = start + card[1]
+            continue
+        if _is_phone(run, groups, text[max(0, start - 6):start], text[end:end + 9]):
+            out.append(text[pos:start])
+            out.append(PLACEHOLDERS["phone"])
+            found["phone"] += 1
+            pos = end
+    out.append(text[pos:])
+    return "".join(out), found
