@@ -18,12 +18,32 @@ import json
 import os
 import socket
 import time
+import weakref
 from datetime import datetime, timezone
 from pathlib import Path
 
 from .errors import StoreError
 
 POLL_SECONDS = 0.1  # how often a waiting scan retries; flock(2) itself has no timeout
+
+# Locks held by this process. A forked child (a parser worker) inherits the lock's descriptor,
+# and a flock lives until every descriptor of it is closed: a worker outliving a killed scan would
+# keep the database locked. So forked children close their copies at once.
+_HELD: "weakref.WeakSet[ScanLock]" = weakref.WeakSet()
+
+
+def _forget_in_child() -> None:
+    for lock in list(_HELD):
+        fd, lock._fd = lock._fd, None
+        if fd is not None:
+            try:
+                os.close(fd)
+            except OSError:
+                pass
+    _HELD.clear()
+
+
+os.register_at_fork(after_in_child=_forget_in_child)
 
 
 class ScanLock:
@@ -67,12 +87,14 @@ class ScanLock:
             os.close(fd)  # closing drops the flock too
             raise
         self._fd = fd
+        _HELD.add(self)
         return self
 
     def release(self) -> None:
         if self._fd is None:
             return
         fd, self._fd = self._fd, None
+        _HELD.discard(self)
         try:
             _write(fd, "")  # empty = released cleanly; see the module docstring
         except OSError:

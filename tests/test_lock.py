@@ -73,6 +73,45 @@ def test_lock_of_a_sigkilled_holder_is_taken_over(tmp_path):
         assert again.taken_over is None
 
 
+# A holder that forks a long-lived worker (as a parser pool does), says both pids, and waits.
+FORKING_HOLDER = """
+import os, sys, time, multiprocessing
+sys.path.insert(0, sys.argv[2])
+from auditor.lock import ScanLock
+lock = ScanLock(sys.argv[1]).acquire()
+worker = os.fork()
+if worker == 0:
+    time.sleep(60)
+    os._exit(0)
+pool = multiprocessing.get_context("fork").Pool(1)
+pool_pid = pool.apply(os.getpid)
+print(worker, pool_pid, flush=True)
+sys.stdin.readline()
+"""
+
+
+def test_workers_forked_by_a_killed_holder_do_not_keep_the_lock(tmp_path):
+    db = tmp_path / "audit.db"
+    child = subprocess.Popen([sys.executable, "-c", FORKING_HOLDER, str(db), str(REPO)], stdin=subprocess.PIPE,
+                             stdout=subprocess.PIPE, text=True)
+    worker, pool_worker = map(int, child.stdout.readline().split())
+    try:
+        with pytest.raises(StoreError):
+            ScanLock(db).acquire()
+        os.kill(child.pid, signal.SIGKILL)
+        child.wait(10)
+        os.kill(worker, 0)  # the forked worker outlives the killed scan ...
+        os.kill(pool_worker, 0)
+        with ScanLock(db) as lock:  # ... but does not hold its lock
+            assert lock.taken_over["pid"] == child.pid
+    finally:
+        for pid in (worker, pool_worker):
+            try:
+                os.kill(pid, signal.SIGKILL)
+            except ProcessLookupError:
+                pass
+
+
 def test_waiting_holder_gets_the_lock_when_it_is_released(tmp_path):
     db = tmp_path / "audit.db"
     child = start_holder(db)
