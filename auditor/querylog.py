@@ -202,7 +202,8 @@ def import_query_log(path, *, text_column: str | None = None, count_column: str 
     summary = QueryLogSummary(path=str(path), similarity=similarity)
     rows = _read(path, text_column, count_column, summary)
 
-    # Exact merge: key -> [count, first order, Counter(variant wording), Counter(owner), Counter(topic)]
+    # Exact merge: key -> [count, first order, Counter(variant wording), Counter(owner), Counter(topic),
+    # {variant: first order}]
     groups: dict[frozenset, list] = {}
     for order, (_line, raw, count, carried) in enumerate(rows):
         text = " ".join(unicodedata.normalize("NFKC", raw).split())
@@ -217,11 +218,12 @@ def import_query_log(path, *, text_column: str | None = None, count_column: str 
             continue
         entry = groups.get(key)
         if entry is None:
-            entry = groups[key] = [0, order, Counter(), Counter(), Counter()]
+            entry = groups[key] = [0, order, Counter(), Counter(), Counter(), {}]
         else:
             summary.merged_exact += 1
         entry[0] += count
         entry[2][text] += count
+        entry[5].setdefault(text, order)
         for name, slot in (("owner", 3), ("topic", 4)):
             if name in carried:
                 entry[slot][carried[name]] += count
@@ -269,8 +271,8 @@ def import_query_log(path, *, text_column: str | None = None, count_column: str 
             variants.update(groups[k][2])
             owners.update(groups[k][3])
             topics.update(groups[k][4])
-            for v in groups[k][2]:
-                firsts[v] = min(firsts.get(v, groups[k][1]), groups[k][1])
+            for v, seen_at in groups[k][5].items():
+                firsts[v] = min(firsts.get(v, seen_at), seen_at)
         wording = min(variants, key=lambda v: (-variants[v], firsts[v], v))
         merged.append((count, first, wording, _top(owners), _top(topics), len(variants)))
     merged.sort(key=lambda m: (-m[0], m[1]))

@@ -24,11 +24,13 @@ from collections import Counter
 
 PLACEHOLDERS = {"email": "[email]", "phone": "[phone]", "card": "[card]"}
 
-# RFC 5322 §3.2.3 atext, plus any non-ASCII letter or digit (RFC 6531 §3.3 extends atext with
-# UTF8-non-ascii). Python's \w is Unicode-aware, so it covers letters of every script.
-_ATEXT = r"[\w!#$%&'*+/=?^`{|}~-]"
+# RFC 5322 §3.2.3 atext, plus RFC 6531 §3.3's UTF8-non-ascii: any non-ASCII character, here less
+# whitespace and the punctuation blocks (general, CJK, fullwidth) so that "addr@x.org。" ends at "g".
+_NON_ASCII = r"[^\x00-\x7f\s\u2000-\u206f\u3000-\u303f\uff00-\uff0f\uff1a-\uff20]"
+_ATEXT = rf"(?:[A-Za-z0-9!#$%&'*+/=?^_`{{|}}~-]|{_NON_ASCII})"
 _LOCAL = rf'(?:{_ATEXT}+(?:\.{_ATEXT}+)*|"(?:[^"\\\r\n]|\\.)+")'
-_LABEL = r"[^\W_](?:[\w-]*[^\W_])?"
+_LABEL_CHAR = rf"(?:[A-Za-z0-9]|{_NON_ASCII})"
+_LABEL = rf"{_LABEL_CHAR}(?:(?:{_LABEL_CHAR}|-)*{_LABEL_CHAR})?"
 _DOMAIN = rf"(?:{_LABEL}(?:\.{_LABEL})+|\[[^\]\s]+\])"
 EMAIL = re.compile(rf"(?<![\w.!#$%&'*+/=?^`{{|}}~-]){_LOCAL}@{_DOMAIN}")
 
@@ -150,7 +152,10 @@ def redact(text: str) -> tuple[str, Counter]:
         if total < 7:
             continue
         start, end = match.span()
-        card = _card_span(run, groups) if total >= 13 else None
+        # International notation ("+" or "00" and a country code) is a phone, never a card: a
+        # 15-digit "0044 20 7946 0958" passes the Luhn check one time in ten by chance.
+        international = run.startswith("+") or (run.startswith("00") and len(groups) > 1 and total <= 17)
+        card = _card_span(run, groups) if total >= 13 and not international else None
         if card is not None:
             out.append(text[pos:start + card[0]])
             out.append(PLACEHOLDERS["card"])

@@ -1,0 +1,350 @@
+"""Query-log import: normalization, near-duplicate merging, counts -> weights, redaction before storing."""
+
+from __future__ import annotations
+
+import csv
+import json
+import random
+from collections import Counter
+
+import numpy as np
+import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
+from scipy.spatial.distance import jaccard as scipy_jaccard_distance
+
+from auditor.errors import InputError
+from auditor.querylog import _prefix, import_query_log, jaccard, tokens
+from auditor.questions import load_questions, store_questions, stored_questions
+from auditor.redact import luhn_valid
+from auditor.store import Store
+
+# Invented questions to a fictional water utility (demo data, DESIGN.md §5); each has 6+ distinct
+# words, so one extra word keeps Jaccard ≥ 6/7 ≈ 0.857 with its base, while different bases share
+# far less. "{pii}" marks where a generated line plants personal data.
+BASES = [
+    "how can I pay my water bill online",
+    "when is the next meter reading in my street",
+    "who do I call to report a burst main",
+    "where can I see the current water quality report",
+    "how long does a boil water advisory usually last",
+    "what are the residential water rates this year",
+    "can I get a rebate for a low flow toilet",
+    "how do I start service at a new address",
+    "how do I stop service when I move out",
+    "why is my tap water brown this morning",
+    "is there a late fee if my payment is delayed",
+    "how much does a new service connection cost",
+    "what should I do about a leak under the sidewalk",
+    "when will the main replacement on oak avenue finish",
+    "can I set up automatic payments from my bank account",
+    "how do I read the dial on my water meter",
+    "what is the hardness of our drinking water supply",
+    "are there watering restrictions during the summer drought",
+    "how do I apply for the senior discount programme",
+    "who owns the pipe between the meter and my house",
+    "my email is {pii} and I cannot log in to my account",
+    "please change the contact number on my account to {pii}",
+    "my card {pii} was charged twice for the same bill",
+    "send the final bill for my old flat to {pii} today",
+    "call me back on {pii} about the pressure drop",
+]
+PII_KIND = {20: "email", 21: "phone", 22: "card", 23: "email", 24: "phone"}
+EXTRA_WORDS = ["now", "asap", "again", "quickly", "tonight"]  # not filler: make near-duplicates
+FILLERS = ["please", "hi", "thanks", "hello", "just"]
+NAMES = ["ann.lee", "bo_stone", "carla+bills", "dev.o'neil", "eve-marsh", "fen.k", "gil", "hana.ito"]
+
+
+def _card(rng: random.Random) -> str:
+    payload = "4" + "".join(rng.choice("0123456789") for _ in range(14))
+    digits = next(payload + d for d in "0123456789" if luhn_valid(payload + d))
+    style = rng.randrange(3)
+    if style == 0:
+        return digits
+    sep = " " if style == 1 else "-"
+    return sep.join(digits[i:i + 4] for i in range(0, 16, 4))
+
+
+def _phone(rng: random.Random) -> str:
+    # Numbers set aside for fiction (from memory): NANP 555-01xx, Ofcom 020 7946 0xxx.
+    n = rng.randrange(100)
+    return rng.choice([
+        f"(415) 555-01{n:02d}", f"415-555-01{n:02d}", f"+1 415 555 01{n:02d}", f"+14155550{100 + n}",
+        f"020 7946 0{n:03d}", f"+44 20 7946 0{n:03d}", f"0044 20 7946 0{n:03d}",
+    ])
+
+
+def _email(rng: random.Random, i: int) -> str:
+    return f"{rng.choice(NAMES)}{i}@{rng.choice(['example.org', 'mail.example.com', '例子.广告'])}"
+
+
+def generate_log(path, lines: int, seed: int):
+    """Write a CSV query log; return what was planted (counts per base, personal strings, ...)."""
+    rng = random.Random(seed)
+    planted_count = Counter()  # base index -> Σ counts
+    planted_kinds = Counter()  # personal data finds by kind
+    personal: list[str] = []
+    near_keys: set[tuple[int, str]] = set()
+    empty = 0
+    rows = []
+    for i in range(lines):
+        if rng.random() < 0.01:  # a line that is nothing but personal data: dropped as empty
+            value = _email(rng, i)
+            personal.append(value)
+            planted_kinds["email"] += 1
+            rows.append({"query": value, "count": "", "timestamp": "", "session": value})
+            empty += 1
+            continue
+        b = min(int(rng.paretovariate(1.2)) - 1, len(BASES) - 1) if rng.random() < 0.5 else rng.randrange(len(BASES))
+        words = BASES[b].split()
+        roll = rng.random()
+        if roll < 0.15:
+            words = [w.upper() if rng.random() < 0.3 else w.capitalize() for w in words]
+        elif roll < 0.30:
+            rng.shuffle(words)
+        elif roll < 0.42:
+            words.insert(rng.randrange(len(words) + 1), rng.choice(FILLERS))
+        elif roll < 0.52:
+            extra = rng.choice(EXTRA_WORDS)
+            words.insert(rng.randrange(len(words) + 1), extra)
+            near_keys.add((b, extra))
+        text = " ".join(words)
+        if rng.random() < 0.1:
+            text = text.replace(" ", ", ", 1)
+        if b in PII_KIND:
+            kind = PII_KIND[b]
+            value = {"email": lambda: _email(rng, i), "phone": lambda: _phone(rng), "card": lambda: _card(rng)}[kind]()
+            personal.append(value)
+            planted_kinds[kind] += 1
+            text = text.replace("{PII}", "{pii}").replace("{Pii}", "{pii}").replace("{pii}", value)
+        text += rng.choice(["", "?", "?", "!", ".", " ?", "??"])
+        count = rng.choice(["", "", "1", "2", "3", "7"])
+        planted_count[b] += int(count or 1)
+        # The session column holds a personal string too: ignored columns must never be stored.
+        session = personal[-1] if b in PII_KIND else f"s{rng.randrange(10**6)}"
+        rows.append({"query": text, "count": count,
+                     "timestamp": f"2026-11-{1 + i % 30:02d}T{i % 24:02d}:00:00Z", "session": session})
+    with open(path, "w", newline="", encoding="utf-8") as fh:
+        writer = csv.DictWriter(fh, fieldnames=["query", "count", "timestamp", "session"])
+        writer.writeheader()
+        writer.writerows(rows)
+    return {"count": planted_count, "kinds": planted_kinds, "personal": personal,
+            "near_keys": near_keys, "empty": empty}
+
+
+def _base_of(question: str) -> int:
+    key = tokens(question)
+    best = [b for b in range(len(BASES))
+            if jaccard(key, tokens(BASES[b].replace("{pii}", "[" + PII_KIND.get(b, "") + "]"))) >= 0.85]
+    assert len(best) == 1, (question, best)
+    return best[0]
+
+
+def _scan(db_path, needles: list[str]) -> list[str]:
+    blobs = b""
+    for suffix in ("", "-wal", "-journal"):
+        p = db_path.with_name(db_path.name + suffix)
+        if p.exists():
+            blobs += p.read_bytes()
+    found = []
+    for needle in needles:
+        forms = {needle}
+        if "@" not in needle:  # phone and card numbers: also as bare digits
+            forms.add("".join(ch for ch in needle if ch.isdigit()))
+        for form in forms:
+            # SQLite stores TEXT as UTF-8 here (PRAGMA encoding default); scan UTF-16 too, to be sure.
+            if form and (form.encode("utf-8") in blobs or form.encode("utf-16-le") in blobs):
+                found.append(form)
+    return found
+
+
+def test_ten_thousand_generated_lines(tmp_path):
+    log = tmp_path / "queries.csv"
+    planted = generate_log(log, 10_000, seed=20261202)
+    questions, summary = import_query_log(log)
+
+    # Every base comes out as exactly one question whose weight is the planted Σ counts.
+    got = Counter()
+    for q in questions:
+        got[_base_of(q.question)] += q.weight
+    assert len(questions) == len(planted["count"]) == len(BASES)
+    assert got == planted["count"]
+    assert [q.weight for q in questions] == sorted((q.weight for q in questions), reverse=True)
+    assert [q.id for q in questions[:2]] == ["q-001", "q-002"]
+
+    # The summary accounts for every line, every planted personal string, every merge.
+    assert summary.records == 10_000
+    assert summary.empty == planted["empty"]
+    assert summary.total_count == sum(planted["count"].values())
+    assert summary.redacted == planted["kinds"]
+    assert summary.merged_near == len(planted["near_keys"])
+    assert summary.merged_exact == 10_000 - planted["empty"] - summary.distinct
+    assert summary.ignored_columns == ["session"]
+    assert (summary.first_seen, summary.last_seen) == ("2026-11-01T00:00:00", "2026-11-30T23:00:00")
+    assert "10000 log lines -> 25 questions" in summary.line()
+    for q in questions:
+        assert "@" not in q.question and not any(ch.isdigit() for ch in q.question)
+
+    # Store through the audit's code path, then scan the database files' bytes.
+    db_path = tmp_path / "audit.db"
+    store = Store(db_path)
+    store_questions(store, questions, log.name)
+    assert stored_questions(store, log.name) == questions
+    assert _scan(db_path, planted["personal"]) == []  # while open: main file + WAL
+    store.close()
+    assert _scan(db_path, planted["personal"]) == []  # after the checkpoint on close
+
+    # The same log loaded without redaction does leak: the scan above is able to find things.
+    raw, _ = import_query_log(log, redact=False)
+    leak_path = tmp_path / "leak.db"
+    with Store(leak_path) as leak:
+        store_questions(leak, raw, log.name)
+        assert len(_scan(leak_path, planted["personal"])) > 0
+
+
+def test_similarity_one_keeps_near_duplicates_apart(tmp_path):
+    log = tmp_path / "queries.csv"
+    planted = generate_log(log, 2_000, seed=7)
+    questions, summary = import_query_log(log, similarity=1.0)
+    assert summary.merged_near == 0
+    assert len(questions) == len(planted["count"]) + len(planted["near_keys"])
+    assert sum(q.weight for q in questions) == sum(planted["count"].values())
+
+
+def test_load_questions_delegates_with_the_same_result(tmp_path):
+    log = tmp_path / "queries.csv"
+    generate_log(log, 500, seed=3)
+    assert load_questions(log) == import_query_log(log)[0]
+
+
+# --- normalization and merging rules --------------------------------------------------------------
+
+def test_case_punctuation_order_and_filler_merge_exactly(tmp_path):
+    log = tmp_path / "log.jsonl"
+    lines = ["How do I pay my bill?", "how do i pay my bill", "PAY MY BILL, HOW DO I!",
+             "please how do I pay my bill", "How  do I pay\tmy bill?"]
+    log.write_text("\n".join(json.dumps({"text": t, "hits": 2}) for t in lines) + "\n")
+    questions, summary = import_query_log(log)
+    assert [(q.question, q.weight) for q in questions] == [("How do I pay my bill?", 10.0)]
+    assert (summary.merged_exact, summary.merged_near, summary.distinct) == (4, 0, 1)
+    assert summary.text_column == "text" and summary.count_column == "hits"
+
+
+def test_near_duplicates_merge_by_jaccard_threshold(tmp_path):
+    log = tmp_path / "log.csv"
+    # 6 words vs 7: Jaccard 6/7 = 0.857; vs a different last word: 5/7 = 0.714.
+    log.write_text("query,count\n"
+                   "how can I pay my bill,5\n"
+                   "how can I pay my bill today,2\n"
+                   "how can I pay my rent,1\n")
+    merged, s1 = import_query_log(log, similarity=0.85)
+    assert [(q.question, q.weight) for q in merged] == [("how can I pay my bill", 7.0), ("how can I pay my rent", 1.0)]
+    assert s1.merged_near == 1
+    assert s1.largest_merges == [{"question": "how can I pay my bill", "variants": 2, "count": 7}]
+    loose, _ = import_query_log(log, similarity=0.7)
+    assert [(q.question, q.weight) for q in loose] == [("how can I pay my bill", 8.0)]
+
+
+def test_leader_clustering_does_not_chain(tmp_path):
+    # A~B and B~C at 0.85 but A≁C: B joins A (the heavier); C, compared with leader A only, stays.
+    a = "alpha beta gamma delta epsilon zeta"
+    b = a + " eta"
+    c = a + " eta theta"
+    assert jaccard(tokens(a), tokens(b)) >= 0.85 and jaccard(tokens(b), tokens(c)) >= 0.85
+    assert jaccard(tokens(a), tokens(c)) < 0.85
+    log = tmp_path / "log.csv"
+    log.write_text(f"query,count\n{a},5\n{b},3\n{c},1\n")
+    questions, _ = import_query_log(log)
+    assert [(q.question, q.weight) for q in questions] == [(a, 8.0), (c, 1.0)]
+
+
+def test_owner_topic_carried_and_ids_by_weight(tmp_path):
+    log = tmp_path / "log.csv"
+    log.write_text("search,count,owner,topic,user\n"
+                   "stop service,1,Customer Care,service,u1\n"
+                   "report a leak,4,Field Operations,leaks,u2\n"
+                   "Report a leak!,1,,leaks,u3\n")
+    questions, summary = import_query_log(log)
+    assert [(q.id, q.question, q.owner, q.topic, q.weight) for q in questions] == [
+        ("q-001", "report a leak", "Field Operations", "leaks", 5.0),
+        ("q-002", "stop service", "Customer Care", "service", 1.0),
+    ]
+    assert summary.ignored_columns == ["user"]
+
+
+def test_plain_text_log_and_explicit_columns(tmp_path):
+    text_log = tmp_path / "log.txt"
+    text_log.write_text("pay bill\nPay bill!\n\nleak\n")
+    questions, summary = import_query_log(text_log)
+    assert [(q.question, q.weight) for q in questions] == [("pay bill", 2.0), ("leak", 1.0)]
+    assert summary.records == 3
+    named = tmp_path / "named.csv"
+    named.write_text("Utterance Text,N\nhello there,3\n")
+    questions, _ = import_query_log(named, text_column="Utterance Text", count_column="n")
+    assert [(q.question, q.weight) for q in questions] == [("hello there", 3.0)]
+
+
+def test_deterministic(tmp_path):
+    log = tmp_path / "queries.csv"
+    generate_log(log, 1_000, seed=11)
+    assert import_query_log(log) == import_query_log(log)
+
+
+# --- bad logs -------------------------------------------------------------------------------------
+
+@pytest.mark.parametrize("content, kwargs, message", [
+    ("query,count\nfine,2\nbad,two\n", {}, r"line 3: count 'two' is not a whole number"),
+    ("query,count\nfine,2.5\n", {}, r"line 2: count '2.5' is not a whole number"),
+    ("query,count\nzero,0\n", {}, r"line 2: count must be 1 or more"),
+    ("session,timestamp\ns1,2026-01-01\n", {}, r"line 1: no query text column"),
+    ("query,count\nx,1\n", {"text_column": "utterance"}, r"line 1: no text column 'utterance'"),
+    ("query,count\nx,1\n", {"count_column": "hits"}, r"line 1: no count column 'hits'"),
+    ("query,count\n", {}, r"no queries found"),
+    ("query\nann@example.org\n+44 20 7946 0958\n", {}, r"no queries found"),
+    ("query\nx\n", {"similarity": 0.0}, r"similarity must be in \(0, 1\]"),
+])
+def test_bad_logs(tmp_path, content, kwargs, message):
+    path = tmp_path / "log.csv"
+    path.write_text(content)
+    with pytest.raises(InputError, match=message) as info:
+        import_query_log(path, **kwargs)
+    assert str(info.value).startswith(repr(str(path)) + ": ") and "\n" not in str(info.value)
+
+
+def test_bad_jsonl_log_names_the_line(tmp_path):
+    path = tmp_path / "log.jsonl"
+    path.write_text('{"query": "a", "count": 1}\n{"query": ["a"], "count": 1}\n')
+    with pytest.raises(InputError, match=r"line 2: 'query' must be a string or number"):
+        import_query_log(path)
+    with pytest.raises(InputError, match=r"file not found"):
+        import_query_log(tmp_path / "missing.jsonl")
+
+
+# --- the similarity measure and its prefix filter -------------------------------------------------
+
+@given(st.sets(st.integers(0, 30), max_size=12), st.sets(st.integers(0, 30), max_size=12))
+def test_jaccard_matches_scipy(a, b):
+    # scipy's Jaccard–Needham dissimilarity on boolean vectors is 1 − |A∩B|/|A∪B|.
+    if not a and not b:
+        return  # scipy defines 0/0 differently; ours is 1.0 by convention
+    u = np.zeros(31, bool)
+    v = np.zeros(31, bool)
+    u[list(a)] = True
+    v[list(b)] = True
+    A = frozenset(map(str, a))
+    B = frozenset(map(str, b))
+    assert jaccard(A, B) == pytest.approx(1.0 - scipy_jaccard_distance(u, v))
+
+
+@given(st.lists(st.sets(st.sampled_from("abcdefghij"), min_size=1, max_size=8), min_size=2, max_size=30),
+       st.sampled_from([0.5, 0.6, 0.7, 0.8, 0.85, 0.9, 1.0]))
+@settings(max_examples=200)
+def test_prefix_filter_never_misses_a_similar_pair(sets, t):
+    # Prefix-filter lemma (Chaudhuri et al. 2006): J(A,B) ≥ t ⇒ the t-prefixes (in one global
+    # order) intersect. Brute force over every pair is the oracle.
+    df = Counter(x for s in sets for x in s)
+    order = [tuple(sorted(s, key=lambda x: (df[x], x))) for s in sets]
+    for i in range(len(sets)):
+        for j in range(i + 1, len(sets)):
+            if jaccard(frozenset(sets[i]), frozenset(sets[j])) >= t:
+                assert set(_prefix(order[i], t)) & set(_prefix(order[j], t))
