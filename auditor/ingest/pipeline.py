@@ -1,0 +1,494 @@
+"""Incremental ingest of the corpus into the store, parsing in worker processes.
+
+What an owner can expect:
+* unchanged files (same sha256, same sitemap date, same parser version) are not parsed again;
+* a changed file has its passages and statements replaced in one transaction;
+* a file that has gone is marked 'removed' and its passages are deleted (the row stays for history);
+* a file that fails gets a row in ingest_errors (kind + one line naming the file). If an earlier
+  version of it had been ingested, that version stays searchable (status 'failed': the retrieval
+  index is asked to keep 'failed' documents' passages), so a broken re-export does not silently
+  turn answered questions into gaps; the report shows the error. The failed content's hash is kept
+  (meta 'ingest:failed') so an unchanged broken file is not parsed again on every run; a timeout is
+  retried only when corpus.timeout_s has grown.
+* a new tokenizer fingerprint (meta 'tokenizer') re-tokenizes every stored passage first.
+
+Only the main process writes to SQLite; workers read, detect, parse, segment, tokenize and extract
+dated statements (the CPU-heavy part) and send plain data back.
+"""
+
+from __future__ import annotations
+
+import json
+import multiprocessing as mp
+import os
+import sys
+import time
+from collections.abc import Callable, Iterator
+from dataclasses import dataclass, field
+from datetime import datetime, timezone
+from multiprocessing.connection import wait
+from pathlib import Path
+
+from ..errors import AuditorError, InputError
+from ..models import MetaDate
+from .walk import IngestFailure, SourceFile, detect_kind, discover, glob_match, read_file, sha256
+
+# Bump when a parser change should re-parse unchanged files.
+PARSER_VERSION = "1"
+DATE_KINDS_FOR_DOC_DATE = ("modified", "reviewed", "published", "created")
+
+
+# --- process pool with a per-task timeout -------------------------------------------------------
+# concurrent.futures cannot stop a task that hangs, and a worker that dies breaks its whole pool;
+# here each worker is a process with its own pipe, so a task that overruns its deadline costs that
+# worker (killed and replaced) and its one file, and the run goes on. Workers are started with
+# "spawn" (safe beside an open SQLite connection) and report when ready, so their start-up (imports)
+# does not count against the first file's timeout.
+
+
+
+def _serve(conn, target: Callable, settings) -> None:
+    """Worker main loop: receive a task, send back target(task, settings); None ends it."""
+    conn.send(("ready", None))
+    while True:
+        try:
+            task = conn.recv()
+        except (EOFError, KeyboardInterrupt):
+            return
+        if task is None:
+            return
+        try:
+            result = ("ok", target(task, settings))
+        except BaseException as exc:  # reported for this task only; the worker lives on
+            result = ("error", f"{type(exc).__name__}: {' '.join(str(exc).split())[:200]}")
+        conn.send(result)
+
+
+class _Worker:
+    def __init__(self, ctx, target, settings):
+        self.conn, child = ctx.Pipe()
+        self.process = ctx.Process(target=_serve, args=(child, target, settings), daemon=True)
+        self.process.start()
+        child.close()
+        self.ready = False
+        self.task = None
+        self.deadline = None
+
+    def stop(self, kill: bool = False) -> None:
+        if kill:
+            self.process.kill()
+        else:
+            try:
+                self.conn.send(None)
+            except (OSError, BrokenPipeError):
+                pass
+        self.process.join(timeout=5)
+        if self.process.is_alive():
+            self.process.kill()
+            self.process.join(timeout=5)
+        self.conn.close()
+
+
+def run_tasks(tasks: list, target: Callable, settings, *, jobs: int, timeout: float
+              ) -> Iterator[tuple[object, str, object]]:
+    """Run target(task, settings) for every task in `jobs` worker processes.
+
+    Yields (task, status, value) as tasks finish, in completion order: status "ok" with the
+    return value, "error" with an exception summary, "timeout" with the seconds allowed, or
+    "crash" with the worker's exit code.
+    """
+    if not tasks:
+        return
+    ctx = mp.get_context("spawn")
+    pending = list(reversed(tasks))
+    workers = [_Worker(ctx, target, settings) for _ in range(max(1, min(jobs, len(tasks))))]
+    startup_failures = 0
+    try:
+        while pending or any(w.task is not None for w in workers):
+            for w in workers:
+                if w.ready and w.task is None and pending:
+                    w.task = pending.pop()
+                    w.conn.send(w.task)
+                    w.deadline = time.monotonic() + timeout
+            deadlines = [w.deadline for w in workers if w.task is not None]
+            wait_for = max(0.0, min(deadlines) - time.monotonic()) if deadlines else None
+            ready = wait([w.conn for w in workers], timeout=wait_for)
+            for i, w in enumerate(workers):
+                if w.conn in ready:
+                    try:
+                        status, value = w.conn.recv()
+                    except (EOFError, OSError):
+                        w.process.join(timeout=5)
+                        task, code = w.task, w.process.exitcode
+                        w.stop(kill=True)
+                        workers[i] = _Worker(ctx, target, settings)
+                        if task is not None:
+                            yield task, "crash", code
+                        else:
+                            startup_failures += 1
+                            if startup_failures > 3:
+                                raise AuditorError(f"ingest worker processes fail to start (exit code {code})")
+                        continue
+                    if status == "ready":
+                        w.ready = True
+                        continue
+                    task, w.task, w.deadline = w.task, None, None
+                    yield task, status, value
+                elif w.task is not None and time.monotonic() >= w.deadline:
+                    task = w.task
+                    w.stop(kill=True)
+                    workers[i] = _Worker(ctx, target, settings)
+                    yield task, "timeout", timeout
+    finally:
+        for w in workers:
+            w.stop(kill=w.task is not None)
+
+
+# --- the work of one file (runs in a worker process) --------------------------------------------
+
+@dataclass
+class _Settings:
+    language: str
+    stopwords: str
+    day_first: bool
+    fiscal_year_start: int
+    hemisphere: str
+
+
+_TOKENIZERS: dict = {}
+
+
+def choose_doc_date(dates: list[MetaDate]) -> MetaDate | None:
+    """The document date: a modified/reviewed date first, then published, then created, each in
+    the parser's most-specific-first order."""
+    for kinds in (("modified", "reviewed"), ("published",), ("created",)):
+        for d in dates:
+            if d.kind in kinds:
+                return d
+    return None
+
+
+def parse_file(task: dict, settings: _Settings) -> dict:
+    """Read, detect, parse, segment, tokenize and date one file. Spawn-safe (top level).
+
+    Returns {"ok": True, ...document fields, "passages": [...]} or {"ok": False, "kind", "message"}.
+    """
+    from .. import temporal
+    from ..segment import segment
+    from ..tokenize import Tokenizer
+    from .dates import file_time_date
+    from .html import parse_html
+    from .markdown import parse_markdown
+    from .pdf import parse_pdf
+    from .text import parse_text
+
+    parsers = {"pdf": parse_pdf, "html": parse_html, "markdown": parse_markdown, "text": parse_text}
+    file = task["file"]
+    try:
+        data = read_file(Path(file), task["doc_path"])
+        kind = detect_kind(data, task["kind"], file)
+        parsed = parsers[kind](data, file)
+    except IngestFailure as exc:
+        return {"ok": False, "kind": exc.kind, "message": str(exc)}
+    except RecursionError:
+        return {"ok": False, "kind": "parse_error", "message": f"{file!r}: nested too deeply to parse"}
+    except MemoryError:
+        return {"ok": False, "kind": "parse_error", "message": f"{file!r}: out of memory while parsing"}
+    dates = list(parsed.dates)
+    if task.get("sitemap"):
+        dates.append(task["sitemap"])
+    chosen = choose_doc_date(dates)
+    if chosen is not None:
+        doc_date, doc_date_source = chosen.value, chosen.source
+    else:
+        doc_date, doc_date_source = file_time_date(task["mtime"]), "file:mtime"
+    expires = next((d.value for d in dates if d.kind == "expires"), None)
+    key = (settings.language, settings.stopwords)
+    tokenizer = _TOKENIZERS.get(key) or _TOKENIZERS.setdefault(key, Tokenizer(*key))
+    passages = []
+    for p in segment(parsed.blocks):
+        statements = temporal.extract(p.text, reference_date=doc_date, day_first=settings.day_first,
+                                      fiscal_year_start=settings.fiscal_year_start,
+                                      hemisphere=settings.hemisphere)
+        passages.append((p, tokenizer.tokenize(p.text), statements))
+    return {
+        "ok": True, "kind": kind, "sha256": sha256(data), "size": len(data),
+        "title": parsed.title, "owner": parsed.owner, "tags": list(parsed.tags), "dates": dates,
+        "doc_date": doc_date, "doc_date_source": doc_date_source, "expires": expires,
+        "passages": passages,
+    }
+
+
+# --- the main process ---------------------------------------------------------------------------
+
+@dataclass
+class IngestSummary:
+    """What an ingest did. `passages` counts the passages written by this ingest."""
+
+    new: int = 0
+    changed: int = 0
+    unchanged: int = 0
+    removed: int = 0
+    failed: int = 0
+    passages: int = 0
+    errors: list[dict] = field(default_factory=list)  # {"path", "kind", "error"} for each failure
+    parsed: int = 0  # files sent to a parser
+    retokenized: int = 0  # passages re-tokenized for a new tokenizer fingerprint
+    bytes_parsed: int = 0
+    seconds: float = 0.0
+
+    def line(self) -> str:
+        return (f"{self.new} new, {self.changed} changed, {self.unchanged} unchanged, "
+                f"{self.removed} removed, {self.failed} failed")
+
+
+def _now() -> str:
+    return datetime.now(timezone.utc).isoformat(timespec="seconds").replace("+00:00", "Z")
+
+
+def _owner_from_config(config, rel: str) -> str | None:
+    for glob, owner in config.owners:
+        if glob_match(glob, rel):
+            return owner
+    return None
+
+
+def ingest_corpus(store, config, *, paths=None, jobs=None, progress=False) -> IngestSummary:
+    """Bring the store up to date with the corpus at `paths` (default config.corpus.paths).
+
+    Never raises for a bad document (it is recorded in ingest_errors and the summary); raises
+    InputError for a missing corpus path or an unreadable sitemap, before anything is written.
+    """
+    from ..tokenize import Tokenizer
+    from ..vocabulary import Vocabulary
+    from .sitemap import lastmod_dates
+    from .walk import resolve_roots
+
+    started = time.monotonic()
+    corpus = config.corpus
+    given = list(paths) if paths is not None else list(corpus.paths)
+    if not given:
+        raise InputError("no corpus paths to ingest: set corpus.paths in the config or pass PATH arguments")
+    files, skipped = discover(given, corpus)
+    sitemap = lastmod_dates(corpus.sitemaps, [r for r, _ in resolve_roots(given)]) if corpus.sitemaps else {}
+    summary = IngestSummary()
+    tokenizer = Tokenizer(config.retrieval.language, config.retrieval.stopwords)
+    summary.retokenized = _retokenize_if_needed(store, tokenizer)
+    parser_changed = store.get_meta("ingest:parser") != PARSER_VERSION
+    failed_before = json.loads(store.get_meta("ingest:failed", "{}"))
+    known = {row["path"]: row for row in store.query(
+        "SELECT id, path, sha256, status, meta_dates, owner, owner_source FROM documents")}
+    now = _now()
+    seen: set[str] = set()
+    tasks, unchanged, by_path = [], [], {}
+
+    def record_failure(doc_path: str, root: Path, kind: str, message: str, sha: str | None = None) -> None:
+        summary.failed += 1
+        summary.errors.append({"path": doc_path, "kind": kind, "error": message})
+        with store.transaction():
+            store.db.execute(
+                "INSERT INTO ingest_errors(path, source_root, kind, error, recorded_at) VALUES (?,?,?,?,?) "
+                "ON CONFLICT(path) DO UPDATE SET source_root=excluded.source_root, kind=excluded.kind, "
+                "error=excluded.error, recorded_at=excluded.recorded_at",
+                [doc_path, str(root), kind, message, now])
+            store.db.execute("UPDATE documents SET status='failed', last_seen=? WHERE path=? AND status != 'removed'",
+                             [now, doc_path])
+        if sha is not None:
+            failed_before[doc_path] = [sha, kind, corpus.timeout_s]
+        else:
+            failed_before.pop(doc_path, None)
+
+    for s in skipped:
+        seen.add(s.doc_path)
+        record_failure(s.doc_path, s.root, s.kind, s.message)
+
+    for f in files:
+        seen.add(f.doc_path)
+        try:
+            data = read_file(f.file, f.doc_path)
+        except IngestFailure as exc:
+            record_failure(f.doc_path, f.root, exc.kind, str(exc))
+            continue
+        sha = sha256(data)
+        del data
+        row = known.get(f.doc_path)
+        site = sitemap.get(str(f.file))
+        earlier = failed_before.get(f.doc_path)
+        if (row and row["status"] == "active" and row["sha256"] == sha and not parser_changed
+                and _sitemap_date(row["meta_dates"]) == (site.value.isoformat() if site else None)):
+            unchanged.append((f, row))
+            continue
+        if earlier and earlier[0] == sha and not parser_changed and not (
+                earlier[1] == "timeout" and corpus.timeout_s > earlier[2]):
+            summary.failed += 1
+            error = store.query("SELECT kind, error FROM ingest_errors WHERE path = ?", [f.doc_path])
+            if error:
+                summary.errors.append({"path": f.doc_path, "kind": error[0]["kind"], "error": error[0]["error"]})
+            store.db.execute("UPDATE documents SET last_seen=? WHERE path=?", [now, f.doc_path])
+            continue
+        by_path[f.doc_path] = f
+        tasks.append({"file": str(f.file), "doc_path": f.doc_path, "kind": f.kind, "mtime": f.mtime, "sitemap": site})
+
+    _touch_unchanged(store, config, unchanged, now)
+    summary.unchanged = len(unchanged)
+
+    settings = _Settings(config.retrieval.language, config.retrieval.stopwords, corpus.day_first,
+                         corpus.fiscal_year_start, corpus.hemisphere)
+    jobs = jobs or corpus.jobs or os.cpu_count() or 1
+    vocabulary = Vocabulary(store)
+    bar = _Progress(len(tasks)) if progress and sys.stderr.isatty() else None
+    for task, status, value in run_tasks(tasks, parse_file, settings, jobs=jobs, timeout=corpus.timeout_s):
+        f = by_path[task["doc_path"]]
+        summary.parsed += 1
+        if bar:
+            bar.step(f.doc_path)
+        if status == "ok" and value["ok"]:
+            summary.bytes_parsed += value["size"]
+            row = known.get(f.doc_path)
+            if row is None or row["status"] == "removed":
+                summary.new += 1
+            else:
+                summary.changed += 1
+            summary.passages += _write_document(store, config, vocabulary, f, value, row, now)
+            failed_before.pop(f.doc_path, None)
+            continue
+        sha = sha256(read_file(f.file, f.doc_path)) if os.path.exists(f.file) else None
+        if status == "ok":
+            kind, message = value["kind"], value["message"]
+        elif status == "timeout":
+            kind, message = "timeout", f"{str(f.file)!r}: parsing took longer than {value:g} s (corpus.timeout_s); stopped"
+        elif status == "crash":
+            kind, message = "parse_error", f"{str(f.file)!r}: the parser crashed (worker exit code {value})"
+        else:
+            kind, message = "parse_error", f"{str(f.file)!r}: parser failed ({value})"
+        record_failure(f.doc_path, f.root, kind, message, sha)
+    if bar:
+        bar.done()
+
+    summary.removed = _mark_removed(store, known, seen, now)
+    with store.transaction():
+        for path in [p for p in failed_before if p not in seen]:
+            del failed_before[path]
+        store.db.execute(f"DELETE FROM ingest_errors WHERE path NOT IN ({','.join('?' * len(seen))})" if seen
+                         else "DELETE FROM ingest_errors", list(seen))
+        store.set_meta("ingest:failed", json.dumps(failed_before, sort_keys=True))
+        store.set_meta("ingest:parser", PARSER_VERSION)
+        store.set_meta("tokenizer", tokenizer.fingerprint())
+        store.set_meta("ingest:last", now)
+    summary.seconds = time.monotonic() - started
+    return summary
+
+
+def _sitemap_date(meta_dates: str) -> str | None:
+    for d in json.loads(meta_dates or "[]"):
+        if d.get("source") == "sitemap:lastmod":
+            return d.get("value")
+    return None
+
+
+def _touch_unchanged(store, config, unchanged, now: str) -> None:
+    """Unchanged files: last_seen, and the owner again when the config's owner map changed."""
+    with store.transaction():
+        for f, row in unchanged:
+            owner, source = row["owner"], row["owner_source"]
+            if source != "front_matter":
+                mapped = _owner_from_config(config, f.rel)
+                owner, source = (mapped, "config") if mapped else ("unassigned", "default")
+            store.db.execute("UPDATE documents SET last_seen=?, owner=?, owner_source=? WHERE id=?",
+                             [now, owner, source, row["id"]])
+
+
+def _write_document(store, config, vocabulary, f: SourceFile, value: dict, row, now: str) -> int:
+    """Insert or replace one document with its passages and statements, in one transaction."""
+    if value["owner"]:
+        owner, owner_source = value["owner"], "front_matter"
+    elif mapped := _owner_from_config(config, f.rel):
+        owner, owner_source = mapped, "config"
+    else:
+        owner, owner_source = "unassigned", "default"
+    meta_dates = [{"value": d.value.isoformat(), "kind": d.kind, "source": d.source} for d in value["dates"]]
+    fields = {
+        "path": f.doc_path, "source_root": str(f.root), "kind": value["kind"], "sha256": value["sha256"],
+        "size": value["size"],
+        "mtime": datetime.fromtimestamp(f.mtime, timezone.utc).isoformat(timespec="seconds"),
+        "title": value["title"], "owner": owner, "owner_source": owner_source,
+        "doc_date": value["doc_date"].isoformat(), "doc_date_source": value["doc_date_source"],
+        "expires": value["expires"].isoformat() if value["expires"] else None,
+        "meta_dates": json.dumps(meta_dates), "tags": json.dumps(value["tags"]),
+        "status": "active", "last_seen": now, "ingested_at": now,
+    }
+    with store.transaction():
+        if row is None:
+            fields["first_seen"] = now
+            names = ", ".join(fields)
+            doc_id = store.db.execute(f"INSERT INTO documents({names}) VALUES ({','.join('?' * len(fields))})",
+                                      list(fields.values())).lastrowid
+        else:
+            doc_id = row["id"]
+            store.db.execute(f"UPDATE documents SET {', '.join(k + '=?' for k in fields)} WHERE id=?",
+                             [*fields.values(), doc_id])
+            store.db.execute("DELETE FROM passages WHERE document_id=?", [doc_id])
+        for passage, tokens, statements in value["passages"]:
+            pid = store.db.execute(
+                "INSERT INTO passages(document_id, ordinal, text, heading_path, page, char_start, char_end, "
+                "token_ids, token_count) VALUES (?,?,?,?,?,?,?,?,?)",
+                [doc_id, passage.ordinal, passage.text, json.dumps(list(passage.heading_path), ensure_ascii=False),
+                 passage.page, passage.char_start, passage.char_end, vocabulary.ids(tokens).tobytes(), len(tokens)],
+            ).lastrowid
+            store.db.conn.executemany(
+                "INSERT INTO statements(passage_id, expression, sentence, start, end, granularity, role, "
+                "char_start, char_end) VALUES (?,?,?,?,?,?,?,?,?)",
+                [(pid, s.expression, s.text, s.start.isoformat(), s.end.isoformat(), s.granularity, s.role,
+                  s.char_start, s.char_end) for s in statements])
+        store.db.execute("DELETE FROM ingest_errors WHERE path=?", [f.doc_path])
+    return len(value["passages"])
+
+
+def _mark_removed(store, known: dict, seen: set[str], now: str) -> int:
+    gone = [row for path, row in known.items() if path not in seen and row["status"] != "removed"]
+    with store.transaction():
+        for row in gone:
+            store.db.execute("DELETE FROM passages WHERE document_id=?", [row["id"]])
+            store.db.execute("UPDATE documents SET status='removed', ingested_at=? WHERE id=?", [now, row["id"]])
+    return len(gone)
+
+
+def _retokenize_if_needed(store, tokenizer) -> int:
+    """Re-tokenize every stored passage when the tokenizer fingerprint changed; returns how many."""
+    from ..vocabulary import Vocabulary
+
+    fingerprint = tokenizer.fingerprint()
+    stored = store.get_meta("tokenizer")
+    if stored == fingerprint:
+        return 0
+    rows = store.query("SELECT id, text FROM passages")
+    with store.transaction():
+        if rows:
+            store.db.execute("DELETE FROM terms")
+            vocabulary = Vocabulary(store)
+            for row in rows:
+                tokens = tokenizer.tokenize(row["text"])
+                store.db.execute("UPDATE passages SET token_ids=?, token_count=? WHERE id=?",
+                                 [vocabulary.ids(tokens).tobytes(), len(tokens), row["id"]])
+        store.set_meta("tokenizer", fingerprint)
+    return len(rows)
+
+
+class _Progress:
+    """A one-line progress bar on stderr (only used when stderr is a terminal)."""
+
+    def __init__(self, total: int):
+        self.total, self.count, self.started = total, 0, time.monotonic()
+
+    def step(self, name: str) -> None:
+        self.count += 1
+        width = 30
+        filled = int(width * self.count / max(1, self.total))
+        sys.stderr.write(f"\ringest [{'#' * filled}{'.' * (width - filled)}] {self.count}/{self.total} "
+                         f"{name[-40:]:<40}")
+        sys.stderr.flush()
+
+    def done(self) -> None:
+        sys.stderr.write(f"\ringest: parsed {self.count} files in {time.monotonic() - self.started:.1f} s"
+                         + " " * 60 + "\n")
+        sys.stderr.flush()

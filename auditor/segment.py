@@ -1,0 +1,132 @@
+"""Blocks -> passages of about 100–250 words (DESIGN.md §3.1).
+
+Rules, in order:
+* a heading starts a new passage (parsers emit a heading as a block whose text is the last
+  element of its heading path), so a passage never spans two sections and starts with its heading;
+* a page change starts a new passage (a passage has one page);
+* blocks are joined until the next one would push the passage past MAX_WORDS;
+* a block longer than MAX_WORDS is cut at sentence ends (at word boundaries when one sentence
+  alone is too long) into pieces of about TARGET_WORDS.
+
+Char offsets are into the document text = the block texts joined by "\\n\\n", so
+`document_text(blocks)[p.char_start:p.char_end] == p.text` for every passage.
+"""
+
+from __future__ import annotations
+
+import re
+
+from .models import Block, Passage
+
+MIN_WORDS = 100
+TARGET_WORDS = 200
+MAX_WORDS = 250
+SEPARATOR = "\n\n"
+
+_WORD = re.compile(r"\S+")
+_SENTENCE_END = re.compile(r"(?<=[.!?])[\"')\]]*\s+")
+
+
+def document_text(blocks: list[Block]) -> str:
+    """The text passage offsets point into."""
+    return SEPARATOR.join(b.text for b in blocks)
+
+
+def is_heading(block: Block) -> bool:
+    return bool(block.heading_path) and block.text == block.heading_path[-1]
+
+
+def _words(text: str) -> int:
+    return len(_WORD.findall(text))
+
+
+def _pieces(text: str) -> list[tuple[int, int]]:
+    """(start, end) spans of `text`, each at most MAX_WORDS words, cut at sentence ends."""
+    cuts = [0] + [m.end() for m in _SENTENCE_END.finditer(text)] + [len(text)]
+    sentences = [(a, b) for a, b in zip(cuts, cuts[1:]) if text[a:b].strip()]
+    spans: list[tuple[int, int]] = []
+    start = end = None
+    count = 0
+    for a, b in sentences:
+        n = _words(text[a:b])
+        if n > MAX_WORDS:  # one enormous "sentence": cut at word boundaries
+            if start is not None:
+                spans.append((start, end))
+                start, count = None, 0
+            words = list(_WORD.finditer(text, a, b))
+            for i in range(0, len(words), TARGET_WORDS):
+                chunk = words[i:i + TARGET_WORDS]
+                spans.append((chunk[0].start(), chunk[-1].end()))
+            continue
+        if start is not None and count + n > TARGET_WORDS:
+            spans.append((start, end))
+            start, count = None, 0
+        if start is None:
+            start = a
+        end, count = b, count + n
+    if start is not None:
+        spans.append((start, end))
+    # Trim whitespace at both ends so text == document slice exactly.
+    out = []
+    for a, b in spans:
+        chunk = text[a:b]
+        lead = len(chunk) - len(chunk.lstrip())
+        trail = len(chunk) - len(chunk.rstrip())
+        if b - trail > a + lead:
+            out.append((a + lead, b - trail))
+    return out
+
+
+def segment(blocks: list[Block]) -> list[Passage]:
+    """Cut `blocks` (one document's, in reading order) into passages."""
+    passages: list[Passage] = []
+    current: list[tuple[Block, int, int]] = []  # (block, start, end) in document text
+    words = 0
+    content = False  # the current passage holds more than headings
+    text = document_text(blocks)
+    heading_only: list[bool] = []
+
+    def flush() -> None:
+        nonlocal words, content
+        if current:
+            first = current[0][0]
+            # The section a passage belongs to is that of its first content block (a passage may
+            # open with a chapter heading followed by its first sub-heading).
+            body = next((b for b, _, _ in current if not is_heading(b)), current[-1][0])
+            start, end = current[0][1], current[-1][2]
+            passages.append(Passage(len(passages), text[start:end], body.heading_path, first.page, start, end))
+            heading_only.append(not content)
+        current.clear()
+        words, content = 0, False
+
+    offset = 0
+    for block in blocks:
+        start, end = offset, offset + len(block.text)
+        offset = end + len(SEPARATOR)
+        n = _words(block.text)
+        heading = is_heading(block)
+        if current and (content and heading or block.page != current[0][0].page):
+            flush()
+        if not heading and n > MAX_WORDS:
+            spans = _pieces(block.text)
+            for i, (a, b) in enumerate(spans):
+                piece = Block(block.text[a:b], block.heading_path, block.page)
+                pn = _words(piece.text)
+                if current and content and words + pn > MAX_WORDS:
+                    flush()
+                current.append((piece, start + a, start + b))
+                words += pn
+                content = True
+                if i < len(spans) - 1:
+                    flush()
+            continue
+        if current and content and words + n > MAX_WORDS:
+            flush()
+        current.append((block, start, end))
+        words += n
+        content = content or not heading
+    flush()
+    # A trailing run of headings alone carries no content; keep it only if it is all there is.
+    if len(passages) > 1 and heading_only[-1]:
+        passages.pop()
+    return passages
