@@ -172,8 +172,7 @@ class Verdict:
 _STALE_ORDER = ("too_old", "expired", "overtaken")
 
 
-def judge(evidence: Sequence[Judged], *, threshold: float, weak_margin: float,
-          missing_terms: Sequence[str] = (), missing_share: float = 0.0) -> Verdict:
+def judge(evidence: Sequence[Judged], *, threshold: float, weak_margin: float) -> Verdict:
     """Verdict of a question from its judged evidence (DESIGN.md §3.4).
 
     covered — some supporting passage is fresh; flags `stale_competitor` (a stale passage supports
@@ -181,9 +180,11 @@ def judge(evidence: Sequence[Judged], *, threshold: float, weak_margin: float,
               fresh support rests on file times only).
     stale   — supporting passages exist, none fresh; reasons are their stale reasons; action
               `retire` when every one has ended (expired or overtaken), else `refresh`.
-    gap     — nothing supports it; reasons say why (`no_passages`, `missing_terms`,
-              `no_answer_type`, `low_support`); action `write`.
-    `missing_share` is the IDF-weighted share of the question that `missing_terms` make up.
+    gap     — nothing supports it; action `write`. Reasons are freshness reasons (DESIGN.md §3.3),
+              so a gap has none; what explains it is in the evidence: the question's
+              `missing_terms`, the per-passage signals, and the flag below.
+    Any verdict gets the flag `no_answer_type` when the passage with the highest support lacks the
+    asked-for answer type (its support was downgraded).
     """
     supporting = [e.support >= threshold for e in evidence]
     best = max((e.support for e in evidence), default=0.0)
@@ -208,17 +209,7 @@ def judge(evidence: Sequence[Judged], *, threshold: float, weak_margin: float,
         ended = all(set(e.reasons) & {"expired", "overtaken"} for e in stale)
         return Verdict("stale", reasons, _ordered(flags), "retire" if ended else "refresh",
                        max(e.support for e in stale), supporting)
-    reasons = []
-    if not evidence:
-        reasons.append("no_passages")
-    if missing_terms and missing_share > 0:
-        reasons.append("missing_terms")
-    if strongest is not None and not strongest.answer_type_found and best / ANSWER_TYPE_PENALTY >= threshold:
-        # Without the downgrade the best passage would have supported it.
-        reasons.append("no_answer_type")
-    if evidence:
-        reasons.append("low_support")
-    return Verdict("gap", reasons, _ordered(flags), "write", best, supporting)
+    return Verdict("gap", [], _ordered(flags), "write", best, supporting)
 
 
 def _reason_key(reason: str) -> int:

@@ -161,13 +161,13 @@ T, M = 0.45, 0.05
 
 
 def test_no_evidence_is_a_gap_to_write():
-    v = judge([], threshold=T, weak_margin=M, missing_terms=["autopay"], missing_share=1.0)
-    assert (v.verdict, v.reasons, v.action, v.support) == ("gap", ["no_passages", "missing_terms"], "write", 0.0)
+    v = judge([], threshold=T, weak_margin=M)
+    assert (v.verdict, v.reasons, v.flags, v.action, v.support) == ("gap", [], [], "write", 0.0)
 
 
 def test_low_support_is_a_gap():
     v = judge([Judged(0.30, True), Judged(0.20, False, ("too_old",))], threshold=T, weak_margin=M)
-    assert v.verdict == "gap" and v.reasons == ["low_support"] and v.action == "write"
+    assert v.verdict == "gap" and v.reasons == [] and v.action == "write"
     assert v.supporting == [False, False] and v.support == 0.30
 
 
@@ -191,13 +191,14 @@ def test_stale_only_support_is_refreshed_or_retired():
     assert ended.reasons == ["too_old", "expired", "overtaken"] and ended.action == "retire"
 
 
-def test_missing_answer_type_is_named_when_it_decides_the_gap():
+def test_missing_answer_type_is_flagged_on_the_strongest_passage():
     support = 0.5 * ANSWER_TYPE_PENALTY  # 0.40: below T only because of the downgrade
     v = judge([Judged(support, True, answer_type_found=False)], threshold=T, weak_margin=M)
-    assert v.verdict == "gap" and v.reasons == ["no_answer_type", "low_support"]
-    assert v.flags == ["no_answer_type"]
-    weak = judge([Judged(0.2, True, answer_type_found=False)], threshold=T, weak_margin=M)
-    assert weak.reasons == ["low_support"]
+    assert v.verdict == "gap" and v.reasons == [] and v.flags == ["no_answer_type"]
+    covered = judge([Judged(0.3, True), Judged(0.6, True, answer_type_found=False)], threshold=T, weak_margin=M)
+    assert covered.verdict == "covered" and covered.flags == ["no_answer_type"]
+    fine = judge([Judged(0.6, True), Judged(0.3, True, answer_type_found=False)], threshold=T, weak_margin=M)
+    assert fine.flags == []
 
 
 def test_threshold_is_inclusive():

@@ -1,0 +1,191 @@
+"""The audit stage on small stores built through the schema: verdicts, the run object, storage."""
+
+import json
+from datetime import date
+
+import pytest
+
+from auditor import temporal
+from auditor.audit import current_thresholds, run_audit
+from auditor.config import Config, FreshnessConfig, HorizonRule, SupportConfig
+from auditor.models import Question
+from auditor.store import dumps
+from auditor.tokenize import Tokenizer
+from auditor.vocabulary import Vocabulary
+
+AS_OF = date(2026, 12, 1)
+
+
+def add_document(store, path, passages, *, doc_date="2026-11-01", source="front_matter:updated",
+                 owner="Billing", status="active", expires=None):
+    """Insert one document and its passages as ingest would (token ids, dated statements)."""
+    tokenizer = Tokenizer()
+    with store.transaction():
+        vocabulary = Vocabulary(store)
+        doc_id = store.db.execute(
+            "INSERT INTO documents (path, source_root, kind, sha256, size, mtime, title, owner, doc_date, "
+            "doc_date_source, expires, status, first_seen, last_seen, ingested_at) "
+            "VALUES (?, '/kb', 'markdown', ?, 1, '2020-01-01T00:00:00', ?, ?, ?, ?, ?, ?, 'x', 'x', 'x')",
+            [path, f"sha-{path}", path.title(), owner, doc_date, source, expires, status]).lastrowid
+        for ordinal, (heading, text) in enumerate(passages):
+            tokens = tokenizer.tokenize(text)
+            pid = store.db.execute(
+                "INSERT INTO passages (document_id, ordinal, text, heading_path, page, char_start, char_end, "
+                "token_ids, token_count) VALUES (?, ?, ?, ?, NULL, 0, ?, ?, ?)",
+                [doc_id, ordinal, text, json.dumps(heading), len(text), vocabulary.ids(tokens).tobytes(),
+                 len(tokens)]).lastrowid
+            reference = date.fromisoformat(doc_date) if doc_date else None
+            for s in temporal.extract(text, reference):
+                store.db.execute(
+                    "INSERT INTO statements (passage_id, expression, sentence, start, end, granularity, role, "
+                    "char_start, char_end) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)",
+                    [pid, s.expression, s.text, s.start.isoformat(), s.end.isoformat(), s.granularity, s.role,
+                     s.char_start, s.char_end])
+    return doc_id
+
+
+def small_kb(store):
+    add_document(store, "billing/payments.md", [
+        (["Payments", "By phone"], "You can pay your water bill by phone. Call the payment line and have your "
+                                   "account number ready. Card payments by phone are free."),
+        (["Payments", "Late fees"], "A late fee of $12 applies when the bill is unpaid after the due date."),
+    ])
+    add_document(store, "field/meters.md", [
+        (["Meters"], "As of March 2021, meter readers visit each property every two months to read the water "
+                     "meter. Readings appear on your next bill."),
+    ], doc_date="2021-03-15", owner="Field Operations")
+    add_document(store, "care/contact.md", [
+        (["Contact"], "Customer Care answers questions about service, moving house and account changes."),
+    ], owner="Customer Care")
+    with store.transaction():
+        store.db.execute("INSERT INTO ingest_errors VALUES ('quality/scan.pdf', '/kb', 'encrypted', "
+                         "'encrypted PDF, no password given', 'x')")
+
+
+QUESTIONS = [
+    Question("q1", "Can I pay my water bill by phone?", weight=10),
+    Question("q2", "How often is my water meter read?", topic="meters", weight=5),
+    Question("q3", "Can I set up autopay for my direct debit?", weight=25),
+]
+
+
+@pytest.fixture
+def kb(store):
+    small_kb(store)
+    return store
+
+
+def test_verdicts_summary_and_run_object(kb):
+    run = run_audit(kb, Config(), QUESTIONS, as_of=AS_OF)
+    by_id = {q["id"]: q for q in run["questions"]}
+    assert [q["id"] for q in run["questions"]] == ["q1", "q2", "q3"]
+    assert by_id["q1"]["verdict"] == "covered" and by_id["q1"]["action"] is None
+    assert by_id["q2"]["verdict"] == "stale" and by_id["q2"]["reasons"] == ["too_old"]
+    assert by_id["q2"]["action"] == "refresh"
+    assert by_id["q3"]["verdict"] == "gap" and by_id["q3"]["action"] == "write"
+    assert by_id["q3"]["reasons"] == []
+    assert {"autopay", "debit"} <= set(by_id["q3"]["missing_terms"])
+    # Weighted exposures (DESIGN.md §3.4): gap weight 25 and stale weight 5 of 40.
+    s = run["summary"]
+    assert (s["questions"], s["covered"], s["stale"], s["gap"], s["weight"]) == (3, 1, 1, 1, 40.0)
+    assert s["fallback_exposure"] == pytest.approx(25 / 40) and s["stale_exposure"] == pytest.approx(5 / 40)
+    # The best evidence of q1 is the phone passage, with its score breakdown and owner.
+    top = by_id["q1"]["evidence"][0]
+    assert top["document"] == "billing/payments.md" and top["section"] == "Payments › By phone"
+    assert top["rank"] == 1 and top["supporting"] and top["fresh"] and top["owner"] == "Billing"
+    assert set(top["terms"]) >= {"pay", "phone", "bill"} and all(v > 0 for v in top["terms"].values())
+    assert sum(top["terms"].values()) == pytest.approx(top["score"], abs=1e-3)
+    assert by_id["q1"]["owner"] == "Billing"  # no owner in the question set: the evidence's owner
+    # The meter passage carries its dated statement.
+    meter = by_id["q2"]["evidence"][0]
+    assert meter["as_of_source"] == "statement" and meter["as_of"] == "2021-03-31"
+    assert meter["statements"][0]["expression"] == "March 2021" and meter["statements"][0]["role"] == "as_of"
+    head = run["run"]
+    assert head["thresholds"] == {"support": 0.45, "weak_margin": 0.05, "source": "default"}
+    assert head["horizon_days"] == 365 and head["as_of"] == "2026-12-01" and head["id"] >= 1
+    assert head["corpus"]["documents"] == 3 and head["corpus"]["passages"] == 4 and head["corpus"]["failed"] == 1
+    assert run["ingest_errors"] == [{"document": "quality/scan.pdf", "error": "encrypted PDF, no password given"}]
+    assert run["format"] == 1 and run["diff"] is None and run["gate"] is None
+
+
+def test_corpus_freshness_follows_cho_and_garcia_molina(kb):
+    # F = (1/N) Σ F(e_i), A = (1/N) Σ A(e_i) with A = 0 when fresh (Cho & Garcia-Molina, SIGMOD 2000).
+    # 3 of 4 passages are fresh; the meter passage is as of 2021-03-31, 2071 days before 2026-12-01.
+    corpus = run_audit(kb, Config(), QUESTIONS, as_of=AS_OF)["run"]["corpus"]
+    age = (AS_OF - date(2021, 3, 31)).days
+    assert corpus["freshness"] == pytest.approx(0.75)
+    assert corpus["mean_age_days"] == pytest.approx(age / 4, abs=0.1)
+
+
+def test_documents_inventory_lists_failed_files(kb):
+    docs = {d["path"]: d for d in run_audit(kb, Config(), QUESTIONS, as_of=AS_OF)["documents"]}
+    assert list(docs) == sorted(docs)
+    assert docs["quality/scan.pdf"]["status"] == "failed" and docs["quality/scan.pdf"]["reasons"] == ["encrypted"]
+    meters = docs["field/meters.md"]
+    assert (meters["status"], meters["passages"], meters["fresh"], meters["reasons"]) == ("active", 1, False, ["too_old"])
+    assert docs["billing/payments.md"]["fresh"] is True and docs["billing/payments.md"]["passages"] == 2
+
+
+def test_run_and_results_are_stored(kb):
+    run = run_audit(kb, Config(), QUESTIONS, as_of=AS_OF)
+    row = kb.query("SELECT * FROM runs WHERE id = ?", [run["run"]["id"]])[0]
+    assert row["status"] == "done" and row["finished"] and row["as_of"] == "2026-12-01"
+    assert json.loads(row["summary"]) == run["summary"]
+    assert json.loads(row["corpus"]) == run["run"]["corpus"]
+    assert json.loads(row["thresholds"])["source"] == "default"
+    assert json.loads(row["extras"])["documents"] == run["documents"]
+    results = kb.query("SELECT * FROM results WHERE run_id = ? ORDER BY position", [run["run"]["id"]])
+    assert [r["qid"] for r in results] == ["q1", "q2", "q3"]
+    assert [json.loads(r["result"]) for r in results] == json.loads(dumps(run["questions"]))
+    # A second audit records the first in its history.
+    second = run_audit(kb, Config(), QUESTIONS, as_of=AS_OF)
+    assert [h["id"] for h in second["history"]] == [run["run"]["id"]]
+    assert second["run"]["id"] == run["run"]["id"] + 1
+
+
+def test_a_failing_audit_stores_nothing(kb, monkeypatch):
+    import auditor.audit as audit
+
+    def broken(*args, **kwargs):
+        raise RuntimeError("disk full")
+
+    monkeypatch.setattr(audit, "dumps", broken)  # fails inside the storing transaction
+    with pytest.raises(RuntimeError):
+        run_audit(kb, Config(), QUESTIONS, as_of=AS_OF)
+    assert kb.query("SELECT count(*) AS n FROM runs")[0]["n"] == 0
+    assert kb.query("SELECT count(*) AS n FROM results")[0]["n"] == 0
+
+
+def test_horizon_override_rules_and_question_horizons(kb):
+    # --horizon 3000 makes the 2021 meter passage fresh again.
+    run = run_audit(kb, Config(), QUESTIONS, as_of=AS_OF, horizon_days=3000)
+    assert run["run"]["horizon_days"] == 3000
+    assert run["questions"][1]["verdict"] == "covered" and run["questions"][1]["horizon_days"] == 3000
+    # A topic rule, and a per-question override that wins over it.
+    config = Config(freshness=FreshnessConfig(365, (HorizonRule(3000, topic="meters"),)))
+    assert run_audit(kb, config, QUESTIONS, as_of=AS_OF)["questions"][1]["verdict"] == "covered"
+    strict = [QUESTIONS[0], Question("q2", QUESTIONS[1].question, topic="meters", horizon_days=30)]
+    q2 = run_audit(kb, config, strict, as_of=AS_OF)["questions"][1]
+    assert q2["verdict"] == "stale" and q2["horizon_days"] == 30
+
+
+def test_thresholds_come_from_calibration_then_config_then_default(kb):
+    assert current_thresholds(kb, Config())["source"] == "default"
+    config = Config(support=SupportConfig(threshold=0.99))
+    assert current_thresholds(kb, config) == {"support": 0.99, "weak_margin": 0.05, "source": "config"}
+    # Nothing clears 0.99: every question becomes a gap.
+    assert run_audit(kb, config, QUESTIONS, as_of=AS_OF)["summary"]["gap"] == 3
+    with kb.transaction():
+        kb.db.execute("INSERT INTO calibrations (created, labels, thresholds) VALUES ('x', 'l.csv', ?)",
+                      [dumps({"support": 0.05, "weak_margin": 0.01})])
+    run = run_audit(kb, config, QUESTIONS, as_of=AS_OF)
+    assert run["run"]["thresholds"] == {"support": 0.05, "weak_margin": 0.01, "source": "calibration"}
+    assert run["summary"]["gap"] < 3
+
+
+def test_empty_question_set_and_empty_store(store):
+    run = run_audit(store, Config(), [], as_of=AS_OF)
+    assert run["summary"]["questions"] == 0 and run["summary"]["fallback_exposure"] == 0.0
+    assert run["run"]["corpus"]["passages"] == 0
+    gap = run_audit(store, Config(), QUESTIONS[:1], as_of=AS_OF)["questions"][0]
+    assert gap["verdict"] == "gap" and gap["evidence"] == [] and gap["reasons"] == []
