@@ -170,7 +170,8 @@ def _read_jsonl(path: Path, text: str) -> tuple[list[str], list[tuple[int, dict]
         try:
             obj = json.loads(line)
         except json.JSONDecodeError as exc:
-            raise InputError(f"{str(path)!r}: line {number}: not valid JSON ({exc.msg})") from None
+            raise InputError(f"{str(path)!r}: line {number}: not valid JSON ({exc.msg}); "
+                             "JSON Lines needs one object per line") from None
         if not isinstance(obj, dict):
             raise InputError(f"{str(path)!r}: line {number}: expected a JSON object, got {type(obj).__name__}")
         record = {}

@@ -13,8 +13,11 @@ without keeping any of it.
 * Phone: digit groups in the layouts of ITU-T E.123 / E.164 — "+" or "00" and a country code with
   at most 15 digits in all (E.164's limit), or national forms with separators such as
   "(415) 555-0100", "020 7946 0958", "01 23 45 67 89" (7–15 digits), or a bare run of 10–15 digits.
-  Not phones: dates (2025-03-14, 14.03.2025), year lists and ranges (2019-2024), IPv4 addresses,
-  amounts next to a currency sign or code, and short numbers ("2025", "Q3", "ext 12").
+  Not phones: dates (2025-03-14, 14.03.2025), year lists and ranges (2019-2024), time ranges
+  (8.00-17.00), IPv4 addresses, dot-grouped thousands (1.234.567), amounts and quantities next to
+  a currency or unit word, and short numbers ("2025", "Q3", "ext 12"). Bare runs of 7–9 digits
+  are left too (order and meter numbers); a 9-digit mobile written without "+" or separators is
+  the price of that.
 """
 
 from __future__ import annotations
@@ -47,10 +50,18 @@ _GROUP_DIGITS = re.compile(r"\d+")
 _DATE = re.compile(r"^(?:(\d{4})([.\-])(\d{1,2})\2(\d{1,2})|(\d{1,2})([.\-])(\d{1,2})\6(?:\d{4}|\d{2}))(?![.\-]?\d)")
 _YEAR = re.compile(r"^(?:1[89]|20|21)\d\d$")
 _CURRENCY_BEFORE = re.compile(r"(?:[$€£¥₹]|\b(?:USD|EUR|GBP|CHF|CAD|AUD|JPY|SEK|NOK|DKK|kr|Rs))\s?$")
+# An amount or a quantity: a currency or measurement unit right after the digits (units only: a
+# phone number is often followed by a noun, "020 7946 0958 account"). The list is common practice,
+# no single source.
 _CURRENCY_AFTER = re.compile(
-    r"^\s?(?:[$€£¥₹%]|(?:USD|EUR|GBP|CHF|CAD|AUD|JPY|SEK|NOK|DKK|kr|dollars?|euros?|pounds?|cents?)\b)",
+    r"^\s?(?:[$€£¥₹%]|(?:USD|EUR|GBP|CHF|CAD|AUD|JPY|SEK|NOK|DKK|kr|dollars?|euros?|pounds?|cents?"
+    r"|gallons?|gal|litres?|liters?|m3|m³|kwh|kg|km|miles?|ft|feet)\b)",
     re.IGNORECASE,
 )
+# "8.00-17.00", "9:30 – 10:45": opening hours, not a number to call.
+_TIME_RANGE = re.compile(r"^\d{1,2}[.:]\d{2}\s?[-\u2013\u2012]\s?\d{1,2}[.:]\d{2}$")
+# "1.234.567": dots as thousands separators (groups of exactly three after the first).
+_DOT_THOUSANDS = re.compile(r"^\d{1,3}(?:\.\d{3})+$")
 
 
 def luhn_valid(digits: str) -> bool:
@@ -123,7 +134,28 @@ def _is_phone(run: str, groups: list[re.Match], before: str, after: str) -> bool
         return False  # "2019-2024", "2023 2024 2025"
     if len(values) == 4 and "." in run and all(int(v) <= 255 for v in values):
         return False  # IPv4 address
+    if _TIME_RANGE.match(run) or _DOT_THOUSANDS.match(run):
+        return False
     return True
+
+
+def _phone_end(run: str, groups: list[re.Match], before: str, after: str) -> int | None:
+    """End (within `run`) of the phone number the run holds, or None.
+
+    A run longer than E.164's 15 digits may be a number followed by more digits ("+1 415 555 0100
+    2025"): its leading groups are tried, longest first.
+    """
+    if _is_phone(run, groups, before, after):
+        return len(run)
+    if sum(len(g.group()) for g in groups) <= 15:
+        return None
+    for n in range(len(groups) - 1, 1, -1):
+        head = groups[:n]
+        if sum(len(g.group()) for g in head) <= 15:
+            cut = head[-1].end() + (1 if run[head[-1].end():head[-1].end() + 1] == ")" else 0)
+            if _is_phone(run[:cut], head, before, run[cut:cut + 16]):
+                return cut
+    return None
 
 
 def redact(text: str) -> tuple[str, Counter]:
@@ -162,10 +194,11 @@ def redact(text: str) -> tuple[str, Counter]:
             found["card"] += 1
             pos = start + card[1]
             continue
-        if _is_phone(run, groups, text[max(0, start - 6):start], text[end:end + 9]):
+        stop = _phone_end(run, groups, text[max(0, start - 6):start], text[end:end + 16])
+        if stop is not None:
             out.append(text[pos:start])
             out.append(PLACEHOLDERS["phone"])
             found["phone"] += 1
-            pos = end
+            pos = start + stop
     out.append(text[pos:])
     return "".join(out), found

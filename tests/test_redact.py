@@ -135,12 +135,16 @@ def test_phone_formats_are_redacted(number):
     out, found = redact(f"call me on {number} tonight")
     assert out == "call me on [phone] tonight"
     assert found == Counter(phone=1)
+    # A noun after the number is no unit: still a phone.
+    assert redact(f"set {number} account") == ("set [phone] account", Counter(phone=1))
 
 
-def test_phone_longer_than_e164_is_left():
-    # E.164 §6: at most 15 digits including the country code; 16 digits after "+" is not a number.
-    out, found = redact("call +1234 5678 9012 3456 now")
-    assert found["phone"] == 0
+def test_phone_is_at_most_e164_long():
+    # E.164: at most 15 digits including the country code. A longer run is a number followed by
+    # other digits: the leading groups that fit are the phone.
+    assert redact("call +1234 5678 9012 3456 now") == ("call [phone] 3456 now", Counter(phone=1))
+    assert redact("+44 20 7946 0958 2025 2026") == ("[phone] 2025 2026", Counter(phone=1))
+    assert redact("(415) 555-0123 4567 8901 23") == ("[phone] 8901 23", Counter(phone=1))  # longest first
 
 
 @pytest.mark.parametrize("text", [
@@ -149,7 +153,8 @@ def test_phone_longer_than_e164_is_left():
     "updated 2025-03-14 10:30", "due 03/14/2025", "fee of $1,234.56", "fee $1 234 567",
     "1 234 567 EUR fund", "€ 12.345.678 budget", "5 000 000 dollars", "ext 1234", "zip 94103",
     "order 12345678", "server 192.168.100.200", "python 3.11.2", "room 101", "12.5% rise",
-    "meter 123456", "between 9 and 17", "call at 10:30",
+    "meter 123456", "between 9 and 17", "call at 10:30", "open 8.00 - 17.00 weekdays",
+    "10.30-11.45 closed", "1.234.567 residents", "1 200 000 gallons a day",
 ])
 def test_dates_amounts_and_short_numbers_are_not_phones(text):
     assert redact(text) == (text, Counter())
@@ -168,3 +173,47 @@ def test_mixed_query_counts_each_kind():
 def test_text_without_digits_or_at_sign_is_untouched(text):
     text = text.replace("@", "")
     assert redact(text) == (text, Counter())
+
+
+# --- generated personal data never survives -------------------------------------------------------
+
+WORDS = st.sampled_from(["my", "bill", "is", "due", "2025", "Q3", "on", "call", "account", "FY2024", "ok"])
+
+
+def _luhn_complete(payload: str) -> str:
+    return next(payload + d for d in "0123456789" if luhn_valid(payload + d))
+
+
+@given(st.text(alphabet="0123456789", min_size=12, max_size=18).filter(lambda p: p[0] not in "0"),
+       st.sampled_from(["", " ", "-"]), st.lists(WORDS, max_size=4), st.lists(WORDS, max_size=4))
+@settings(max_examples=300)
+def test_any_card_number_is_redacted(payload, sep, before, after):
+    digits = _luhn_complete(payload)
+    card = sep.join(digits[i:i + 4] for i in range(0, len(digits), 4))
+    out, found = redact(" ".join([*before, card, *after]))
+    assert digits not in out.replace(" ", "").replace("-", "") and found["card"] == 1
+
+
+@given(st.sampled_from(["1", "44", "49", "33", "353", "61", "81", "998"]),
+       st.text(alphabet="0123456789", min_size=7, max_size=11).filter(lambda n: n[0] != "0"),
+       st.sampled_from([" ", "-", "", "."]), st.lists(WORDS, max_size=3), st.lists(WORDS, max_size=3))
+@settings(max_examples=300)
+def test_any_e164_number_is_redacted(country, national, sep, before, after):
+    # E.164: country code of 1–3 digits, at most 15 digits in all, written after "+" (E.123 §2).
+    if len(country + national) > 15:
+        return
+    groups = [national[i:i + 3] for i in range(0, len(national), 3)]
+    number = f"+{country} " + sep.join(groups)
+    out, found = redact(" ".join([*before, number, *after]))
+    assert found == Counter(phone=1) and national not in "".join(ch for ch in out if ch.isdigit())
+
+
+@given(st.text(alphabet="abcdefghijklmnopqrstuvwxyz0123456789!#$%&'*+/=?^_`{|}~-", min_size=1, max_size=20),
+       st.lists(st.text(alphabet="abcdefghijklmnopqrstuvwxyz0123456789", min_size=1, max_size=10),
+                min_size=2, max_size=4),
+       st.lists(WORDS, max_size=3), st.lists(WORDS, max_size=3))
+@settings(max_examples=300)
+def test_any_dot_atom_address_is_redacted(local, labels, before, after):
+    address = f"{local}@{'.'.join(labels)}"
+    out, found = redact(" ".join([*before, address, *after]))
+    assert found["email"] == 1 and address not in out and "@" not in out
