@@ -15,7 +15,7 @@ from auditor.config import load_config
 from auditor.scan import scan
 from auditor.store import Store
 
-from .conftest import DEMO
+from conftest import DEMO
 
 # results.json format 1, DESIGN.md §4.3: the keys every consumer may rely on.
 RUN_KEYS = {"id", "as_of", "horizon_days", "started", "corpus"}
