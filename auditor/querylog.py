@@ -99,11 +99,12 @@ def jaccard(a: frozenset, b: frozenset) -> float:
     return inter / (len(a) + len(b) - inter)
 
 
-def _pick(columns: list[str], wanted: str | None, names: tuple[str, ...], what: str, path: Path) -> str | None:
+def _pick(columns: list[str], wanted: str | None, names: tuple[str, ...], what: str, path: Path,
+          line: int) -> str | None:
     if wanted is not None:
         key = wanted.strip().casefold()
         if key not in columns:
-            raise InputError(f"{str(path)!r}: line 1: no {what} column {wanted!r} (found: {', '.join(columns)})")
+            raise InputError(f"{str(path)!r}: line {line}: no {what} column {wanted!r} (found: {', '.join(columns)})")
         return key
     return next((n for n in names if n in columns), None)
 
@@ -138,23 +139,30 @@ def _timestamp(value) -> datetime | None:
         return None  # unparseable stamps only leave the period open; the query still counts
 
 
-def _read(path: Path, text_column, count_column, summary: QueryLogSummary) -> list[tuple[int, str, int, dict]]:
-    """[(line, raw text, count, carried fields)] of the log; InputError on structural problems."""
-    from .questions import read_records, read_text, sniff_format
+def _read(path: Path, text_column, count_column, summary: QueryLogSummary,
+          parsed=None) -> list[tuple[int, str, int, dict]]:
+    """[(line, raw text, count, carried fields)] of the log; InputError on structural problems.
 
-    content = read_text(path)
-    fmt = sniff_format(path, content)
+    `parsed` is (format, columns, records) when the caller has read the file already."""
+    from .questions import header_line, read_records, read_text, sniff_format
+
+    if parsed is None:
+        content = read_text(path)
+        fmt = sniff_format(path, content)
+        columns, records = read_records(path, content, fmt) if fmt != "text" else ([], [])
+    else:
+        fmt, columns, records = parsed
     if fmt == "text":
         summary.text_column = None
         rows = [(n, line, 1, {}) for n, line in enumerate(content.splitlines(), 1) if line.strip()]
         summary.records = len(rows)
         return rows
-    columns, records = read_records(path, content, fmt)
-    text_key = _pick(columns, text_column, TEXT_COLUMNS, "text", path)
+    first = header_line(records)
+    text_key = _pick(columns, text_column, TEXT_COLUMNS, "text", path, first)
     if text_key is None:
-        raise InputError(f"{str(path)!r}: line 1: no query text column; name one of "
+        raise InputError(f"{str(path)!r}: line {first}: no query text column; name one of "
                          f"{', '.join(TEXT_COLUMNS)} (found: {', '.join(columns) or 'nothing'})")
-    count_key = _pick(columns, count_column, COUNT_COLUMNS, "count", path)
+    count_key = _pick(columns, count_column, COUNT_COLUMNS, "count", path, first)
     time_key = next((n for n in TIMESTAMP_COLUMNS if n in columns and n not in (text_key, count_key)), None)
     used = {text_key, count_key, time_key, *CARRIED_COLUMNS}
     summary.text_column, summary.count_column, summary.timestamp_column = text_key, count_key, time_key
@@ -196,11 +204,20 @@ def import_query_log(path, *, text_column: str | None = None, count_column: str 
     Raises InputError naming the file (and line) for a missing file, bad encoding, a missing text
     column, a bad count, or a log without any query.
     """
-    path = Path(path)
+    return _import(Path(path), text_column, count_column, similarity, redact, None)
+
+
+def import_parsed_log(path: Path, fmt: str, columns: list[str], records: list[tuple[int, dict]]
+                      ) -> tuple[list[Question], QueryLogSummary]:
+    """`import_query_log` with the defaults, over records `questions.read_records` has read."""
+    return _import(Path(path), None, None, 0.85, True, (fmt, columns, records))
+
+
+def _import(path: Path, text_column, count_column, similarity, redact, parsed):
     if not 0.0 < similarity <= 1.0:
         raise InputError(f"{str(path)!r}: similarity must be in (0, 1], got {similarity!r}")
     summary = QueryLogSummary(path=str(path), similarity=similarity)
-    rows = _read(path, text_column, count_column, summary)
+    rows = _read(path, text_column, count_column, summary, parsed)
 
     # Exact merge: key -> [count, first order, Counter(variant wording), Counter(owner), Counter(topic),
     # {variant: first order}]

@@ -129,11 +129,22 @@ def read_records(path: Path, text: str, fmt: str) -> tuple[list[str], list[tuple
     return _read_jsonl(path, text)
 
 
+def header_line(records: list[tuple[int, dict]]) -> int:
+    """Line of a CSV header (or of the first JSON Lines record), for error messages."""
+    return records.header_line if isinstance(records, _Records) else (records[0][0] if records else 1)
+
+
+class _Records(list):
+    """Records of a CSV file, remembering the line its header stood on."""
+
+    header_line = 1
+
+
 def _read_csv(path: Path, text: str) -> tuple[list[str], list[tuple[int, dict]]]:
     delimiter = "\t" if path.suffix.casefold() == ".tsv" else _csv_delimiter(_first_line(text))
     reader = csv.reader(io.StringIO(text, newline=""), delimiter=delimiter)
     header: list[str] | None = None
-    records: list[tuple[int, dict]] = []
+    records = _Records()
     last = 0
     try:
         for row in reader:
@@ -141,6 +152,7 @@ def _read_csv(path: Path, text: str) -> tuple[list[str], list[tuple[int, dict]]]
             if not row or not any(cell.strip() for cell in row):
                 continue
             if header is None:
+                records.header_line = start
                 header = [_norm_key(c) for c in row]
                 seen = set()
                 for name in header:
@@ -285,16 +297,16 @@ def load_questions(path) -> list[Question]:
         return build_questions(path, rows)
     columns, records = read_records(path, text, fmt)
     if is_query_log(columns):
-        from .querylog import import_query_log
+        from .querylog import import_parsed_log
 
-        questions, summary = import_query_log(path)
+        questions, summary = import_parsed_log(path, fmt, columns, records)
         log.info("%s: %s", path, summary.line())
         return questions
     if fmt == "csv" and "question" not in columns:
-        raise InputError(f"{str(path)!r}: line 1: the header needs a 'question' column "
+        raise InputError(f"{str(path)!r}: line {header_line(records)}: the header needs a 'question' column "
                          f"(found: {', '.join(columns) or 'nothing'})")
     # CSV: the header is checked even when no row follows; JSON Lines: each object on its line.
-    checks = [(1, dict.fromkeys(columns))] if fmt == "csv" else records
+    checks = [(header_line(records), dict.fromkeys(columns))] if fmt == "csv" else records
     for line, fields in checks:
         unknown = [c for c in fields if c not in QUESTION_COLUMNS]
         if unknown:

@@ -130,6 +130,7 @@ def test_question_with_count_column_is_a_query_log(tmp_path):
     ("hz0.jsonl", '{"question": "One?", "horizon_days": 0}\n', r"line 1: horizon_days must be above 0"),
     ("unknown.csv", "question,wieght\nOne?,3\n", r"line 1: unknown column 'wieght'"),
     ("unknown_header_only.csv", "question,wieght\n", r"line 1: unknown column 'wieght'"),
+    ("late_header.csv", "\n\nquestion,wieght\nOne?,1\n", r"line 3: unknown column 'wieght'"),
     ("unknown.jsonl", '{"question": "One?"}\n{"question": "Two?", "ownr": "x"}\n', r"line 2: unknown column 'ownr'"),
     ("noquestion.csv", "id,owner\n1,Billing\n", r"line 1: the header needs a 'question' column"),
     ("emptyq.csv", "id,question\n1,\n", r"line 2: empty question"),
