@@ -246,7 +246,8 @@ class _Reader:
     def path(self, value: Any, key: str, required: bool = False) -> Path:
         text = self.string(value, key, required)
         path = Path(text).expanduser()
-        return path if path.is_absolute() else self.base / path
+        # normpath, not resolve(): "../reports" should read cleanly in messages without following links.
+        return Path(os.path.normpath(path if path.is_absolute() else self.base / path))
 
     def date(self, value: Any, key: str) -> date | None:
         if value is None or isinstance(value, date):
