@@ -1,0 +1,145 @@
+"""Behaviour of temporal.extract beyond the case table: offsets, sentences, options, anchoring."""
+
+from __future__ import annotations
+
+from datetime import date
+from unittest import mock
+
+import pytest
+
+from auditor import temporal
+from auditor.temporal import extract
+
+REF = date(2024, 11, 1)
+
+PASSAGE = ("Billing › Rates\n\nAs of Mar. 1, 2024, the base charge is $18.40. New rates take effect on "
+           "July 1, 2025!\n- Applications close on Jan. 31, 2025.\n- The 2023 schedule is archived.")
+
+
+def test_offsets_index_the_text_and_order_is_text_order():
+    found = extract(PASSAGE, REF)
+    assert [e.expression for e in found] == ["Mar. 1, 2024", "July 1, 2025", "Jan. 31, 2025", "2023"]
+    for e in found:
+        assert PASSAGE[e.char_start:e.char_end] == e.expression
+    assert [e.char_start for e in found] == sorted(e.char_start for e in found)
+
+
+def test_sentence_of_each_expression():
+    found = extract(PASSAGE, REF)
+    # "Mar." does not end a sentence; list items are sentences of their own
+    assert found[0].text == "As of Mar. 1, 2024, the base charge is $18.40."
+    assert found[1].text == "New rates take effect on July 1, 2025!"
+    assert found[2].text == "- Applications close on Jan. 31, 2025."
+    assert found[3].text == "- The 2023 schedule is archived."
+    assert [e.role for e in found] == ["as_of", "effective", "expires", "period"]
+
+
+def test_as_json_fields_of_the_dates_command():
+    (e,) = extract("Updated 2024-10-02.", REF)
+    assert e.as_json() == {"text": "Updated 2024-10-02.", "expression": "2024-10-02", "start": "2024-10-02",
+                           "end": "2024-10-02", "granularity": "day", "role": "as_of"}
+
+
+def test_relative_and_yearless_need_a_reference_date():
+    text = "We posted the notice last month. The office reopens on January 6. Rates rose in March 2024."
+    assert [e.expression for e in extract(text)] == ["March 2024"]
+    anchored = extract(text, REF)
+    assert [(e.expression, e.start, e.end) for e in anchored] == [
+        ("last month", date(2024, 10, 1), date(2024, 10, 31)),
+        ("January 6", date(2024, 1, 6), date(2024, 1, 6)),
+        ("March 2024", date(2024, 3, 1), date(2024, 3, 31)),
+    ]
+
+
+def test_relative_expressions_follow_the_reference_date():
+    text = "Meters were read two weeks ago and will be read again next quarter."
+    first = extract(text, date(2024, 11, 1))
+    later = extract(text, date(2025, 5, 20))
+    assert [(e.start, e.end) for e in first] == [(date(2024, 10, 14), date(2024, 10, 20)),
+                                                 (date(2025, 1, 1), date(2025, 3, 31))]
+    # 2025-05-20 − 14 days = 2025-05-06, a Tuesday: its ISO week runs Mon 5 May .. Sun 11 May
+    assert [(e.start, e.end) for e in later] == [(date(2025, 5, 5), date(2025, 5, 11)),
+                                                 (date(2025, 7, 1), date(2025, 9, 30))]
+    assert [e.role for e in first] == ["event", "planned"]
+
+
+def test_day_first_option():
+    text = "Notice dated 04/03/2025."
+    assert extract(text, REF)[0].start == date(2025, 4, 3)
+    assert extract(text, REF, day_first=True)[0].start == date(2025, 3, 4)
+    # a part above 12 decides the order whatever the option says
+    assert extract("Dated 13/03/2025.", REF)[0].start == date(2025, 3, 13)
+    assert extract("Dated 03/13/2025.", REF, day_first=True)[0].start == date(2025, 3, 13)
+
+
+def test_invalid_calendar_dates_are_not_dates():
+    assert extract("Bills dated 2025-02-29, 31/04/2025 or April 31, 2025 do not exist.", REF) == []
+
+
+def test_fiscal_year_start_option():
+    text = "FY2025 budget"
+    assert (extract(text, REF)[0].start, extract(text, REF)[0].end) == (date(2025, 1, 1), date(2025, 12, 31))
+    october = extract(text, REF, fiscal_year_start=10)[0]
+    assert (october.start, october.end) == (date(2024, 10, 1), date(2025, 9, 30))
+    q2 = extract("Q2 FY2025 results", REF, fiscal_year_start=10)[0]
+    assert (q2.start, q2.end, q2.granularity) == (date(2025, 1, 1), date(2025, 3, 31), "quarter")
+    this_fy = extract("Budgets close at the end of this fiscal year.", REF, fiscal_year_start=7)[0]
+    # 2024-11-01 lies in FY2025 = 2024-07-01..2025-06-30; its end is June 2025
+    assert (this_fy.start, this_fy.end) == (date(2025, 6, 1), date(2025, 6, 30))
+
+
+def test_hemisphere_option():
+    north = extract("Winter 2025 outages", REF)[0]
+    south = extract("Winter 2025 outages", REF, hemisphere="south")[0]
+    assert (north.start, north.end) == (date(2025, 12, 1), date(2026, 2, 28))
+    assert (south.start, south.end) == (date(2025, 6, 1), date(2025, 8, 31))
+    with pytest.raises(ValueError, match="hemisphere"):
+        extract("Winter 2025", REF, hemisphere="east")
+
+
+def test_this_winter_in_january_is_the_winter_under_way():
+    (e,) = extract("Frozen pipes are common this winter.", date(2025, 1, 15))
+    assert (e.start, e.end) == (date(2024, 12, 1), date(2025, 2, 28))
+
+
+def test_year_passes_across_a_range():
+    (e,) = extract("Offices are closed from December 24 to January 2, 2025.", REF)
+    assert (e.start, e.end, e.granularity) == (date(2024, 12, 24), date(2025, 1, 2), "day")
+    (e,) = extract("Readings run from 28 November 2024 to 3 December.", REF)
+    assert (e.start, e.end) == (date(2024, 11, 28), date(2024, 12, 3))
+
+
+def test_and_joins_a_range_only_after_between():
+    assert len(extract("Applications open on January 6, 2025 and close on February 14, 2025.", REF)) == 2
+    (e,) = extract("Crews work between March 3, 2025 and March 7, 2025.", REF)
+    assert (e.start, e.end) == (date(2025, 3, 3), date(2025, 3, 7))
+
+
+def test_dateparser_sees_only_spans():
+    calls = []
+    real = temporal._dateparser_span.__wrapped__
+
+    def spy(span, reference):
+        calls.append(span)
+        return real(span, reference)
+
+    temporal._dateparser_span.cache_clear()
+    with mock.patch.object(temporal, "_dateparser_span", spy):
+        text = "We may call you. The sun is out. Your meter was read 3 days ago; a crew comes in two weeks."
+        found = extract(text, REF)
+    assert calls == ["3 days ago", "in 2 weeks"]
+    assert [(e.expression, e.start) for e in found] == [("3 days ago", date(2024, 10, 29)),
+                                                       ("in two weeks", date(2024, 11, 11))]
+
+
+def test_dateparser_span_cache_is_keyed_by_reference():
+    temporal._dateparser_span.cache_clear()
+    assert temporal._dateparser_span("3 days ago", date(2024, 3, 1)) == date(2024, 2, 27)  # leap year
+    assert temporal._dateparser_span("3 days ago", date(2023, 3, 1)) == date(2023, 2, 26)
+    assert temporal._dateparser_span("3 days ago", date(2024, 3, 1)) == date(2024, 2, 27)
+    assert temporal._dateparser_span.cache_info().hits == 1
+
+
+def test_empty_and_dateless_text():
+    assert extract("", REF) == []
+    assert extract("Call us to set up a payment plan.", REF) == []
