@@ -288,20 +288,29 @@ def load_questions(path) -> list[Question]:
     `querylog.import_query_log` — redacted, near-duplicates merged, counts as weights — and its
     summary line is logged at INFO. Raises InputError naming the file (and line) on bad input.
     """
+    questions, summary = read_question_file(path)
+    if summary is not None:
+        log.info("%s: %s", path, summary.line())
+    return questions
+
+
+def read_question_file(path):
+    """`load_questions`, also returning the query-log summary (None for a question set).
+
+    For commands that print what a query-log import merged and redacted.
+    """
     path = Path(path)
     text = read_text(path)
     fmt = sniff_format(path, text)
     if fmt == "text":
         rows = [(n, {"question": line.strip()}) for n, line in enumerate(text.splitlines(), 1)
                 if line.strip() and not line.lstrip().startswith("#")]
-        return build_questions(path, rows)
+        return build_questions(path, rows), None
     columns, records = read_records(path, text, fmt)
     if is_query_log(columns):
         from .querylog import import_parsed_log
 
-        questions, summary = import_parsed_log(path, fmt, columns, records)
-        log.info("%s: %s", path, summary.line())
-        return questions
+        return import_parsed_log(path, fmt, columns, records)
     if fmt == "csv" and "question" not in columns:
         raise InputError(f"{str(path)!r}: line {header_line(records)}: the header needs a 'question' column "
                          f"(found: {', '.join(columns) or 'nothing'})")
@@ -312,7 +321,7 @@ def load_questions(path) -> list[Question]:
         if unknown:
             raise InputError(f"{str(path)!r}: line {line}: unknown column {unknown[0]!r}; "
                              f"expected {', '.join(QUESTION_COLUMNS)}")
-    return build_questions(path, records)
+    return build_questions(path, records), None
 
 
 # --- storing --------------------------------------------------------------------------------------

@@ -44,6 +44,7 @@ _GROUP = r"(?:\(\d{1,5}\)|\d+)"
 _SEP = r"(?:[ \u00a0]|[ ]?[.\-\u2013\u2012][ ]?)"
 DIGIT_RUN = re.compile(rf"(?<![\w.,/:+\-])(?:\+[ ]?)?{_GROUP}(?:{_SEP}{_GROUP})*(?![\w]|[.,/:]\d)")
 _GROUP_DIGITS = re.compile(r"\d+")
+_ANY_DIGIT = re.compile(r"\d")
 
 # A date at the start of a run: year-month-day, or day/month first with a 2- or 4-digit year, one
 # separator used twice (never a space: "01 23 45 67 89" is a French phone number, not a date).
@@ -172,7 +173,7 @@ def redact(text: str) -> tuple[str, Counter]:
         return PLACEHOLDERS["email"]
 
     text = EMAIL.sub(email, text)
-    if not any(ch.isdigit() for ch in text):
+    if not _ANY_DIGIT.search(text):
         return text, found
 
     out: list[str] = []

@@ -10,7 +10,7 @@ import pytest
 
 from auditor.errors import InputError
 from auditor.models import Question
-from auditor.questions import load_questions, store_questions, stored_questions
+from auditor.questions import load_questions, read_question_file, store_questions, stored_questions
 from auditor.store import Store
 
 
@@ -109,6 +109,18 @@ def test_query_log_is_delegated(tmp_path):
     path = write(tmp_path, "log.csv", "query,count\nPay my bill,3\npay my bill!,2\nmail me at ann@example.org,1\n")
     qs = load_questions(path)
     assert [(q.question, q.weight) for q in qs] == [("Pay my bill", 5.0), ("mail me at [email]", 1.0)]
+
+
+def test_read_question_file_returns_the_log_summary(tmp_path, caplog):
+    log = write(tmp_path, "log.jsonl", '{"utterance": "Leak on my street", "count": 2}\n'
+                                       '{"utterance": "call 020 7946 0123", "count": 1}\n')
+    questions, summary = read_question_file(log)
+    assert summary.line() == "2 log lines -> 2 questions (0 exact and 0 near duplicates merged, 0 empty); redacted 1 phone"
+    with caplog.at_level("INFO", logger="auditor.questions"):
+        assert load_questions(log) == questions
+    assert "redacted 1 phone" in caplog.text
+    plain = write(tmp_path, "set.txt", "Leak on my street?\n")
+    assert read_question_file(plain) == ([Question("q-001", "Leak on my street?")], None)
 
 
 def test_question_with_count_column_is_a_query_log(tmp_path):
