@@ -4,11 +4,13 @@ A query log is a CSV or JSON Lines file with a text column and, optionally, a co
 timestamp column (the names below, case-insensitive; or named by the caller); plain text is read as
 one query a line. Each record goes through, in this order:
 
-1. **redaction** (`redact.redact`) of e-mail addresses, phone and card numbers — first, so that no
-   later step, summary or stored row ever holds the original;
-2. **normalization**: Unicode NFKC, whitespace collapsed; the merge key is the *set* of casefolded
-   words minus filler words (`FILLER`), so case, punctuation, word order and "please" do not
-   separate two queries;
+1. **normalization** (`normalize`): Unicode NFKC — so fullwidth digits and "＠" become ASCII —,
+   invisible format characters dropped, whitespace collapsed;
+2. **redaction** (`redact.redact`) of e-mail addresses, phone and card numbers, in the query and in
+   the carried owner/topic cells — before any grouping, so that no later step, summary or stored
+   row ever holds the original. The merge key is then the *set* of casefolded words (placeholders
+   count as words) minus filler words (`FILLER`), so case, punctuation, word order and "please"
+   do not separate two queries;
 3. **exact merging** of records with the same key, then **near-duplicate merging** of keys whose
    token sets have a Jaccard similarity ≥ `similarity` (|A∩B| / |A∪B|). Keys are visited by
    falling count and each joins the first existing group whose *leader* (its most frequent key) is
@@ -52,6 +54,9 @@ FILLER = frozenset(
 )
 _WORD = re.compile(r"\[(?:email|phone|card)\]|\w+")
 _PLACEHOLDER_TOKENS = frozenset(PLACEHOLDERS.values())
+# Soft hyphen, zero-width spaces and joiners, direction marks, word joiner, BOM: invisible in a
+# query, but they would split words and separate otherwise identical queries.
+_INVISIBLE = re.compile("[\u00ad\u200b-\u200f\u202a-\u202e\u2060-\u2064\ufeff]")
 
 
 @dataclass
@@ -84,6 +89,12 @@ class QueryLogSummary:
             f"({self.merged_exact} exact and {self.merged_near} near duplicates merged, "
             f"{self.empty} empty); redacted {kinds or 'nothing'}"
         )
+
+
+def normalize(text: str) -> str:
+    """NFKC (fullwidth digits and "＠" become ASCII, so redaction sees them), invisible format
+    characters removed, whitespace collapsed."""
+    return " ".join(_INVISIBLE.sub("", unicodedata.normalize("NFKC", text)).split())
 
 
 def tokens(text: str) -> frozenset[str]:
@@ -149,20 +160,19 @@ def _read(path: Path, text_column, count_column, summary: QueryLogSummary,
     if parsed is None:
         content = read_text(path)
         fmt = sniff_format(path, content)
-        columns, records = read_records(path, content, fmt) if fmt != "text" else ([], [])
+        if fmt == "text":  # one query a line
+            rows = [(n, line, 1, {}) for n, line in enumerate(content.splitlines(), 1) if line.strip()]
+            summary.records = len(rows)
+            return rows
+        columns, records = read_records(path, content, fmt)
     else:
         fmt, columns, records = parsed
-    if fmt == "text":
-        summary.text_column = None
-        rows = [(n, line, 1, {}) for n, line in enumerate(content.splitlines(), 1) if line.strip()]
-        summary.records = len(rows)
-        return rows
-    first = header_line(records)
-    text_key = _pick(columns, text_column, TEXT_COLUMNS, "text", path, first)
+    header = header_line(records)
+    text_key = _pick(columns, text_column, TEXT_COLUMNS, "text", path, header)
     if text_key is None:
-        raise InputError(f"{str(path)!r}: line {first}: no query text column; name one of "
+        raise InputError(f"{str(path)!r}: line {header}: no query text column; name one of "
                          f"{', '.join(TEXT_COLUMNS)} (found: {', '.join(columns) or 'nothing'})")
-    count_key = _pick(columns, count_column, COUNT_COLUMNS, "count", path, first)
+    count_key = _pick(columns, count_column, COUNT_COLUMNS, "count", path, header)
     time_key = next((n for n in TIMESTAMP_COLUMNS if n in columns and n not in (text_key, count_key)), None)
     used = {text_key, count_key, time_key, *CARRIED_COLUMNS}
     summary.text_column, summary.count_column, summary.timestamp_column = text_key, count_key, time_key
@@ -223,9 +233,13 @@ def _import(path: Path, text_column, count_column, similarity, redact, parsed):
     # {variant: first order}]
     groups: dict[frozenset, list] = {}
     for order, (_line, raw, count, carried) in enumerate(rows):
-        text = " ".join(unicodedata.normalize("NFKC", raw).split())
+        text = normalize(raw)
         if redact:
             text, found = redact_text(text)
+            for name in CARRIED_COLUMNS:  # owner and topic cells are free text too
+                if name in carried:
+                    carried[name], more = redact_text(normalize(carried[name]))
+                    found.update(more)
             if found:
                 summary.redacted.update(found)
                 summary.redacted_records += 1

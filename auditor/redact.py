@@ -71,11 +71,11 @@ def luhn_valid(digits: str) -> bool:
     From the right, every second digit is doubled (9 subtracted when above 9); the sum of all
     digits must be a multiple of 10.
     """
-    if not digits.isdigit() or len(digits) < 2:
+    if not digits.isdecimal() or len(digits) < 2:
         return False
     total = 0
     for i, ch in enumerate(reversed(digits)):
-        d = ord(ch) - 48
+        d = int(ch)  # any decimal digit: "\d" in the patterns matches every script's digits
         if i % 2:
             d = d * 2 - 9 if d > 4 else d * 2
         total += d

@@ -348,3 +348,18 @@ def test_prefix_filter_never_misses_a_similar_pair(sets, t):
         for j in range(i + 1, len(sets)):
             if jaccard(frozenset(sets[i]), frozenset(sets[j])) >= t:
                 assert set(_prefix(order[i], t)) & set(_prefix(order[j], t))
+
+
+def test_normalization_before_redaction(tmp_path):
+    log = tmp_path / "log.csv"
+    # Fullwidth digits and "＠" (NFKC folds them to ASCII, Unicode UAX #15), a zero-width space and
+    # a soft hyphen inside words, personal data in the owner cell.
+    log.write_text("query,count,owner\n"
+                   "card ４１１１ １１１１ １１１１ １１１１ charged,1,ann＠example.org\n"
+                   "card [card] char\u00adged,2,\n"
+                   "lea\u200bk on my street,1,\n", encoding="utf-8")
+    questions, summary = import_query_log(log)
+    assert [(q.question, q.weight, q.owner) for q in questions] == [
+        ("card [card] charged", 3.0, "[email]"), ("leak on my street", 1.0, None)]
+    assert summary.redacted == Counter(card=1, email=1)
+    assert summary.redacted_records == 1

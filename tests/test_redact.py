@@ -217,3 +217,10 @@ def test_any_dot_atom_address_is_redacted(local, labels, before, after):
     address = f"{local}@{'.'.join(labels)}"
     out, found = redact(" ".join([*before, address, *after]))
     assert found["email"] == 1 and address not in out and "@" not in out
+
+
+def test_digits_of_other_scripts_are_checked_too():
+    # Python's \d matches every Unicode decimal digit (Nd); the Luhn check reads them by value.
+    arabic_indic = "".join(chr(0x0660 + int(d)) for d in "4111111111111111")
+    assert luhn_valid(arabic_indic)
+    assert redact(f"card {arabic_indic}") == ("card [card]", Counter(card=1))
