@@ -154,6 +154,8 @@ def _read_csv(path: Path, text: str) -> tuple[list[str], list[tuple[int, dict]]]
             if header is None:
                 records.header_line = start
                 header = [_norm_key(c) for c in row]
+                while header and not header[-1]:  # spreadsheet exports add empty trailing columns
+                    header.pop()
                 seen = set()
                 for name in header:
                     if not name:
@@ -162,7 +164,7 @@ def _read_csv(path: Path, text: str) -> tuple[list[str], list[tuple[int, dict]]]
                         raise InputError(f"{str(path)!r}: line {start}: column {name!r} appears twice")
                     seen.add(name)
                 continue
-            if len(row) > len(header):
+            if len(row) > len(header) and any(c.strip() for c in row[len(header):]):
                 raise InputError(
                     f"{str(path)!r}: line {start}: {len(row)} fields but the header has {len(header)}"
                     " (quote fields that contain the delimiter)"

@@ -65,6 +65,11 @@ def test_semicolon_and_tab_delimiters_and_header_case(tmp_path):
     assert load_questions(tab) == [Question("q-001", "Where is the office?", weight=2.0)]
 
 
+def test_empty_trailing_columns_of_a_spreadsheet_export(tmp_path):
+    path = write(tmp_path, "set.csv", "question,weight,,\r\nOne?,2,,\r\nTwo?,,\r\n")
+    assert load_questions(path) == [Question("q-001", "One?", weight=2.0), Question("q-002", "Two?")]
+
+
 def test_jsonl_same_keys(tmp_path):
     # JSON Lines (jsonlines.org): UTF-8, one JSON value per line; blank lines tolerated.
     lines = [{"id": 7, "question": "Who reads the meter?", "weight": 4, "horizon_days": 30},
@@ -148,6 +153,7 @@ def test_question_with_count_column_is_a_query_log(tmp_path):
     ("emptyq.csv", "id,question\n1,\n", r"line 2: empty question"),
     ("extra.csv", "question,owner\nOne?,Billing,surplus\n", r"line 2: 3 fields but the header has 2"),
     ("dupcol.csv", "question,Question\nOne?,Two?\n", r"line 1: column 'question' appears twice"),
+    ("emptycol.csv", "question,,weight\nOne?,,1\n", r"line 1: empty column name in the header"),
     ("badjson.jsonl", '{"question": "One?"}\n{"question": \n', r"line 2: not valid JSON"),
     ("array.jsonl", '["One?"]\n', r"line 1: expected a JSON object, got list"),
     ("empty.txt", "", r"no questions found"),
