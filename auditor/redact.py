@@ -175,31 +175,36 @@ def redact(text: str) -> tuple[str, Counter]:
     text = EMAIL.sub(email, text)
     if not _ANY_DIGIT.search(text):
         return text, found
+    return _redact_digits(text, found), found
 
+
+def _redact_digits(text: str, found: Counter) -> str:
     out: list[str] = []
-    pos = 0
-    for match in DIGIT_RUN.finditer(text):
+    pos = scan = 0  # pos: copied up to here; scan: searched up to here
+    while (match := DIGIT_RUN.search(text, scan)) is not None:
         run = match.group()
+        start, end = match.span()
+        scan = end
         groups = list(_GROUP_DIGITS.finditer(run))
         total = sum(len(g.group()) for g in groups)
         if total < 7:
             continue
-        start, end = match.span()
         # International notation ("+" or "00" and a country code) is a phone, never a card: a
         # 15-digit "0044 20 7946 0958" passes the Luhn check one time in ten by chance.
         international = run.startswith("+") or (run.startswith("00") and len(groups) > 1 and total <= 17)
         card = _card_span(run, groups) if total >= 13 and not international else None
         if card is not None:
-            out.append(text[pos:start + card[0]])
+            out.append(text[pos:start])
+            out.append(_redact_digits(run[:card[0]], found))  # "020 7946 0958 4111 ..." holds both
             out.append(PLACEHOLDERS["card"])
             found["card"] += 1
-            pos = start + card[1]
+            pos = scan = start + card[1]  # the rest of the run is searched again
             continue
         stop = _phone_end(run, groups, text[max(0, start - 6):start], text[end:end + 16])
         if stop is not None:
             out.append(text[pos:start])
             out.append(PLACEHOLDERS["phone"])
             found["phone"] += 1
-            pos = start + stop
+            pos = scan = start + stop
     out.append(text[pos:])
-    return "".join(out), found
+    return "".join(out)

@@ -160,6 +160,11 @@ def test_dates_amounts_and_short_numbers_are_not_phones(text):
     assert redact(text) == (text, Counter())
 
 
+def test_card_and_phone_in_one_digit_run():
+    assert redact("020 7946 0958 4111 1111 1111 1111") == ("[phone] [card]", Counter(phone=1, card=1))
+    assert redact("4111 1111 1111 1111 020 7946 0958") == ("[card] [phone]", Counter(phone=1, card=1))
+
+
 def test_mixed_query_counts_each_kind():
     text = ("I'm ann.lee@example.org, phone +44 20 7946 0958 or 020 7946 0123, "
             "card 4111 1111 1111 1111 billed 2025-03-14 for $45.20")
