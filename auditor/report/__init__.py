@@ -1,0 +1,68 @@
+"""The report of a run: index.html, results.json, gaps.csv, owners/<slug>.csv and owners/<slug>.html.
+
+`write_report(run, out_dir)` reads only the run object (DESIGN.md §4.3 plus the extensions listed in
+the project notes), so a stored run can be reported again at any time with the same bytes out.
+"""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+from .exports import (all_owners, document_owner, owner_questions, owner_slugs, write_atomic,
+                      write_exports)
+from .html import Highlighter, build_view, render_page, summarize
+
+# The page must stay under 15 MB (the issue's limit) with room to spare; when a run is too big for
+# the full evidence, fewer items and shorter passage text go into the page (results.json keeps all).
+PAGE_LIMIT_BYTES = 14_000_000
+PAGE_LEVELS = ((3, 5_000_000), (2, 2_500_000), (1, 1_000_000), (0, 0))
+
+
+def _render_within_limit(run: dict, **view_args) -> str:
+    for page_evidence, text_budget in PAGE_LEVELS:
+        page = render_page(build_view(run, page_evidence=page_evidence, text_budget=text_budget,
+                                      **view_args))
+        if len(page.encode("utf-8")) <= PAGE_LIMIT_BYTES:
+            break
+    return page
+
+__all__ = ["write_report"]
+
+
+def write_report(run: dict, out_dir: Path) -> Path:
+    """Write every file of the report into `out_dir` and return the path of index.html.
+
+    Each file goes to a temporary name and is renamed into place; index.html is renamed last so
+    that a reader who finds it also finds the files it links to. Output is deterministic: the same
+    run object gives the same bytes (no clock is read; every date comes from the run).
+    """
+    out_dir = Path(out_dir)
+    out_dir.mkdir(parents=True, exist_ok=True)
+    owners = all_owners(run)
+    highlighter = Highlighter()  # one word cache for every page
+    slugs = owner_slugs(owners)
+    write_exports(run, out_dir, slugs)
+
+    questions = list(run.get("questions") or [])
+    documents = list(run.get("documents") or [])
+    owner_links = []
+    for owner in owners:
+        own_q = owner_questions(run, owner)
+        own_d = [d for d in documents if document_owner(d) == owner]
+        slug = slugs[owner]
+        links = {"files": [("Full report", "../index.html"), (f"{owner} CSV", f"{slug}.csv"),
+                           ("results.json", "../results.json")]}
+        page = _render_within_limit(run, questions=own_q, documents=own_d,
+                                    summary=summarize(own_q), owner=owner, links=links,
+                                    highlighter=highlighter)
+        write_atomic(out_dir / "owners" / f"{slug}.html", page)
+        owner_links.append((owner, slug, len(own_q)))
+
+    links = {"files": [("results.json", "results.json"), ("gaps.csv", "gaps.csv")],
+             "owners": owner_links}
+    page = _render_within_limit(run, questions=questions, documents=documents,
+                                summary=run.get("summary") or summarize(questions), links=links,
+                                highlighter=highlighter)
+    index = out_dir / "index.html"
+    write_atomic(index, page)
+    return index

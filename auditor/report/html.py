@@ -1,0 +1,514 @@
+"""The HTML pages of a run: index.html and owners/<slug>.html, self-contained and safe by construction.
+
+* Jinja2 with autoescape on renders everything a reader sees, so the table reads without JavaScript.
+* The page script gets its data as JSON in a ``<script type="application/json">`` block, with ``<``,
+  ``>``, ``&``, U+2028 and U+2029 escaped so no text can close the block or break the parser.
+* Highlighting is computed here as character ranges over the passage text; the script cuts the text
+  at those ranges and builds text nodes and <mark> elements (never innerHTML of document text).
+* A Content-Security-Policy meta tag allows only the page's own inline script and style (by
+  sha256 hash): nothing is fetched, and an injected script would not run even if escaping failed.
+* The page keeps evidence short (top PAGE_EVIDENCE items, passage text cut to a budget) so a run of
+  10,000 questions stays under 15 MB; results.json keeps everything.
+"""
+
+from __future__ import annotations
+
+import base64
+import hashlib
+import json
+import re
+from datetime import date
+from functools import lru_cache
+from pathlib import Path
+
+from jinja2 import Environment, FileSystemLoader, select_autoescape
+from markupsafe import Markup
+
+from . import charts
+from .exports import best_evidence, document_owner, question_owner
+
+HERE = Path(__file__).parent
+PAGE_EVIDENCE = 3  # evidence items per question in the page (results.json keeps all)
+PASSAGE_CHARS = 600  # longest passage text in the page
+MIN_PASSAGE_CHARS = 160
+PAGE_TEXT_BUDGET = 5_000_000  # characters of passage text in one page, shared by all passages
+LIST_LIMIT = 50  # rows per document inventory list
+VERDICTS = ("covered", "stale", "gap")
+ACTIONS = ("write", "refresh", "retire")
+_WORD = re.compile(r"\w{2,}")
+_ASTRAL = re.compile("[\U00010000-\U0010FFFF]")
+
+CAUTION = ("This audit is advisory. Automated checks of support and freshness do not replace the "
+           "content owner's review. Safety-related content — water quality, health, legal — must be "
+           "confirmed with the responsible authority, whose official notice prevails.")
+
+REASON_TEXT = {
+    "too_old": "older than the freshness horizon",
+    "expired": "its validity window closed before the audit date",
+    "overtaken": "it announces a planned event that has since happened",
+}
+FLAG_TEXT = {
+    "stale_competitor": "a stale passage supports it too; the assistant may pick that one",
+    "weak": "support is just above the threshold",
+    "file_dated": "freshness rests on a file time only",
+    "no_answer_type": "the question's expected answer type was not recognised",
+}
+SOURCE_TEXT = {"statement": "a dated statement", "metadata": "document metadata",
+               "file": "the file time", "none": "no date"}
+
+
+# --- small helpers --------------------------------------------------------------------------------
+
+def _date(value) -> date | None:
+    if not value:
+        return None
+    try:
+        return date.fromisoformat(str(value)[:10])
+    except ValueError:
+        return None
+
+
+def _share(part: float, whole: float) -> float:
+    return part / whole if whole else 0.0
+
+
+def _pct(x) -> str:
+    return "–" if x is None else f"{float(x) * 100:.1f}%"
+
+
+def _num(x, digits: int = 2) -> str:
+    if x is None:
+        return "–"
+    x = float(x)
+    return str(int(x)) if x.is_integer() else f"{x:.{digits}f}"
+
+
+def _verdict_class(verdict) -> str:
+    return verdict if verdict in VERDICTS else "other"
+
+
+def _humanize(key: str) -> str:
+    return str(key).replace("_", " ").strip().capitalize()
+
+
+def script_json(value) -> Markup:
+    """JSON safe inside <script type="application/json">: no `<`, `>`, `&`, U+2028, U+2029 left."""
+    text = json.dumps(value, ensure_ascii=False, separators=(",", ":"), sort_keys=False)
+    text = (text.replace("&", "\\u0026").replace("<", "\\u003c").replace(">", "\\u003e")
+            .replace("\u2028", "\\u2028").replace("\u2029", "\\u2029"))
+    return Markup(text)
+
+
+def csp_hash(source: str) -> str:
+    return "'sha256-" + base64.b64encode(hashlib.sha256(source.encode("utf-8")).digest()).decode() + "'"
+
+
+@lru_cache(maxsize=1)
+def _static() -> tuple[str, str]:
+    css = (HERE / "static" / "report.css").read_text(encoding="utf-8")
+    js = (HERE / "static" / "report.js").read_text(encoding="utf-8")
+    return css, js
+
+
+@lru_cache(maxsize=1)
+def _environment() -> Environment:
+    env = Environment(loader=FileSystemLoader(str(HERE / "templates")),
+                      autoescape=select_autoescape(default=True, default_for_string=True),
+                      trim_blocks=True, lstrip_blocks=True, keep_trailing_newline=True)
+    env.filters.update(pct=_pct, num=_num, verdict_class=_verdict_class, humanize=_humanize)
+    return env
+
+
+class Highlighter:
+    """Finds the words of a text whose token (per the run's tokenizer) is one of the matched terms."""
+
+    def __init__(self):
+        try:
+            from auditor.tokenize import Tokenizer
+            self._tok = Tokenizer()
+        except Exception:  # the page still renders, matching words as written
+            self._tok = None
+        self._cache: dict[str, str] = {}
+        self._words: dict[str, list[tuple[int, int, str, str]]] = {}
+
+    def token(self, word: str) -> str:
+        hit = self._cache.get(word)
+        if hit is None:
+            out = self._tok.tokenize(word) if self._tok else [word.casefold()]
+            hit = self._cache[word] = out[0] if len(out) == 1 else word.casefold()
+        return hit
+
+    def words(self, text: str) -> list[tuple[int, int, str, str]]:
+        """(start, end, token, casefolded word) of each word, offsets in UTF-16 code units."""
+        hit = self._words.get(text)
+        if hit is None:
+            spans = [(m.start(), m.end(), m.group()) for m in _WORD.finditer(text)]
+            if _ASTRAL.search(text):  # JS strings count astral characters as two units
+                units = [0]
+                for c in text:
+                    units.append(units[-1] + (2 if ord(c) > 0xFFFF else 1))
+                spans = [(units[s], units[e], w) for s, e, w in spans]
+            hit = self._words[text] = [(s, e, self.token(w), w.casefold()) for s, e, w in spans]
+        return hit
+
+    def ranges(self, text: str, terms) -> list[int]:
+        """Flat [start, end, start, end, ...] of matched words, in UTF-16 code units (as JS counts)."""
+        wanted = set(terms)
+        if not wanted:
+            return []
+        return [x for s, e, tok, low in self.words(text) if tok in wanted or low in wanted
+                for x in (s, e)]
+
+
+def _cut(text: str, limit: int) -> tuple[str, bool]:
+    """Cut at a word boundary near `limit` characters."""
+    text = " ".join(str(text or "").split())
+    if len(text) <= limit:
+        return text, False
+    cut = text.rfind(" ", 0, limit)
+    return text[: cut if cut > limit // 2 else limit].rstrip() + " …", True
+
+
+# --- explanations (plain text; the template escapes them) -----------------------------------------
+
+def verdict_sentence(q: dict, thresholds: dict) -> str:
+    verdict, support = q.get("verdict"), q.get("support")
+    threshold = thresholds.get("support")
+    if verdict == "gap":
+        s = "No passage supports this question"
+        if support is not None and threshold is not None:
+            s += f" (best support {_num(support)}, threshold {_num(threshold)})"
+        return s + "; the assistant would fall back to an outside source or answer without grounding."
+    if verdict == "stale":
+        reasons = [REASON_TEXT.get(r, str(r)) for r in q.get("reasons") or []]
+        s = "Supported only by stale passages"
+        return s + (": " + "; ".join(reasons) + "." if reasons else ".")
+    if verdict == "covered":
+        return "Supported by at least one fresh passage."
+    return f"Verdict: {verdict}."
+
+
+def action_sentence(q: dict) -> str | None:
+    action = q.get("action")
+    best = best_evidence(q) or {}
+    where = best.get("document")
+    if action == "write":
+        terms = q.get("missing_terms") or []
+        s = "Write: add a passage that answers this question"
+        return s + (f", using the words users use ({', '.join(terms)})." if terms else ".")
+    if action == "refresh":
+        return ("Refresh: bring " + (where or "the supporting passage") +
+                " up to date and state when it was reviewed.")
+    if action == "retire":
+        return ("Retire: remove or rewrite " + (where or "the supporting passage") +
+                "; what it says has expired or been overtaken.")
+    return None
+
+
+# --- the view model -------------------------------------------------------------------------------
+
+def summarize(questions: list[dict]) -> dict:
+    """Summary figures of a subset of questions, computed as DESIGN.md §3.4 defines them."""
+    weight = sum(float(q.get("weight") or 0) for q in questions)
+    counts = {v: sum(1 for q in questions if q.get("verdict") == v) for v in VERDICTS}
+    wsum = {v: sum(float(q.get("weight") or 0) for q in questions if q.get("verdict") == v)
+            for v in VERDICTS}
+    return {"questions": len(questions), **counts, "weight": weight,
+            "fallback_exposure": _share(wsum["gap"], weight),
+            "stale_exposure": _share(wsum["stale"], weight)}
+
+
+def _figures(summary: dict, corpus: dict) -> list[dict]:
+    n = summary.get("questions") or 0
+    figs = [{"key": "questions", "label": "Questions", "value": n, "text": str(n)}]
+    for v in VERDICTS:
+        c = summary.get(v) or 0
+        figs.append({"key": v, "label": v.capitalize(), "value": c, "text": str(c),
+                     "note": _pct(_share(c, n)) + " of questions", "cls": v})
+    figs.append({"key": "fallback_exposure", "label": "Fallback exposure",
+                 "value": summary.get("fallback_exposure"), "text": _pct(summary.get("fallback_exposure")),
+                 "note": "weighted share of gap questions", "cls": "gap"})
+    figs.append({"key": "stale_exposure", "label": "Stale exposure",
+                 "value": summary.get("stale_exposure"), "text": _pct(summary.get("stale_exposure")),
+                 "note": "weighted share of stale questions", "cls": "stale"})
+    figs.append({"key": "freshness", "label": "Corpus freshness F", "value": corpus.get("freshness"),
+                 "text": _num(corpus.get("freshness"), 3), "note": "share of passages up to date"})
+    figs.append({"key": "mean_age_days", "label": "Mean age A", "value": corpus.get("mean_age_days"),
+                 "text": "–" if corpus.get("mean_age_days") is None
+                 else f"{_num(corpus.get('mean_age_days'), 1)} d",
+                 "note": "days out of date, 0 when fresh"})
+    return figs
+
+
+def _evidence_ages(questions: list[dict], audit: date | None) -> tuple[list[int], int]:
+    """Age of the youngest supporting passage of each question that has one; undated counted."""
+    ages, undated = [], 0
+    if audit is None:
+        return ages, undated
+    for q in questions:
+        dated = [_date(e.get("as_of")) for e in q.get("evidence") or [] if e.get("supporting")]
+        if not dated:
+            continue
+        known = [d for d in dated if d is not None]
+        if known:
+            ages.append(max(0, (audit - max(known)).days))
+        else:
+            undated += 1
+    return ages, undated
+
+
+def _owner_counts(questions: list[dict], owners: list[str]) -> dict[str, dict[str, int]]:
+    counts: dict[str, dict[str, int]] = {}
+    for q, owner in zip(questions, owners):
+        c = counts.setdefault(owner, {})
+        c[q.get("verdict")] = c.get(q.get("verdict"), 0) + 1
+    return counts
+
+
+def _trend_points(run: dict) -> list[dict]:
+    entries = list(run.get("history") or [])
+    current = {"id": (run.get("run") or {}).get("id"), "as_of": (run.get("run") or {}).get("as_of"),
+               "summary": run.get("summary") or {}}
+    if not entries or entries[-1].get("id") != current["id"]:
+        entries.append(current)
+    points = []
+    for e in entries:
+        s = e.get("summary") or {}
+        points.append({"label": str(e.get("as_of") or e.get("id") or ""),
+                       "covered_share": _share(s.get("covered") or 0, s.get("questions") or 0),
+                       "stale_exposure": s.get("stale_exposure"),
+                       "fallback_exposure": s.get("fallback_exposure")})
+    return points
+
+
+def _page_data(questions, owners_of, owner_index, topic_index, horizon, *,
+               page_evidence: int, text_budget: int, highlighter: Highlighter) -> dict:
+    """What the page script needs: filter keys per row and short evidence; passages deduplicated.
+
+    Per question: {"v": verdict, "o": owner index, "t": topic index (-1: none), "w": weight,
+    "s": support, "h": horizon days, "k": the terms scored in its evidence, "e": evidence}; each
+    evidence item is the array [passage key, rank, BM25 score, support, supporting 0/1, fresh 0/1,
+    reasons, contribution of each term of "k", highlights]. Highlights are delta-coded
+    [gap, length, gap, length, ...] in UTF-16 code units, a gap counted from the previous end.
+    Passages ("p") are keyed by passage id. The shape keeps a 10,000-question page small.
+    """
+    hl = highlighter
+    passages: dict[str, dict] = {}
+    rows = []
+    keyed = []  # (evidence item, passage key, matched terms): highlight once the text is cut
+    for i, q in enumerate(questions):
+        items = (q.get("evidence") or [])[:page_evidence]
+        qterms = sorted({t for e in items for t in (e.get("terms") or {})})
+        ev_out = []
+        for j, e in enumerate(items):
+            key = str(e["passage"]) if e.get("passage") is not None else f"{i}.{j}"
+            if key not in passages:
+                passages[key] = {
+                    "d": e.get("document"), "sec": e.get("section"), "pg": e.get("page"),
+                    "ao": e.get("as_of"), "src": e.get("as_of_source"), "ex": e.get("expires"),
+                    "st": [[s.get("expression"), s.get("role"), s.get("start"), s.get("end"),
+                            s.get("granularity")] for s in e.get("statements") or []],
+                    "_raw": e.get("text") or "",
+                }
+            terms = e.get("terms") or {}
+            contrib = [round(float(terms.get(t) or 0), 2) for t in qterms]
+            item = [key, e.get("rank", j + 1), round(float(e.get("score") or 0), 2),
+                    round(float(e.get("support") or 0), 3), int(bool(e.get("supporting"))),
+                    int(bool(e.get("fresh"))), list(e.get("reasons") or []), contrib]
+            keyed.append((item, key, [t for t in qterms if float(terms.get(t) or 0) > 0]))
+            ev_out.append(item)
+        rows.append({"v": q.get("verdict"), "o": owner_index[owners_of[i]],
+                     "t": topic_index.get(q.get("topic"), -1),
+                     "w": q.get("weight", 1.0), "s": q.get("support"),
+                     "h": q.get("horizon_days") or horizon, "k": qterms, "e": ev_out})
+    limit = PASSAGE_CHARS
+    if passages:
+        limit = max(MIN_PASSAGE_CHARS, min(PASSAGE_CHARS, text_budget // len(passages)))
+    for p in passages.values():
+        p["txt"], p["cut"] = _cut(p.pop("_raw"), limit)
+    for item, key, matched in keyed:
+        flat = hl.ranges(passages[key]["txt"], matched)
+        coded, end = [], 0
+        for k in range(0, len(flat), 2):
+            coded += [flat[k] - end, flat[k + 1] - flat[k]]
+            end = flat[k + 1]
+        item.append(coded)
+    return {"q": rows, "p": passages}
+
+
+def build_view(run: dict, *, questions: list[dict], documents: list[dict], summary: dict,
+               owner: str | None = None, links: dict | None = None,
+               page_evidence: int = PAGE_EVIDENCE, text_budget: int = PAGE_TEXT_BUDGET,
+               highlighter: Highlighter | None = None) -> dict:
+    """Everything the template shows, for the whole run or one owner's share of it.
+
+    Pass one `highlighter` to several calls to share its word cache between pages.
+    """
+    meta = run.get("run") or {}
+    corpus = meta.get("corpus") or {}
+    audit = _date(meta.get("as_of"))
+    horizon = meta.get("horizon_days")
+    thresholds = meta.get("thresholds") or {}
+    owners_of = [question_owner(q) for q in questions]
+    owner_names = sorted(set(owners_of))
+    owner_index = {name: k for k, name in enumerate(owner_names)}
+    topics = sorted({q.get("topic") for q in questions if q.get("topic")})
+    topic_index = {t: k for k, t in enumerate(topics)}
+
+    rows = []
+    for i, (q, own) in enumerate(zip(questions, owners_of)):
+        best = best_evidence(q) or {}
+        rows.append({
+            "i": i, "q": q, "owner": own, "verdict": q.get("verdict"),
+            "why": verdict_sentence(q, thresholds), "action_text": action_sentence(q),
+            "flags": [(f, FLAG_TEXT.get(f, "")) for f in q.get("flags") or []],
+            "best": best, "best_fresh": best.get("fresh"),
+        })
+
+    ages, undated = _evidence_ages(questions, audit)
+    chart_owner = charts.verdicts_by_owner(_owner_counts(questions, owners_of))
+    chart_age = charts.age_histogram(ages, int(horizon or 365), undated)
+    points = _trend_points(run) if owner is None else []
+    chart_trend = charts.trend(points) if len(points) >= 2 else None
+
+    index_of = {str(q.get("id")): i for i, q in enumerate(questions)}
+    briefs = []
+    for b in run.get("briefs") or []:
+        if owner is not None and (b.get("owner") or "unassigned") != owner:
+            continue
+        qs = [(index_of[str(x)], questions[index_of[str(x)]].get("question"))
+              for x in b.get("questions") or [] if str(x) in index_of]
+        briefs.append({"b": b, "questions": qs})
+    briefs.sort(key=lambda item: (-float(item["b"].get("weight") or 0), str(item["b"].get("title"))))
+
+    return {
+        "title": meta.get("title") or "Knowledge base",
+        "owner": owner,
+        "run": meta, "corpus": corpus, "summary": summary, "thresholds": thresholds,
+        "figures": _figures(summary, corpus),
+        "charts": {"owner": chart_owner, "age": chart_age, "trend": chart_trend},
+        "diff": diff_view(run.get("diff")) if owner is None else None,
+        "gate": gate_view(run.get("gate")) if owner is None else None,
+        "briefs": briefs,
+        "rows": rows,
+        "owner_names": owner_names, "topics": topics,
+        "inventory": inventory(documents, run.get("ingest_errors") if owner is None else [], audit),
+        "caution": CAUTION,
+        "links": links or {},
+        "data": dict(_page_data(questions, owners_of, owner_index, topic_index, horizon,
+                                page_evidence=page_evidence, text_budget=text_budget,
+                                highlighter=highlighter or Highlighter()),
+                     audit=meta.get("as_of")),
+        "audit_date": meta.get("as_of"),
+        "horizon": horizon,
+        "reason_text": REASON_TEXT, "source_text": SOURCE_TEXT,
+    }
+
+
+DIFF_ORDER = ("new_gaps", "resolved_gaps", "newly_stale", "refreshed", "added", "removed")
+
+
+def _scalar_text(value) -> str:
+    if isinstance(value, bool):
+        return "yes" if value else "no"
+    if isinstance(value, float):
+        return _num(value, 3)
+    if isinstance(value, (list, tuple)):
+        return ", ".join(_scalar_text(v) for v in value)
+    if isinstance(value, dict):
+        return "; ".join(f"{k}: {_scalar_text(v)}" for k, v in value.items())
+    return "" if value is None else str(value)
+
+
+def _item_text(item) -> dict:
+    """One entry of a diff list: the question's id and text, then the other fields as "key: value"."""
+    if not isinstance(item, dict):
+        return {"id": None, "text": _scalar_text(item), "extra": ""}
+    rest = [f"{_humanize(k).lower()} {_scalar_text(v)}" for k, v in item.items()
+            if k not in ("id", "question") and v not in (None, "", [])]
+    return {"id": item.get("id"), "text": _scalar_text(item.get("question", "")), "extra": " · ".join(rest)}
+
+
+def diff_view(diff: dict | None) -> dict | None:
+    """Lists of the diff (known categories first, then any others by name) and its scalar fields."""
+    if not isinstance(diff, dict):
+        return None
+    keys = [k for k in DIFF_ORDER if k in diff] + sorted(k for k in diff if k not in DIFF_ORDER)
+    groups, facts = [], []
+    for k in keys:
+        value = diff[k]
+        if isinstance(value, (list, tuple)):
+            groups.append({"key": k, "title": _humanize(k), "entries": [_item_text(x) for x in value]})
+        else:
+            facts.append((_humanize(k), _scalar_text(value)))
+    return {"groups": groups, "facts": facts}
+
+
+def gate_view(gate: dict | None) -> dict | None:
+    """Outcome (passed / failed) and the gate's checks as a table with the union of their fields."""
+    if not isinstance(gate, dict):
+        return None
+    passed = gate.get("passed", gate.get("ok"))
+    tables, facts = [], []
+    for k in sorted(gate):
+        if k in ("passed", "ok"):
+            continue
+        value = gate[k]
+        if isinstance(value, (list, tuple)) and value and all(isinstance(x, dict) for x in value):
+            cols: list[str] = []
+            for x in value:
+                cols.extend(c for c in x if c not in cols)
+            tables.append({"title": _humanize(k), "columns": [_humanize(c) for c in cols],
+                           "rows": [[_scalar_text(x.get(c)) for c in cols] for x in value],
+                           "failed": [x.get("passed", x.get("ok")) is False for x in value]})
+        else:
+            facts.append((_humanize(k), _scalar_text(value)))
+    return {"passed": bool(passed), "tables": tables, "facts": facts}
+
+
+def inventory(documents: list[dict], ingest_errors, audit: date | None) -> dict:
+    """Document inventory: oldest, undated, expired, failed (with reasons), and counts."""
+    docs = sorted(documents, key=lambda d: str(d.get("path")))
+    active = [d for d in docs if d.get("status", "active") == "active"]
+
+    def as_of(d):
+        return _date(d.get("as_of")) or _date(d.get("doc_date"))
+
+    dated = [d for d in active if as_of(d)]
+    oldest = sorted(dated, key=lambda d: (as_of(d), str(d.get("path"))))
+    undated = [d for d in active if not as_of(d)]
+    expired = [d for d in active if "expired" in (d.get("reasons") or [])
+               or (audit and _date(d.get("expires")) and _date(d.get("expires")) < audit)]
+    expired.sort(key=lambda d: (str(d.get("expires") or ""), str(d.get("path"))))
+    failed = [{"path": d.get("path"), "owner": document_owner(d),
+               "reasons": list(d.get("reasons") or [])} for d in docs if d.get("status") == "failed"]
+    seen = {f["path"] for f in failed}
+    for err in ingest_errors or []:
+        if err.get("document") in seen:
+            for f in failed:
+                if f["path"] == err.get("document") and err.get("error") not in f["reasons"]:
+                    f["reasons"].append(err.get("error"))
+            continue
+        seen.add(err.get("document"))
+        failed.append({"path": err.get("document"), "owner": "", "reasons": [err.get("error")]})
+    failed.sort(key=lambda f: str(f["path"]))
+    return {
+        "counts": {"documents": len(docs), "active": len(active),
+                   "removed": sum(1 for d in docs if d.get("status") == "removed"),
+                   "failed": len(failed), "undated": len(undated), "expired": len(expired),
+                   "stale": sum(1 for d in active if d.get("fresh") is False)},
+        "oldest": oldest[:LIST_LIMIT], "undated": undated[:LIST_LIMIT],
+        "expired": expired[:LIST_LIMIT], "failed": failed,
+        "more": {"oldest": max(0, len(oldest) - LIST_LIMIT), "undated": max(0, len(undated) - LIST_LIMIT),
+                 "expired": max(0, len(expired) - LIST_LIMIT)},
+        "audit": audit,
+    }
+
+
+def render_page(view: dict) -> str:
+    """Render one page of the report from a view built by `build_view`."""
+    css, js = _static()
+    csp = ("default-src 'none'; img-src data:; base-uri 'none'; form-action 'none'; "
+           f"style-src {csp_hash(css)}; script-src {csp_hash(js)}")
+    return _environment().get_template("report.html.j2").render(
+        v=view, css=Markup(css), js=Markup(js), csp=csp, data_json=script_json(view["data"]))

@@ -1,0 +1,252 @@
+/* Corpus Auditor report: filters, search, sort and evidence panels over the server-rendered table.
+   Safety rule: text from the run only ever reaches the page through textContent / createTextNode;
+   nothing here assigns innerHTML. Data comes from the JSON block, parsed with JSON.parse. */
+(function () {
+  "use strict";
+  var dataEl = document.getElementById("report-data");
+  var table = document.getElementById("questions");
+  if (!dataEl || !table) { return; }
+  var data = JSON.parse(dataEl.textContent);
+  var tbody = table.tBodies[0];
+  var rows = Array.prototype.slice.call(tbody.rows); // rows[i] belongs to data.q[i]
+  var form = document.getElementById("filters");
+  var fVerdict = document.getElementById("f-verdict");
+  var fOwner = document.getElementById("f-owner");
+  var fTopic = document.getElementById("f-topic");
+  var fText = document.getElementById("f-text");
+  var shown = document.getElementById("shown");
+  var owners = [], topics = [];
+  Array.prototype.forEach.call(fOwner.options, function (o) { if (o.value !== "") { owners[+o.value] = o.text; } });
+  Array.prototype.forEach.call(fTopic.options, function (o) { if (+o.value >= 0 && o.value !== "") { topics[+o.value] = o.text; } });
+  var hay = null;
+  var detailRows = []; // detailRows[i]: the evidence row under rows[i], once built
+
+  function el(tag, cls, text) {
+    var e = document.createElement(tag);
+    if (cls) { e.className = cls; }
+    if (text !== undefined && text !== null) { e.textContent = String(text); }
+    return e;
+  }
+
+  function haystack() {
+    if (hay === null) {
+      hay = rows.map(function (r) {
+        return (r.cells[0].querySelector("summary").textContent + " " + r.cells[1].textContent + " " +
+                r.cells[2].textContent).toLowerCase();
+      });
+    }
+    return hay;
+  }
+
+  function apply() {
+    var v = fVerdict.value, o = fOwner.value, t = fTopic.value;
+    var s = fText.value.trim().toLowerCase();
+    var words = s ? haystack() : null;
+    var oi = o === "" ? null : +o, ti = t === "" ? null : +t;
+    var n = 0;
+    for (var i = 0; i < rows.length; i++) {
+      var q = data.q[i];
+      var show = (!v || q.v === v) && (oi === null || q.o === oi) && (ti === null || q.t === ti) &&
+                 (!s || words[i].indexOf(s) !== -1);
+      if (rows[i].hidden === show) {
+        rows[i].hidden = !show;
+        if (detailRows[i]) { detailRows[i].hidden = !show || !rows[i].classList.contains("open"); }
+      }
+      if (show) { n++; }
+    }
+    shown.textContent = n + " of " + rows.length + " questions shown";
+  }
+
+  // --- sort ---------------------------------------------------------------------------------
+  var collator = new Intl.Collator(undefined, { sensitivity: "base", numeric: true });
+  var verdictRank = { gap: 0, stale: 1, covered: 2 };
+  var actionRank = { write: 0, retire: 1, refresh: 2 };
+  function keyOf(col, i) {
+    var q = data.q[i];
+    switch (col) {
+      case "weight": return +q.w || 0;
+      case "support": return q.s === null || q.s === undefined ? -1 : +q.s;
+      case "verdict": return verdictRank.hasOwnProperty(q.v) ? verdictRank[q.v] : 9;
+      case "owner": return owners[q.o] || "";
+      case "topic": return q.t >= 0 ? topics[q.t] : "";
+      case "action": var a = rows[i].cells[6].textContent; return actionRank.hasOwnProperty(a) ? actionRank[a] : 9;
+      default: return rows[i].cells[0].querySelector("summary").textContent;
+    }
+  }
+  var sortState = { col: null, dir: 1 };
+  function sortBy(th) {
+    var col = th.getAttribute("data-sort");
+    var dir = sortState.col === col ? -sortState.dir : (col === "weight" ? -1 : 1);
+    sortState = { col: col, dir: dir };
+    var idx = rows.map(function (_, i) { return i; });
+    var keys = idx.map(function (i) { return keyOf(col, i); });
+    idx.sort(function (a, b) {
+      var ka = keys[a], kb = keys[b];
+      var c = typeof ka === "number" ? ka - kb : collator.compare(ka, kb);
+      return c !== 0 ? c * dir : a - b;
+    });
+    var frag = document.createDocumentFragment();
+    idx.forEach(function (i) {
+      frag.appendChild(rows[i]);
+      if (detailRows[i]) { frag.appendChild(detailRows[i]); }
+    });
+    tbody.appendChild(frag);
+    Array.prototype.forEach.call(table.tHead.rows[0].cells, function (c) {
+      if (c === th) { c.setAttribute("aria-sort", dir > 0 ? "ascending" : "descending"); }
+      else if (c.hasAttribute("data-sort")) { c.setAttribute("aria-sort", "none"); }
+    });
+  }
+  Array.prototype.forEach.call(table.tHead.rows[0].cells, function (th) {
+    if (!th.hasAttribute("data-sort")) { return; }
+    th.classList.add("sortable");
+    th.tabIndex = 0;
+    th.setAttribute("aria-sort", "none");
+    th.title = "Sort by " + th.textContent.toLowerCase();
+    th.addEventListener("click", function () { sortBy(th); });
+    th.addEventListener("keydown", function (ev) {
+      if (ev.key === "Enter" || ev.key === " ") { ev.preventDefault(); sortBy(th); }
+    });
+  });
+
+  // --- evidence panels ------------------------------------------------------------------------
+  var REASONS = { too_old: "older than the horizon", expired: "expired", overtaken: "overtaken by events" };
+  var SOURCES = { statement: "a dated statement in the passage", metadata: "the document's metadata",
+                  file: "the file's modification time only", none: "no date" };
+
+  // Highlights are delta-coded: [gap, length, gap, length, ...], each gap from the previous end.
+  function highlighted(text, coded) {
+    var box = el("blockquote", "passage");
+    var at = 0, end = 0;
+    for (var k = 0; k + 1 < coded.length; k += 2) {
+      var s = end + coded[k], e = s + coded[k + 1];
+      end = e;
+      if (s < at || e > text.length) { continue; }
+      if (s > at) { box.appendChild(document.createTextNode(text.slice(at, s))); }
+      box.appendChild(el("mark", null, text.slice(s, e)));
+      at = e;
+    }
+    if (at < text.length) { box.appendChild(document.createTextNode(text.slice(at))); }
+    return box;
+  }
+
+  // Evidence items are arrays: [passage key, rank, score, support, supporting, fresh, reasons,
+  // contribution of each of the question's terms q.k, highlights] (see html._page_data).
+  function ageDays(isoDate) {
+    var a = Date.parse(data.audit), b = Date.parse(isoDate);
+    return isNaN(a) || isNaN(b) ? null : Math.round((a - b) / 86400000);
+  }
+
+  function freshnessWhy(p, e, horizon) {
+    var fresh = e[5] === 1, reasons = e[6], parts = [];
+    if (p.ao) {
+      var s = "As of " + p.ao + " (from " + (SOURCES[p.src] || p.src || "an unknown source") + ")";
+      var age = ageDays(p.ao);
+      if (age !== null) {
+        s += ", " + age + " days before the audit date — " +
+             (age <= horizon ? "within" : "beyond") + " the " + horizon + "-day horizon";
+      }
+      parts.push(s + ".");
+    } else {
+      parts.push("No date found for this passage.");
+    }
+    if (p.ex) { parts.push("Valid until " + p.ex + (reasons.indexOf("expired") !== -1 ? ", before the audit date." : ".")); }
+    if (reasons.indexOf("overtaken") !== -1) { parts.push("It announces a planned event whose date has passed."); }
+    parts.push(fresh ? "Fresh." : "Stale: " + reasons.map(function (r) { return REASONS[r] || r; }).join(", ") + ".");
+    return parts.join(" ");
+  }
+
+  function evidenceItem(e, q) {
+    var p = data.p[e[0]] || {}, horizon = q.h;
+    var ok = e[4] === 1, fresh = e[5] === 1, ranges = e[8] || [];
+    var terms = q.k.map(function (t, k) { return [t, e[7][k]]; })
+      .filter(function (x) { return x[1] > 0; })
+      .sort(function (a, b) { return b[1] - a[1] || (a[0] < b[0] ? -1 : 1); });
+    var box = el("article", "ev");
+    var where = (p.d || "") + (p.sec ? " › " + p.sec : "") + (p.pg ? " (p. " + p.pg + ")" : "");
+    box.appendChild(el("h4", null, "#" + e[1] + " " + where));
+    var line = el("p", "meta");
+    line.appendChild(el("span", "state " + (!ok ? "unsup" : (fresh ? "fresh" : "stale")),
+                        !ok ? "not supporting" : (fresh ? "fresh support" : "stale support")));
+    line.appendChild(document.createTextNode(" support " + (+e[3]).toFixed(3) + " · BM25 " + (+e[2]).toFixed(2)));
+    box.appendChild(line);
+    var grid = el("div", "ev-grid");
+    var text = el("div");
+    text.appendChild(highlighted(p.txt || "", ranges));
+    if (p.cut) { text.appendChild(el("p", "hint", "Text shortened here; results.json has the full passage.")); }
+    grid.appendChild(text);
+    var left = el("div");
+    var t = el("table");
+    t.appendChild(el("caption", "sr", "Score breakdown by term"));
+    var head = t.createTHead().insertRow();
+    ["term", "BM25", "share"].forEach(function (h) { head.appendChild(el("th", null, h)); });
+    var tb = t.createTBody();
+    var top = terms.length ? Math.max.apply(null, terms.map(function (x) { return x[1]; })) : 0;
+    terms.forEach(function (x) {
+      var r = tb.insertRow();
+      r.insertCell().appendChild(el("span", "chip", x[0]));
+      var c = r.insertCell(); c.textContent = (+x[1]).toFixed(2); c.className = "n";
+      var bar = el("div", "bar"); bar.style.width = (top > 0 ? Math.round(100 * x[1] / top) : 0) + "%";
+      r.insertCell().appendChild(bar);
+    });
+    if (!terms.length) { tb.insertRow().insertCell().textContent = "no question term in this passage"; }
+    left.appendChild(t);
+    grid.appendChild(left);
+    var right = el("div");
+    var st = el("table", "st");
+    st.appendChild(el("caption", "sr", "Dated statements with their roles"));
+    var sh = st.createTHead().insertRow();
+    ["dated statement", "role", "interval"].forEach(function (h) { sh.appendChild(el("th", null, h)); });
+    var sb = st.createTBody();
+    (p.st || []).forEach(function (x) {
+      var r = sb.insertRow();
+      r.insertCell().textContent = x[0];
+      r.insertCell().appendChild(el("span", "chip", x[1]));
+      r.insertCell().textContent = (x[2] === x[3] ? x[2] : x[2] + " – " + x[3]) + (x[4] ? " (" + x[4] + ")" : "");
+    });
+    if (!(p.st || []).length) { sb.insertRow().insertCell().textContent = "no dated statements"; }
+    right.appendChild(st);
+    right.appendChild(el("p", "fw", freshnessWhy(p, e, horizon)));
+    grid.appendChild(right);
+    box.appendChild(grid);
+    return box;
+  }
+
+  // The evidence of row i goes into a full-width row right below it, built on first opening.
+  var ncols = table.tHead.rows[0].cells.length;
+  function rowIndex(details) {
+    var tr = details.closest("tr");
+    return tr && tr.id.charAt(0) === "q" ? +tr.id.slice(1) : -1;
+  }
+  function openEvidence(details) {
+    var i = rowIndex(details);
+    if (i < 0) { return; }
+    var tr = detailRows[i];
+    if (!tr) {
+      var q = data.q[i];
+      tr = detailRows[i] = el("tr", "ev-row");
+      var td = tr.insertCell();
+      td.colSpan = ncols;
+      td.appendChild(el("h3", "sr", "Evidence"));
+      if (!q.e.length) { td.appendChild(el("p", "hint", "No passage was retrieved for this question.")); }
+      q.e.forEach(function (e) { td.appendChild(evidenceItem(e, q)); });
+      rows[i].parentNode.insertBefore(tr, rows[i].nextSibling);
+    }
+    tr.hidden = rows[i].hidden;
+    rows[i].classList.add("open");
+  }
+  function closeEvidence(details) {
+    var i = rowIndex(details);
+    if (i >= 0 && detailRows[i]) { detailRows[i].hidden = true; }
+    if (i >= 0) { rows[i].classList.remove("open"); }
+  }
+  tbody.addEventListener("toggle", function (ev) {
+    if (ev.target.tagName !== "DETAILS") { return; }
+    if (ev.target.open) { openEvidence(ev.target); } else { closeEvidence(ev.target); }
+  }, true);
+
+  [fVerdict, fOwner, fTopic].forEach(function (s) { s.addEventListener("change", apply); });
+  fText.addEventListener("input", apply);
+  form.addEventListener("submit", function (ev) { ev.preventDefault(); });
+  form.hidden = false;
+  document.documentElement.setAttribute("data-ready", "1");
+})();

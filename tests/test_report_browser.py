@@ -1,0 +1,238 @@
+"""The report in a real browser: Debian's headless Chromium driven by Playwright's Python package.
+
+Skipped cleanly when Chromium or Playwright is missing. Screenshots and timings go to
+test-artifacts/ (git-ignored).
+"""
+
+from __future__ import annotations
+
+import json
+import shutil
+from collections import Counter
+from pathlib import Path
+
+import pytest
+
+import report_samples as samples
+from auditor.report import write_report
+
+CHROMIUM = shutil.which("chromium") or ("/usr/bin/chromium" if Path("/usr/bin/chromium").exists() else None)
+sync_api = pytest.importorskip("playwright.sync_api")
+pytestmark = [pytest.mark.browser,
+              pytest.mark.skipif(CHROMIUM is None, reason="headless Chromium is not installed")]
+ARTIFACTS = Path(__file__).resolve().parents[1] / "test-artifacts"
+ARGS = ["--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
+        "--disable-background-networking", "--disable-component-update", "--disable-sync"]
+# Rows of the question table (evidence rows added under an opened row are not questions).
+VISIBLE_ROWS = "#questions > tbody > tr[id]:not([hidden])"
+
+
+@pytest.fixture(scope="module")
+def browser():
+    with sync_api.sync_playwright() as p:
+        b = p.chromium.launch(executable_path=CHROMIUM, args=ARGS)
+        yield b
+        b.close()
+
+
+class Page:
+    """A page that records console messages, page errors and any request leaving the file."""
+
+    def __init__(self, browser, url):
+        self.messages, self.errors, self.requests = [], [], []
+        self.page = browser.new_page(viewport={"width": 1280, "height": 900})
+        self.page.on("console", lambda m: self.messages.append((m.type, m.text)))
+        self.page.on("pageerror", lambda e: self.errors.append(str(e)))
+        self.page.on("request", lambda r: self.requests.append(r.url))
+        self.page.goto(url)
+        self.page.wait_for_selector("html[data-ready]", state="attached")
+
+    def console_errors(self):
+        return [t for kind, t in self.messages if kind == "error"] + self.errors
+
+
+@pytest.fixture(scope="module")
+def sample(tmp_path_factory, browser):
+    out = tmp_path_factory.mktemp("browser")
+    index = write_report(samples.sample_run(), out)
+    results = json.loads((out / "results.json").read_text(encoding="utf-8"))
+    page = Page(browser, index.as_uri())
+    yield page, results
+    page.page.close()
+
+
+def test_page_opens_without_console_errors_or_requests(sample):
+    page, _ = sample
+    assert page.console_errors() == []
+    assert [u for u in page.requests if not u.startswith("file:")] == []
+    assert page.page.is_visible("#filters")
+
+
+def test_filter_by_verdict_shows_the_right_rows(sample):
+    page, results = sample
+    p = page.page
+    counts = Counter(q["verdict"] for q in results["questions"])
+    for verdict in ("gap", "stale", "covered"):
+        p.select_option("#f-verdict", verdict)
+        rows = p.locator(VISIBLE_ROWS)
+        assert rows.count() == counts[verdict]
+        assert set(rows.locator(".v").all_inner_texts()) == {verdict}
+        assert p.inner_text("#shown") == f"{counts[verdict]} of {len(results['questions'])} questions shown"
+    p.select_option("#f-verdict", "")
+    assert p.locator(VISIBLE_ROWS).count() == len(results["questions"])
+
+
+def test_owner_topic_and_text_filters_combine(sample):
+    page, results = sample
+    p = page.page
+    p.select_option("#f-owner", label="Billing")
+    billing = [q for q in results["questions"] if q["owner"] == "Billing"]
+    assert p.locator(VISIBLE_ROWS).count() == len(billing)
+    p.fill("#f-text", "phone")
+    assert p.locator(f"{VISIBLE_ROWS} .qid").all_inner_texts() == ["q-001", "q-013"]
+    p.select_option("#f-verdict", "gap")
+    assert p.locator(VISIBLE_ROWS).count() == 0
+    p.select_option("#f-verdict", "")
+    p.select_option("#f-owner", "")
+    p.fill("#f-text", "")
+    p.select_option("#f-topic", label="rebates")
+    assert p.locator(f"{VISIBLE_ROWS} .qid").all_inner_texts() == ["q-003"]
+    p.select_option("#f-topic", "-1")  # questions without a topic
+    assert p.locator(f"{VISIBLE_ROWS} .qid").all_inner_texts() == ["q-010", "q-012"]
+    p.select_option("#f-topic", "")
+
+
+def test_sort_by_weight_and_back(sample):
+    page, results = sample
+    p = page.page
+    p.click("#questions th[data-sort=weight]")
+    ids = p.locator("#questions > tbody > tr[id] .qid").all_inner_texts()
+    by_weight = [q["id"] for q in sorted(results["questions"], key=lambda q: -q["weight"])]
+    assert ids == by_weight
+    assert p.get_attribute("#questions th[data-sort=weight]", "aria-sort") == "descending"
+    p.focus("#questions th[data-sort=weight]")
+    p.keyboard.press("Enter")  # keyboard works too: now ascending
+    assert p.locator("#questions > tbody > tr[id] .qid").all_inner_texts() == by_weight[::-1]
+
+
+def test_expanding_a_row_shows_its_evidence(sample):
+    page, results = sample
+    p = page.page
+    q = results["questions"][0]  # q-001, stale phone payment
+    p.focus("#q0 summary")
+    p.keyboard.press("Enter")  # keyboard-operable expander
+    evidence = p.locator("#q0 + tr.ev-row")
+    evidence.wait_for()
+    items = evidence.locator("article.ev")
+    assert items.count() == len(q["evidence"])
+    first = items.nth(0)
+    assert first.locator("blockquote.passage").inner_text() == q["evidence"][0]["text"]
+    assert first.locator("mark").all_inner_texts() == ["pay", "bill", "phone", "phone"]
+    assert first.locator("table").nth(0).locator("tbody .chip").all_inner_texts() == ["phone", "pay", "bill"]
+    assert first.locator("table.st tbody tr").count() == 1
+    assert "As of February 2023" in first.locator("table.st").inner_text()
+    why = first.locator(".fw").inner_text()
+    assert "1372 days before the audit date" in why and "beyond the 365-day horizon" in why
+    assert p.is_visible("#q0 .why .act")
+    # Closing hides the evidence; a filter that hides the row hides its evidence too.
+    p.click("#q0 summary")
+    assert evidence.is_hidden()
+    p.click("#q0 summary")
+    assert evidence.is_visible()
+    p.select_option("#f-verdict", "gap")
+    assert evidence.is_hidden()
+    p.select_option("#f-verdict", "")
+    assert evidence.is_visible()
+
+
+def test_hostile_strings_show_literally_and_never_run(sample):
+    page, results = sample
+    p = page.page
+    for i in (10, 11):  # q-011 and q-012 carry the hostile strings
+        p.click(f"#q{i} summary")
+    assert p.evaluate("typeof window.__pwned") == "undefined"
+    assert p.locator("img").count() == 0
+    assert p.locator("a[href^='javascript:' i]").count() == 0
+    assert p.locator("script").count() == 2
+    summary = p.inner_text("#q10 summary")
+    assert samples.HOSTILE_SCRIPT in summary and samples.HOSTILE_IMG in summary
+    q12 = p.inner_text("#q11 summary")
+    for s in (samples.HOSTILE_CLOSE, samples.HOSTILE_LINK, samples.HOSTILE_TEMPLATE):
+        assert s in q12
+    passage = p.locator("#q10 + tr.ev-row blockquote.passage").inner_text()
+    assert passage == " ".join(results["questions"][10]["evidence"][0]["text"].split())
+    assert samples.HOSTILE_OWNER in p.inner_text("#q10 td:nth-child(2)")
+    assert p.evaluate("typeof window.__pwned") == "undefined"
+    assert page.console_errors() == []  # a script blocked by the CSP would have logged an error
+
+
+def test_screenshot(sample):
+    page, _ = sample
+    p = page.page
+    p.click("#q0 summary") if not p.is_visible("#q0 + tr.ev-row") else None
+    ARTIFACTS.mkdir(exist_ok=True)
+    path = ARTIFACTS / "report.png"
+    p.screenshot(path=str(path), full_page=True)
+    assert path.stat().st_size > 50_000
+    p.emulate_media(media="print")
+    assert p.is_hidden("#filters")
+    p.screenshot(path=str(ARTIFACTS / "report-print.png"), full_page=True)
+    p.emulate_media(media="screen")
+
+
+def test_page_works_without_javascript(tmp_path, browser):
+    index = write_report(samples.sample_run(), tmp_path)
+    context = browser.new_context(java_script_enabled=False)
+    p = context.new_page()
+    p.goto(index.as_uri())
+    assert p.locator("#questions > tbody > tr").count() == len(samples.sample_run()["questions"])
+    assert p.is_hidden("#filters")
+    p.click("#q1 summary")
+    assert "No passage supports this question" in p.inner_text("#q1 .why")
+    context.close()
+
+
+@pytest.mark.slow
+def test_large_run_opens_and_filters_within_a_second(tmp_path_factory, browser):
+    out = tmp_path_factory.mktemp("large")
+    run = samples.large_run(10_000)
+    index = write_report(run, out)
+    size = index.stat().st_size
+    page = Page(browser, index.as_uri())
+    p = page.page
+    opened = p.evaluate("""() => {
+        const nav = performance.getEntriesByType('navigation')[0];
+        return nav.domContentLoadedEventEnd;
+    }""")
+    gaps = sum(1 for q in run["questions"] if q["verdict"] == "gap")
+    filtered = p.evaluate("""() => {
+        const s = document.getElementById('f-verdict');
+        const t0 = performance.now();
+        s.value = 'gap';
+        s.dispatchEvent(new Event('change'));
+        document.body.getBoundingClientRect();  // force the layout the filter causes
+        return performance.now() - t0;
+    }""")
+    assert p.locator(VISIBLE_ROWS).count() == gaps
+    searched = p.evaluate("""() => {
+        const s = document.getElementById('f-text');
+        const t0 = performance.now();
+        s.value = 'leak';
+        s.dispatchEvent(new Event('input'));
+        document.body.getBoundingClientRect();
+        return performance.now() - t0;
+    }""")
+    expected = sum(1 for q in run["questions"] if q["verdict"] == "gap" and "leak" in q["question"].lower())
+    assert p.locator(VISIBLE_ROWS).count() == expected
+    p.click(f"{VISIBLE_ROWS} >> nth=0 >> summary")
+    assert p.locator("tr.ev-row article.ev").count() == 3
+    ARTIFACTS.mkdir(exist_ok=True)
+    timing = {"questions": len(run["questions"]), "page_bytes": size, "dom_content_loaded_ms": round(opened),
+              "filter_verdict_ms": round(filtered), "filter_text_ms": round(searched)}
+    (ARTIFACTS / "report-large-timing.json").write_text(json.dumps(timing, indent=2) + "\n")
+    print(timing)
+    assert page.console_errors() == []
+    assert size < 15_000_000
+    # The issue's target: opens and filters within a second (noisy on a shared machine).
+    assert opened < 1000 and filtered < 1000 and searched < 1000, timing
+    p.close()

@@ -1,0 +1,145 @@
+"""results.json, gaps.csv and owners/<slug>.csv written by the report."""
+
+from __future__ import annotations
+
+import csv
+import io
+import json
+
+import pytest
+
+import report_samples as samples
+from auditor.report import write_report
+from auditor.report.exports import (CSV_COLUMNS, FORMAT1_KEYS, owner_slugs, question_owner,
+                                    results_json, slugify)
+
+
+@pytest.fixture(scope="module")
+def out(tmp_path_factory):
+    path = tmp_path_factory.mktemp("exports")
+    write_report(samples.sample_run(), path)
+    return path
+
+
+def read_csv(path):
+    # RFC 4180 (https://www.rfc-editor.org/rfc/rfc4180): CRLF line ends, quoted fields may hold
+    # line breaks; the csv module reads it back.
+    with open(path, newline="", encoding="utf-8") as fh:
+        return list(csv.reader(fh))
+
+
+def test_results_json_is_the_run_object_with_format1_keys_first(out):
+    text = (out / "results.json").read_text(encoding="utf-8")
+    run = samples.sample_run()
+    assert json.loads(text) == run
+    keys = list(json.loads(text))
+    assert keys[:5] == list(FORMAT1_KEYS)
+    assert keys[5:] == ["documents", "briefs", "history", "diff", "gate"]
+    # Pretty-printed UTF-8: characters stay as written, not \\u escapes.
+    lines = text.splitlines()
+    assert lines[0] == "{" and lines[1] == '  "format": 1,'
+    assert any("›" in line for line in lines) and "\\u203a" not in text
+
+
+def test_results_json_key_order_follows_format1_even_when_the_run_does_not():
+    run = samples.sample_run()
+    shuffled = {k: run[k] for k in reversed(list(run))}
+    assert list(json.loads(results_json(shuffled)))[:5] == list(FORMAT1_KEYS)
+
+
+def test_results_json_writes_null_for_nan():
+    run = samples.sample_run()
+    run["questions"][0]["support"] = float("nan")
+    assert json.loads(results_json(run))["questions"][0]["support"] is None
+
+
+def test_gaps_csv_lists_gap_and_stale_questions_by_weight(out):
+    rows = read_csv(out / "gaps.csv")
+    assert tuple(rows[0]) == CSV_COLUMNS
+    body = [dict(zip(rows[0], r)) for r in rows[1:]]
+    run = samples.sample_run()
+    expected = sorted((q for q in run["questions"] if q["verdict"] in ("gap", "stale")),
+                      key=lambda q: -q["weight"])
+    assert [r["id"] for r in body] == [q["id"] for q in expected]
+    first = body[0]  # q-002, the autopay gap, weight 140
+    assert first == {"id": "q-002", "question": "How do I set up autopay?", "owner": "Billing",
+                     "topic": "payments", "weight": "140", "verdict": "gap", "reasons": "",
+                     "flags": "", "support": "0.22", "missing_terms": "autopay", "action": "write",
+                     "best_document": "billing/payment-options.md",
+                     "best_section": "Paying › Options", "best_as_of": "2026-03-31"}
+    rebate = next(r for r in body if r["id"] == "q-003")
+    assert rebate["reasons"] == "too_old;expired" and rebate["action"] == "retire"
+    assert rebate["owner"] == "Conservation Programs"
+    assert rebate["best_document"] == "conservation/toilet-rebate.html"
+
+
+def test_csv_cells_that_a_spreadsheet_would_run_are_defused(tmp_path):
+    # OWASP "CSV Injection": cells starting with = + - @ (or tab / CR) are prefixed with '.
+    run = samples.sample_run()
+    run["questions"][1]["question"] = '=HYPERLINK("http://example.invalid","x")'
+    run["questions"][1]["topic"] = "@SUM(A1)"
+    write_report(run, tmp_path)
+    rows = read_csv(tmp_path / "gaps.csv")
+    row = dict(zip(rows[0], next(r for r in rows if r[0] == "q-002")))
+    assert row["question"] == '\'=HYPERLINK("http://example.invalid","x")'
+    assert row["topic"] == "'@SUM(A1)"
+
+
+def test_hostile_text_round_trips_through_csv(out):
+    rows = read_csv(out / "gaps.csv")
+    q12 = dict(zip(rows[0], next(r for r in rows if r[0] == "q-012")))
+    assert q12["question"] == samples.sample_run()["questions"][11]["question"]
+    assert q12["missing_terms"] == "<script>;javascript:"
+
+
+def test_owner_files_hold_only_that_owners_questions(out):
+    run = samples.sample_run()
+    slugs = owner_slugs({question_owner(q) for q in run["questions"]}
+                        | {d["owner"] for d in run["documents"]})
+    seen = []
+    for owner, slug in slugs.items():
+        rows = read_csv(out / "owners" / f"{slug}.csv")
+        assert tuple(rows[0]) == CSV_COLUMNS
+        assert all(r[2] == owner for r in rows[1:])
+        seen += [r[0] for r in rows[1:]]
+    assert sorted(seen) == sorted(q["id"] for q in run["questions"])  # each question exactly once
+    unassigned = [r[0] for r in read_csv(out / "owners" / "unassigned.csv")[1:]]
+    assert unassigned == ["q-010", "q-012"]  # no owner and no evidence: weight 25, then 1
+    conservation = [r[0] for r in read_csv(out / "owners" / "conservation-programs.csv")[1:]]
+    assert conservation == ["q-003"]  # owner from its best evidence
+
+
+def test_owner_with_documents_only_gets_files(tmp_path):
+    run = samples.sample_run()
+    run["documents"].append({"path": "eng/pumps.md", "owner": "Engineering", "status": "active",
+                             "as_of": "2020-01-01", "fresh": False, "reasons": ["too_old"]})
+    write_report(run, tmp_path)
+    assert read_csv(tmp_path / "owners" / "engineering.csv") == [list(CSV_COLUMNS)]
+    assert (tmp_path / "owners" / "engineering.html").exists()
+
+
+@pytest.mark.parametrize("name, slug", [
+    ("Billing", "billing"),
+    ("Field Operations", "field-operations"),
+    ("Énergie & Eau — Nord", "energie-eau-nord"),
+    ("../../etc/passwd", "etc-passwd"),
+    ("", "owner"),
+    ("水道", "owner"),
+])
+def test_slugify(name, slug):
+    assert slugify(name) == slug
+
+
+def test_owner_slugs_never_collide():
+    assert owner_slugs(["Billing", "billing", "BILLING!"]) == {
+        "BILLING!": "billing", "Billing": "billing-2", "billing": "billing-3"}
+
+
+def test_question_owner_rule():
+    q = {"owner": None, "evidence": [{"owner": "A", "supporting": False},
+                                     {"owner": "B", "supporting": True}]}
+    assert question_owner(q) == "B"  # the best *supporting* evidence
+    q["evidence"][1]["supporting"] = False
+    assert question_owner(q) == "A"  # else the top evidence item
+    assert question_owner({"owner": "C", "evidence": q["evidence"]}) == "C"
+    assert question_owner({"evidence": []}) == "unassigned"
