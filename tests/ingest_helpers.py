@@ -113,3 +113,31 @@ def config_for(root: Path, **corpus) -> Config:
     owners = corpus.pop("owners", ())
     corpus.setdefault("jobs", 2)
     return Config(database=root.parent / "audit.db", corpus=CorpusConfig(paths=(root,), **corpus), owners=owners)
+
+
+def misbehave(task: str, settings) -> str:
+    """A worker target for pool tests: hangs, kills its process, raises, or answers."""
+    import os
+    import time
+
+    if task == "hang":
+        time.sleep(3600)
+    if task == "crash":
+        os._exit(3)
+    if task == "raise":
+        raise ValueError("bad input")
+    return task.upper()
+
+
+def replicate_pages(data: bytes, times: int) -> bytes:
+    """`data` (a PDF) with its pages repeated `times` times, via pypdf (fast, unlike re-rendering)."""
+    from pypdf import PdfReader, PdfWriter
+
+    reader = PdfReader(io.BytesIO(data))
+    writer = PdfWriter()
+    for _ in range(times):
+        for page in reader.pages:
+            writer.add_page(page)
+    out = io.BytesIO()
+    writer.write(out)
+    return out.getvalue()

@@ -13,10 +13,11 @@ import re
 from datetime import date, datetime, timezone
 
 # ISO 32000-1 §7.9.4: (D:YYYYMMDDHHmmSSOHH'mm), every part after the year optional; O is +, - or Z.
-# PDF 1.x writers often add a trailing apostrophe (HH'mm'), which the older spec showed; accept it.
+# PDF 1.x writers often add a trailing apostrophe (HH'mm'), which the older spec showed, and write
+# the offset after "Z" too ("Z00'00'"); accept both.
 _PDF_DATE = re.compile(
     r"^\s*(?:D:)?(?P<Y>\d{4})(?P<M>\d{2})?(?P<D>\d{2})?(?P<h>\d{2})?(?P<m>\d{2})?(?P<s>\d{2})?"
-    r"(?P<tz>[Zz]|[+\-]\d{2}(?:'?\d{2}'?)?|[+\-]\d{2}'?)?\s*'?\s*$"
+    r"(?P<tz>[Zz+\-](?:\d{2}'?(?:\d{2}'?)?)?)?\s*$"
 )
 
 

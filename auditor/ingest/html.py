@@ -213,11 +213,14 @@ def _dates(soup: BeautifulSoup) -> list[MetaDate]:
             value = _jsonld_first(data, key)
             if isinstance(value, str) and (d := parse_w3c_datetime(value)):
                 found.append(MetaDate(d, kind, f"jsonld:{key}"))
+    used = set()
     for key, kind in _JSONLD_KEYS:
         tag = soup.find(attrs={"itemprop": key})
         if tag is not None:
+            used.add(id(tag))
             value = tag.get("content") or tag.get("datetime") or tag.get_text()
-            if d := parse_w3c_datetime(value):
+            parse = parse_time_element if tag.name == "time" else parse_w3c_datetime
+            if d := parse(value.strip()):
                 found.append(MetaDate(d, kind, f"microdata:{key}"))
     metas = soup.find_all("meta")
     for attr, name, kind, source in _META:
@@ -226,6 +229,8 @@ def _dates(soup: BeautifulSoup) -> list[MetaDate]:
                 found.append(MetaDate(d, kind, source))
                 break
     for time in soup.find_all("time"):
+        if id(time) in used:
+            continue
         hint = " ".join(filter(None, [time.get("itemprop"), " ".join(time.get("class") or []),
                                       "updated" if time.has_attr("pubdate") else None, _preceding_text(time)]))
         for kind, pattern in _TIME_HINTS:

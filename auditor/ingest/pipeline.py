@@ -47,8 +47,11 @@ DATE_KINDS_FOR_DOC_DATE = ("modified", "reviewed", "published", "created")
 
 
 
-def _serve(conn, target: Callable, settings) -> None:
-    """Worker main loop: receive a task, send back target(task, settings); None ends it."""
+def _serve(conn, target: Callable, settings, init: Callable | None) -> None:
+    """Worker main loop: init(settings), then receive a task, send back target(task, settings);
+    None ends it."""
+    if init is not None:
+        init(settings)
     conn.send(("ready", None))
     while True:
         try:
@@ -65,9 +68,9 @@ def _serve(conn, target: Callable, settings) -> None:
 
 
 class _Worker:
-    def __init__(self, ctx, target, settings):
+    def __init__(self, ctx, target, settings, init=None):
         self.conn, child = ctx.Pipe()
-        self.process = ctx.Process(target=_serve, args=(child, target, settings), daemon=True)
+        self.process = ctx.Process(target=_serve, args=(child, target, settings, init), daemon=True)
         self.process.start()
         child.close()
         self.ready = False
@@ -89,9 +92,10 @@ class _Worker:
         self.conn.close()
 
 
-def run_tasks(tasks: list, target: Callable, settings, *, jobs: int, timeout: float
-              ) -> Iterator[tuple[object, str, object]]:
-    """Run target(task, settings) for every task in `jobs` worker processes.
+def run_tasks(tasks: list, target: Callable, settings, *, jobs: int, timeout: float,
+              init: Callable | None = None) -> Iterator[tuple[object, str, object]]:
+    """Run target(task, settings) for every task in `jobs` worker processes; each worker first
+    runs init(settings) (imports, warm-up) before its first task's clock starts.
 
     Yields (task, status, value) as tasks finish, in completion order: status "ok" with the
     return value, "error" with an exception summary, "timeout" with the seconds allowed, or
@@ -101,7 +105,7 @@ def run_tasks(tasks: list, target: Callable, settings, *, jobs: int, timeout: fl
         return
     ctx = mp.get_context("spawn")
     pending = list(reversed(tasks))
-    workers = [_Worker(ctx, target, settings) for _ in range(max(1, min(jobs, len(tasks))))]
+    workers = [_Worker(ctx, target, settings, init) for _ in range(max(1, min(jobs, len(tasks))))]
     startup_failures = 0
     try:
         while pending or any(w.task is not None for w in workers):
@@ -121,7 +125,7 @@ def run_tasks(tasks: list, target: Callable, settings, *, jobs: int, timeout: fl
                         w.process.join(timeout=5)
                         task, code = w.task, w.process.exitcode
                         w.stop(kill=True)
-                        workers[i] = _Worker(ctx, target, settings)
+                        workers[i] = _Worker(ctx, target, settings, init)
                         if task is not None:
                             yield task, "crash", code
                         else:
@@ -137,7 +141,7 @@ def run_tasks(tasks: list, target: Callable, settings, *, jobs: int, timeout: fl
                 elif w.task is not None and time.monotonic() >= w.deadline:
                     task = w.task
                     w.stop(kill=True)
-                    workers[i] = _Worker(ctx, target, settings)
+                    workers[i] = _Worker(ctx, target, settings, init)
                     yield task, "timeout", timeout
     finally:
         for w in workers:
@@ -156,6 +160,23 @@ class _Settings:
 
 
 _TOKENIZERS: dict = {}
+
+
+def warm_up(settings: _Settings) -> None:
+    """Import the parsers and run each costly first call once, so that a worker's start-up does
+    not count against the per-file timeout."""
+    from .. import temporal
+    from ..tokenize import Tokenizer
+    from . import html, markdown, pdf, text  # noqa: F401
+
+    try:
+        key = (settings.language, settings.stopwords)
+        _TOKENIZERS.setdefault(key, Tokenizer(*key)).tokenize("warm up the stemmer")
+        temporal.extract("Updated 1 March 2024, effective next month.", reference_date=None,
+                         day_first=settings.day_first, fiscal_year_start=settings.fiscal_year_start,
+                         hemisphere=settings.hemisphere)
+    except Exception:  # the same error will be reported for each file, with its name
+        pass
 
 
 def choose_doc_date(dates: list[MetaDate]) -> MetaDate | None:
@@ -231,11 +252,17 @@ class IngestSummary:
     removed: int = 0
     failed: int = 0
     passages: int = 0
-    errors: list[dict] = field(default_factory=list)  # {"path", "kind", "error"} for each failure
+    errors: list[str] = field(default_factory=list)  # one line per failed file, naming it
+    failures: list[dict] = field(default_factory=list)  # the same as {"path", "kind", "error"}
     parsed: int = 0  # files sent to a parser
     retokenized: int = 0  # passages re-tokenized for a new tokenizer fingerprint
     bytes_parsed: int = 0
     seconds: float = 0.0
+
+    def fail(self, path: str, kind: str, message: str) -> None:
+        self.failed += 1
+        self.errors.append(message)
+        self.failures.append({"path": path, "kind": kind, "error": message})
 
     def line(self) -> str:
         return (f"{self.new} new, {self.changed} changed, {self.unchanged} unchanged, "
@@ -283,8 +310,7 @@ def ingest_corpus(store, config, *, paths=None, jobs=None, progress=False) -> In
     tasks, unchanged, by_path = [], [], {}
 
     def record_failure(doc_path: str, root: Path, kind: str, message: str, sha: str | None = None) -> None:
-        summary.failed += 1
-        summary.errors.append({"path": doc_path, "kind": kind, "error": message})
+        summary.fail(doc_path, kind, message)
         with store.transaction():
             store.db.execute(
                 "INSERT INTO ingest_errors(path, source_root, kind, error, recorded_at) VALUES (?,?,?,?,?) "
@@ -320,10 +346,11 @@ def ingest_corpus(store, config, *, paths=None, jobs=None, progress=False) -> In
             continue
         if earlier and earlier[0] == sha and not parser_changed and not (
                 earlier[1] == "timeout" and corpus.timeout_s > earlier[2]):
-            summary.failed += 1
             error = store.query("SELECT kind, error FROM ingest_errors WHERE path = ?", [f.doc_path])
             if error:
-                summary.errors.append({"path": f.doc_path, "kind": error[0]["kind"], "error": error[0]["error"]})
+                summary.fail(f.doc_path, error[0]["kind"], error[0]["error"])
+            else:
+                summary.failed += 1
             store.db.execute("UPDATE documents SET last_seen=? WHERE path=?", [now, f.doc_path])
             continue
         by_path[f.doc_path] = f
@@ -337,7 +364,8 @@ def ingest_corpus(store, config, *, paths=None, jobs=None, progress=False) -> In
     jobs = jobs or corpus.jobs or os.cpu_count() or 1
     vocabulary = Vocabulary(store)
     bar = _Progress(len(tasks)) if progress and sys.stderr.isatty() else None
-    for task, status, value in run_tasks(tasks, parse_file, settings, jobs=jobs, timeout=corpus.timeout_s):
+    for task, status, value in run_tasks(tasks, parse_file, settings, jobs=jobs, timeout=corpus.timeout_s,
+                                         init=warm_up):
         f = by_path[task["doc_path"]]
         summary.parsed += 1
         if bar:

@@ -198,11 +198,13 @@ def discover(paths, corpus) -> tuple[list[SourceFile], list[SkippedFile]]:
                     stack.append(path)
                 else:
                     files.append(path)
+        # Real files before links, so a file reached both ways keeps its own path.
+        files.sort(key=lambda p: (p.is_symlink(), str(p)))
         for file in files:
             if single is None and not _wanted(file, root, corpus):
                 continue
             real = os.path.realpath(file)
-            if real in seen_real:  # nested roots or two links to one file: ingest it once
+            if real in seen_real:  # nested roots, or a link to a file already found: ingest it once
                 continue
             try:
                 st = os.stat(file)
