@@ -10,8 +10,10 @@ Grouping, in two passes over the gap questions taken heaviest first (question-se
    terms all occur in the corpus) is grouped by its nearest topic: the question's `topic`, else the
    top heading of its best evidence passage's section, else that passage's folder.
 
-Each brief: `title` (its terms, and its topic in parentheses), `terms` (the missing terms — for a
-pass-1 brief those shared by two or more of its questions — by falling weight), `weight` (the
+Missing terms that a redacted query owes only to a placeholder ("[email]" read as "email") are
+left out (`missing_terms`). Each brief: `title` (its terms, and its topic in parentheses), `terms`
+(the missing terms — for a pass-1 brief those shared by two or more of its questions — by falling
+weight), `weight` (the
 questions' total), `owner` (by weight among the questions' owners: a question's owner, else its
 best evidence passage's owner, else "unassigned"), `questions` (ids, heaviest first), `examples`
 (up to three question texts) and `topic`. Briefs are sorted by weight, heaviest first; the output
@@ -20,7 +22,10 @@ depends only on the input, never on dict or set order.
 
 from __future__ import annotations
 
+import re
 from collections import Counter
+
+from .redact import PLACEHOLDERS
 
 UNASSIGNED = "unassigned"
 EXAMPLES = 3
@@ -61,12 +66,30 @@ def nearest_topic(question: dict) -> str | None:
     return folder or name
 
 
+def missing_terms(question: dict) -> list[str]:
+    """The question's missing terms, less those that only come from a redaction placeholder.
+
+    A redacted query "my email is [email]" keeps the word; "write to [email]" tokenizes to the
+    term "email" through its placeholder alone — nothing an owner should write about.
+    """
+    terms = list(dict.fromkeys(question.get("missing_terms") or ()))
+    text = question.get("question") or ""
+    kinds = [k for k, placeholder in PLACEHOLDERS.items() if placeholder in text]
+    if not kinds:
+        return terms
+    bare = text
+    for placeholder in PLACEHOLDERS.values():
+        bare = bare.replace(placeholder, " ")
+    only_placeholder = {k for k in kinds if not re.search(rf"\b{k}", bare, re.IGNORECASE)}
+    return [t for t in terms if t not in only_placeholder]
+
+
 def _ordered_terms(members: list[dict], shared_only: bool) -> list[str]:
     weight: Counter = Counter()
     count: Counter = Counter()
     first: dict[str, int] = {}
     for m in members:
-        for term in dict.fromkeys(m.get("missing_terms") or ()):
+        for term in missing_terms(m):
             weight[term] += float(m.get("weight", 1.0))
             count[term] += 1
             first.setdefault(term, len(first))
@@ -114,7 +137,7 @@ def content_briefs(question_results: list[dict], *, min_shared_terms: int = 1) -
     clusters: list[list[dict]] = []
     leftovers: list[dict] = []
     for _pos, q in gaps:
-        terms = frozenset(q.get("missing_terms") or ())
+        terms = frozenset(missing_terms(q))
         if not terms:
             leftovers.append(q)
             continue

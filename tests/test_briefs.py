@@ -9,7 +9,7 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from auditor.briefs import content_briefs, nearest_topic
+from auditor.briefs import content_briefs, missing_terms, nearest_topic
 
 
 def q(qid, text, *, verdict="gap", weight=1.0, missing=(), owner=None, topic=None, evidence=()):
@@ -147,3 +147,14 @@ def test_partition_weight_and_order_independence(specs, rnd):
     shuffled = run[:]
     rnd.shuffle(shuffled)
     assert content_briefs(shuffled) == briefs
+
+
+def test_terms_from_redaction_placeholders_are_no_content():
+    # Query-log text is redacted to "[email]" etc.; the tokenizer reads the placeholder as a word.
+    only = q("a", "write to [email] about autopay", missing=["email", "autopay"])
+    said = q("b", "my email [email] bounces", missing=["email", "bounc"])
+    assert missing_terms(only) == ["autopay"]
+    assert missing_terms(said) == ["email", "bounc"]
+    assert missing_terms(q("c", "call [phone]", missing=["phone", "call"])) == ["call"]
+    briefs = content_briefs([only, q("d", "send the bill to [email]", weight=2, missing=["email"])])
+    assert [(b["terms"], b["questions"]) for b in briefs] == [([], ["d"]), (["autopay"], ["a"])]
