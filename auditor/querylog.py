@@ -121,7 +121,7 @@ def _pick(columns: list[str], wanted: str | None, names: tuple[str, ...], what: 
 
 
 def _count(path: Path, line: int, value) -> int:
-    if value in ("", None):
+    if value == "" or value is None:
         return 1
     try:
         if isinstance(value, bool):
@@ -137,7 +137,7 @@ def _count(path: Path, line: int, value) -> int:
 
 
 def _timestamp(value) -> datetime | None:
-    if value in ("", None):
+    if value == "" or value is None:
         return None
     if isinstance(value, (int, float)) and not isinstance(value, bool):
         try:

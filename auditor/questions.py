@@ -190,9 +190,9 @@ def _read_jsonl(path: Path, text: str) -> tuple[list[str], list[tuple[int, dict]
             raise InputError(f"{str(path)!r}: line {number}: expected a JSON object, got {type(obj).__name__}")
         record = {}
         for key, value in obj.items():
+            # Nested values are kept: a query log's extra keys may hold objects, and the reader of
+            # a used key says when its value is of the wrong kind.
             name = _norm_key(key)
-            if isinstance(value, (dict, list)):
-                raise InputError(f"{str(path)!r}: line {number}: {key!r} must be a string or number")
             record[name] = "" if value is None else (value.strip() if isinstance(value, str) else value)
             columns.setdefault(name)
         records.append((number, record))
@@ -202,7 +202,7 @@ def _read_jsonl(path: Path, text: str) -> tuple[list[str], list[tuple[int, dict]
 # --- question sets --------------------------------------------------------------------------------
 
 def _weight(path: Path, line: int, value) -> float:
-    if value in ("", None):
+    if value == "" or value is None:
         return 1.0
     try:
         if isinstance(value, bool):
@@ -216,7 +216,7 @@ def _weight(path: Path, line: int, value) -> float:
 
 
 def _horizon(path: Path, line: int, value) -> int | None:
-    if value in ("", None):
+    if value == "" or value is None:
         return None
     try:
         if isinstance(value, bool) or (isinstance(value, float) and not value.is_integer()):
@@ -230,7 +230,7 @@ def _horizon(path: Path, line: int, value) -> int | None:
 
 
 def _text_field(path: Path, line: int, name: str, value) -> str | None:
-    if value in ("", None):
+    if isinstance(value, str) and not value or value is None:
         return None
     if isinstance(value, bool) or not isinstance(value, (str, int)):
         raise InputError(f"{str(path)!r}: line {line}: {name} must be text, got {value!r}")

@@ -314,7 +314,10 @@ def test_bad_logs(tmp_path, content, kwargs, message):
 def test_bad_jsonl_log_names_the_line(tmp_path):
     path = tmp_path / "log.jsonl"
     path.write_text('{"query": "a", "count": 1}\n{"query": ["a"], "count": 1}\n')
-    with pytest.raises(InputError, match=r"line 2: 'query' must be a string or number"):
+    with pytest.raises(InputError, match=r"line 2: query must be text, got \['a'\]"):
+        import_query_log(path)
+    path.write_text('{"query": "a", "count": {"n": 2}}\n')
+    with pytest.raises(InputError, match=r"line 1: count \{'n': 2\} is not a whole number"):
         import_query_log(path)
     with pytest.raises(InputError, match=r"file not found"):
         import_query_log(tmp_path / "missing.jsonl")
@@ -363,3 +366,14 @@ def test_normalization_before_redaction(tmp_path):
         ("card [card] charged", 3.0, "[email]"), ("leak on my street", 1.0, None)]
     assert summary.redacted == Counter(card=1, email=1)
     assert summary.redacted_records == 1
+
+
+def test_nested_values_in_dropped_keys_are_fine(tmp_path):
+    path = tmp_path / "chat.jsonl"
+    path.write_text('{"utterance": "Leak on Oak Avenue", "ts": 1764547200, "context": {"user": "ann@example.org"}}\n'
+                    '{"utterance": "leak on oak avenue!", "ts": 1764633600, "context": ["x"]}\n')
+    questions, summary = import_query_log(path)
+    assert [(q.question, q.weight) for q in questions] == [("Leak on Oak Avenue", 2.0)]
+    assert summary.ignored_columns == ["context"]
+    # Unix times 1764547200 and 1764633600 are 2025-12-01 and 2025-12-02, 00:00 UTC.
+    assert (summary.first_seen, summary.last_seen) == ("2025-12-01T00:00:00", "2025-12-02T00:00:00")

@@ -70,6 +70,33 @@ def test_empty_trailing_columns_of_a_spreadsheet_export(tmp_path):
     assert load_questions(path) == [Question("q-001", "One?", weight=2.0), Question("q-002", "Two?")]
 
 
+def test_nested_jsonl_values_are_refused_where_they_are_used(tmp_path):
+    path = write(tmp_path, "set.jsonl", '{"question": {"en": "One?"}}\n')
+    with pytest.raises(InputError, match=r"line 1: question must be text"):
+        load_questions(path)
+    path = write(tmp_path, "set2.jsonl", '{"question": "One?", "weight": [2]}\n')
+    with pytest.raises(InputError, match=r"line 1: weight \[2\] is not a number"):
+        load_questions(path)
+
+
+def test_demo_question_set_loads():
+    # The demo's contact-centre question set (fixtures/demo, DESIGN.md §5) as the audit reads it.
+    from pathlib import Path
+
+    demo = Path(__file__).resolve().parent.parent / "fixtures" / "demo" / "questions.csv"
+    if not demo.exists():
+        pytest.skip("demo fixtures not present")
+    qs = load_questions(demo)
+    # The standard library's csv reader is the reference for what the file holds.
+    import csv
+
+    with open(demo, newline="", encoding="utf-8") as fh:
+        rows = list(csv.DictReader(fh))
+    assert [(q.id, q.question, q.owner, q.topic, q.weight) for q in qs] == [
+        (r["id"], r["question"], r["owner"] or None, r["topic"] or None, float(r["weight"] or 1)) for r in rows]
+    assert len({q.id for q in qs}) == len(rows) > 0
+
+
 def test_jsonl_same_keys(tmp_path):
     # JSON Lines (jsonlines.org): UTF-8, one JSON value per line; blank lines tolerated.
     lines = [{"id": 7, "question": "Who reads the meter?", "weight": 4, "horizon_days": 30},
