@@ -3,7 +3,6 @@ terms and nearest topic, with total weight, example questions and a suggested ow
 
 from __future__ import annotations
 
-import random
 
 import pytest
 from hypothesis import given, settings
