@@ -1,15 +1,24 @@
-"""Candidate patterns for temporal expressions (DESIGN.md §3.2), compiled once.
+"""Candidate patterns for temporal expressions (DESIGN.md §3.2), and their reading into intervals.
 
-One alternation finds every candidate span; the alternatives come longest-first because Python's
-`re` takes the first alternative that matches at a position, not the longest. Month names are
-case-sensitive on purpose: "may" and "march" in lower case are a verb, not a month, and a capital
-"May" counts only when a day or a year follows it ("May I ..." never matches). Bare years are
-found here but kept only next to a cue (see `year_in_context`).
+One alternation holds every candidate form; the alternatives come longest-first because Python's
+`re` takes the first alternative that matches at a position, not the longest, and it is tried only
+where a candidate can start (`STARTS`). Month names are case-sensitive on purpose: "may" and
+"march" in lower case are a verb, not a month, and a capital "May" counts only when a day or a year
+follows it ("May I ..." never matches). Bare years are kept only next to a cue (`year_in_context`).
+
+`parse_candidate` reads a match's named groups into an `Atom` (an interval with a granularity);
+it lives beside the patterns because it depends on their group names, which is why this module
+is longer than most. Calendar arithmetic is the standard library's; dateparser reads only the
+relative spans ("2 weeks ago", "in 3 months", "yesterday"), one span at a time, cached.
 """
 
 from __future__ import annotations
 
+import calendar
+import functools
 import re
+from dataclasses import dataclass
+from datetime import date, datetime, timedelta
 
 MONTH_NUMBERS = {}
 for _i, _name in enumerate(("January February March April May June July August September October "
@@ -19,18 +28,14 @@ for _i, _name in enumerate(("January February March April May June July August S
 MONTH_NUMBERS["sept"] = 9
 
 
-def _month_alternatives() -> str:
-    names = []
-    for name in sorted(MONTH_NUMBERS, key=len, reverse=True):
-        names += [name.capitalize(), name.upper()]
-    # an abbreviation may carry a dot ("Mar."); a full name never does, but "May." ends sentences
-    return r"(?:%s)\b\.?" % "|".join(names)
-
-
-MONTH = _month_alternatives()
+MONTH_NAMES = "|".join(variant for name in sorted(MONTH_NUMBERS, key=len, reverse=True)
+                       for variant in (name.capitalize(), name.upper()))
+# an abbreviation may carry a dot ("Mar."); a full name never does, but "May." ends sentences
+MONTH = rf"(?:{MONTH_NAMES})\b\.?"
 _WEEKDAYS = ("Monday|Tuesday|Wednesday|Thursday|Friday|Saturday|Sunday|"
              "Mon|Tues|Tue|Wed|Thurs|Thur|Thu|Fri|Sat|Sun")
-WEEKDAY = rf"(?:{_WEEKDAYS}|{_WEEKDAYS.upper()})\b\.?"
+WEEKDAY_NAMES = f"{_WEEKDAYS}|{_WEEKDAYS.upper()}"
+WEEKDAY = rf"(?:{WEEKDAY_NAMES})\b\.?"
 DAY = r"(?:[0-3]?\d)(?:st|nd|rd|th)?(?![\d:])"  # "9:30" is a time, not a day
 YEAR_CORE = r"(?:1[89]\d{2}|2[01]\d{2})"
 YEAR = YEAR_CORE + r"(?!\d)"
@@ -104,6 +109,13 @@ _ALTERNATIVES = [
 
 CANDIDATES = re.compile("|".join(f"(?P<{name}>{body})" for name, body in _ALTERNATIVES))
 
+# Where a candidate can begin. Trying the whole alternation only at these word starts, instead of
+# at every character, is what makes the scan cheap (about ten times faster on help-centre text).
+_STARTER_WORDS = ("the|first|second|third|fourth|last|final|spring|summer|fall|autumn|winter|this|next|"
+                  "past|previous|coming|current|following|yesterday|today|tomorrow|in|" + "|".join(NUMBER_WORDS))
+STARTS = re.compile(rf"(?<!\w)(?=['\d]|Q[1-4]|H[12]|FY|F\.Y\.|(?:[Ff]iscal|{MONTH_NAMES}|{WEEKDAY_NAMES}|"
+                    rf"(?i:{_STARTER_WORDS}))\b)")
+
 # "early 2023", "mid-2022", "the end of this year", "late March 2024"
 MODIFIER_BEFORE = re.compile(
     r"(?i:\b(?P<mod>early|mid|middle|late|earlier|later|"
@@ -167,3 +179,318 @@ def year_in_context(text: str, start: int, end: int, previous_end: int | None) -
         following = re.match(r"\s+([A-Za-z]+)", text[end:end + 30])
         return bool(following)
     return False
+
+
+# --- calendar helpers ------------------------------------------------------------------------------
+
+def month_end(year: int, month: int) -> date:
+    return date(year, month, calendar.monthrange(year, month)[1])
+
+
+def _addmonths(day: date, months: int) -> date:
+    index = day.year * 12 + day.month - 1 + months
+    year, month = divmod(index, 12)
+    return date(year, month + 1, min(day.day, calendar.monthrange(year, month + 1)[1]))
+
+
+def month_span(year: int, first: int, count: int) -> tuple[date, date]:
+    """`count` months from month `first` of `year` (which may run past December)."""
+    start = date(year, 1, 1)
+    start = _addmonths(start, first - 1)
+    return start, _addmonths(start, count) - timedelta(days=1)
+
+
+def _iso_week(year: int, week: int) -> date:
+    """Monday of ISO 8601 week `week` of `year` (week 1 holds the year's first Thursday)."""
+    return date.fromisocalendar(year, week, 1)
+
+
+def _full_year(text: str) -> int:
+    digits = re.sub(r"\D", "", text)
+    value = int(digits)
+    return value + 2000 if len(digits) == 2 else value
+
+
+def _fiscal_year(label: int, fys: int, explicit_start: int | None = None) -> tuple[date, date]:
+    if explicit_start is not None:
+        begin = explicit_start
+    else:
+        begin = label if fys == 1 else label - 1
+    return month_span(begin, fys, 12)
+
+
+def _season(name: str, year: int, hemisphere: str) -> tuple[date, date]:
+    code = SEASONS[name.lower()]
+    first = {"SP": 3, "SU": 6, "FA": 9, "WI": 12}[code]
+    if hemisphere == "south":
+        first = (first + 6 - 1) % 12 + 1
+    return month_span(year, first, 3)
+
+
+def narrow(start: date, end: date, granularity: str, modifier: str) -> tuple[date, date]:
+    """early/mid/late (thirds) and start/end of an interval, see the module docstring."""
+    if granularity in ("year", "decade", "half", "quarter", "season") or (end - start).days > 62:
+        months = (end.year - start.year) * 12 + end.month - start.month + 1
+        if modifier in ("start", "end") and granularity == "year":
+            return month_span(start.year, start.month + (0 if modifier == "start" else months - 1), 1)
+        third = max(1, months // 3)
+        offset = {"start": 0, "early": 0, "mid": third, "late": months - third, "end": months - third}[modifier]
+        return month_span(start.year, start.month + offset, third)
+    length = (end - start).days + 1
+    third = max(1, length // 3)
+    if modifier in ("start", "early"):
+        return start, start + timedelta(days=third - 1)
+    if modifier == "mid":
+        return start + timedelta(days=third), start + timedelta(days=2 * third - 1)
+    return start + timedelta(days=2 * third), end
+
+
+# --- relative expressions (dateparser on the span only) --------------------------------------------
+
+_SETTINGS = {"PREFER_DAY_OF_MONTH": "first", "PREFER_DATES_FROM": "current_period",
+             "RETURN_AS_TIMEZONE_AWARE": False, "DATE_ORDER": "MDY", "STRICT_PARSING": False}
+
+
+@functools.lru_cache(maxsize=4096)
+def dateparser_span(span: str, reference: date) -> date | None:
+    """Parse one short relative span such as "2 weeks ago" with dateparser, deterministically."""
+    import dateparser  # imported late: it takes a second and many commands never need it
+
+    settings = dict(_SETTINGS, RELATIVE_BASE=datetime(reference.year, reference.month, reference.day))
+    parsed = dateparser.parse(span, languages=["en"], settings=settings)
+    return parsed.date() if parsed else None
+
+
+_FIXED_BASE = date(2000, 1, 1)
+
+
+def _relative_point(span: str, unit: str, reference: date) -> date | None:
+    """dateparser's reading of a relative span at `reference`. Days and weeks are a fixed number of
+    days whatever the base, so such a span is parsed once (at a fixed base) and its offset reused;
+    months and years depend on the base (month lengths), so those are parsed per reference date."""
+    if unit in ("day", "week"):
+        point = dateparser_span(span, _FIXED_BASE)
+        return None if point is None else reference + (point - _FIXED_BASE)
+    return dateparser_span(span, reference)
+
+
+def _count(word: str) -> int:
+    word = word.lower()
+    return int(word) if word.isdigit() else NUMBER_WORDS[word]
+
+
+def _unit_interval(point: date, unit: str) -> tuple[date, date, str]:
+    unit = unit.lower().rstrip("s")
+    if unit in ("day",):
+        return point, point, "day"
+    if unit in ("week", "fortnight"):
+        monday = point - timedelta(days=point.weekday())
+        return monday, monday + timedelta(days=6), "week"
+    if unit == "month":
+        return date(point.year, point.month, 1), month_end(point.year, point.month), "month"
+    if unit == "quarter":
+        first = (point.month - 1) // 3 * 3 + 1
+        return (*month_span(point.year, first, 3), "quarter")
+    return date(point.year, 1, 1), date(point.year, 12, 31), "year"
+
+
+# --- atoms: one candidate span, parsed ---------------------------------------------------------------
+
+@dataclass
+class Atom:
+    start: int
+    end: int
+    granularity: str
+    first: date | None = None  # None while a month-day still lacks its year
+    last: date | None = None
+    month: int = 0
+    day: int = 0
+    future: bool = False  # a relative expression pointing forward ("next month")
+    past: bool = False  # one pointing back ("two weeks ago", "last year"): never planned
+    relative: bool = False
+    bounded: bool = False  # a range with both ends written ("from A to B")
+
+
+def _month(text: str) -> int:
+    return MONTH_NUMBERS[text.rstrip(".").lower()]
+
+
+def _day_atom(m, a, month: int, day: int, year: str | None) -> Atom | None:
+    if year is None:
+        if not 1 <= day <= 31 or day > calendar.monthrange(2024, month)[1]:
+            return None
+        return Atom(m.start(a), m.end(a), "day", month=month, day=day)
+    point = date(int(year), month, day)
+    return Atom(m.start(a), m.end(a), "day", point, point)
+
+
+def parse_candidate(m, ctx) -> Atom | None:
+    """Turn the candidate match `m` into an atom, or None when it is not a date after all."""
+    kind = m.lastgroup
+    g = m.group
+    s, e = m.start(kind), m.end(kind)
+    if kind in ("isodate", "numeric", "isoordinal") and IDENTIFIER_BEFORE.search(ctx["text"], max(0, s - 20), s):
+        return None
+    ref, fys = ctx["reference"], ctx["fys"]
+    if kind == "isoweek":
+        monday = _iso_week(int(g("wy")), int(g("ww")))
+        if g("wd"):
+            point = monday + timedelta(days=int(g("wd")) - 1)
+            return Atom(s, e, "day", point, point)
+        return Atom(s, e, "week", monday, monday + timedelta(days=6))
+    if kind == "isodate":
+        point = date(int(g("iy")), int(g("im")), int(g("id")))
+        return Atom(s, e, "day", point, point)
+    if kind == "isoordinal":
+        point = date(int(g("oy")), 1, 1) + timedelta(days=int(g("od")) - 1)
+        if point.year != int(g("oy")) or int(g("od")) == 0:
+            return None
+        return Atom(s, e, "day", point, point)
+    if kind in ("quarter", "half"):
+        size = 3 if kind == "quarter" else 6
+        number = g("qn") or g("qn2") or g("hn") or g("hn2")
+        number = int(number) if number else ORDINALS[(g("qo") or g("ho")).lower()]
+        fiscal = g("qfy") or g("qfy3") or g("hfy") or g("hfy3")
+        if fiscal:
+            begin, _ = _fiscal_year(_full_year(fiscal), fys)
+            first, last = month_span(begin.year, begin.month + (number - 1) * size, size)
+        else:
+            year = int(g("qy") or g("qy2") or g("qy3") or g("hy") or g("hy2") or g("hy3"))
+            first, last = month_span(year, (number - 1) * size + 1, size)
+        return Atom(s, e, kind, first, last)
+    if kind == "fiscalrange":
+        label, raw = int(g("fa")), g("fb")
+        if (int(raw) if len(raw) == 4 else label // 100 * 100 + int(raw)) != label + 1:
+            return None
+        return Atom(s, e, "year", *_fiscal_year(label, fys, explicit_start=label))
+    if kind == "fiscal":
+        label, second = _full_year(g("fy")), g("fy2")
+        if second:
+            second = _full_year(second) if len(second) == 4 else label // 100 * 100 + int(second)
+            if second != label + 1:
+                return None
+            first, last = _fiscal_year(label, fys, explicit_start=label)
+        else:
+            first, last = _fiscal_year(label, fys)
+        return Atom(s, e, "year", first, last)
+    if kind == "season":
+        year = int(g("sy"))
+        if g("sy2"):
+            second = _full_year(g("sy2")) if len(g("sy2")) == 4 else year // 100 * 100 + int(g("sy2"))
+            if second != year + 1:
+                return None
+        first, last = _season(g("sn"), year, ctx["hemisphere"])
+        return Atom(s, e, "season", first, last)
+    if kind == "decade":
+        decade = int(g("dc")) if g("dc") else 1900 + int(g("dc2"))
+        return Atom(s, e, "decade", date(decade, 1, 1), date(decade + 9, 12, 31))
+    if kind in ("mdrange", "dmrange"):
+        month = _month(g("rm") or g("rm2"))
+        year = int(g("ry") or g("ry2"))
+        d1, d2 = (int(re.match(r"\d+", g(n)).group()) for n in (("rd1", "rd2") if g("rm") else ("rd3", "rd4")))
+        if not d1 < d2:
+            return None
+        return Atom(s, e, "day", date(year, month, d1), date(year, month, d2), bounded=True)
+    if kind == "mmrange":
+        year, m1, m2 = int(g("mmy")), _month(g("mm1")), _month(g("mm2"))
+        if not m1 < m2:
+            return None
+        return Atom(s, e, "month", date(year, m1, 1), month_end(year, m2), bounded=True)
+    if kind in ("mdy", "dmy"):
+        month = _month(g("m1") or g("m2"))
+        day = int(re.match(r"\d+", g("d1") or g("d2")).group())
+        return _day_atom(m, kind, month, day, g("y1") or g("y2"))
+    if kind == "monthyear":
+        year, month = int(g("y3")), _month(g("m3"))
+        return Atom(s, e, "month", date(year, month, 1), month_end(year, month))
+    if kind == "numeric":
+        a, b, y = int(g("n1")), int(g("n2")), _full_year(g("n3"))
+        if g("nsep") == "." and len(g("n3")) != 4:
+            return None
+        day, month = (a, b) if ctx["day_first"] else (b, a)
+        if month > 12 and day <= 12:  # the order is unambiguous when one part exceeds 12
+            day, month = month, day
+        point = date(y, month, day)
+        return Atom(s, e, "day", point, point)
+    if kind == "yearrange":
+        y1, raw = int(g("yr1")), g("yr2")
+        y2 = int(raw) if len(raw) == 4 else y1 // 100 * 100 + int(raw)
+        if not 0 < y2 - y1 <= 50 or (len(raw) == 2 and y2 - y1 > 1 and g(kind)[4:5] != "/"):
+            return None
+        return Atom(s, e, "year", date(y1, 1, 1), date(y2, 12, 31), bounded=True)
+    if kind == "year":
+        if not year_in_context(ctx["text"], s, e, ctx["previous_end"]):
+            return None
+        year = int(g("by"))
+        return Atom(s, e, "year", date(year, 1, 1), date(year, 12, 31))
+    # relative expressions need the reference date
+    if ref is None:
+        return None
+    if kind in ("ago", "inrel"):
+        n, unit = (g("agn"), g("agu")) if kind == "ago" else (g("inn"), g("inu"))
+        count = _count(n)
+        unit_name = unit.lower().rstrip("s")
+        if unit_name == "fortnight":
+            count, unit_name = count * 2, "week"
+        if unit_name == "quarter":  # dateparser has no quarters
+            point = _addmonths(ref, 3 * count * (-1 if kind == "ago" else 1))
+        else:
+            span = f"{count} {unit_name}s ago" if kind == "ago" else f"in {count} {unit_name}s"
+            point = _relative_point(span, unit_name, ref)
+            if point is None:
+                return None
+        first, last, granularity = _unit_interval(point, unit_name)
+        return Atom(s, e, granularity, first, last, future=kind == "inrel", past=kind == "ago", relative=True)
+    if kind == "rolling":
+        count, unit = _count(g("ron")), g("rou").lower().rstrip("s")
+        forward = g("rod").lower() in ("next", "coming", "following")
+        span = {"day": timedelta(days=count), "week": timedelta(weeks=count)}.get(unit)
+        if forward:
+            last = ref + span if span else _addmonths(ref, count * (12 if unit == "year" else 1))
+            return Atom(s, e, unit, ref, last, future=True, relative=True)
+        first = ref - span if span else _addmonths(ref, -count * (12 if unit == "year" else 1))
+        return Atom(s, e, unit, first, ref, past=True, relative=True)
+    if kind == "relative":
+        direction, unit = g("rdir").lower(), re.sub(r"\s+", " ", g("runit").lower())
+        step = {"last": -1, "past": -1, "previous": -1, "next": 1, "coming": 1, "following": 1}.get(direction, 0)
+        if unit in MONTH_NUMBERS or unit in SEASONS or unit.endswith("day"):
+            return _relative_named(s, e, unit, step, ref, ctx["hemisphere"])
+        if unit == "fiscal year":
+            label = _fiscal_label(ref, fys) + step
+            first, last = _fiscal_year(label, fys)
+            return Atom(s, e, "year", first, last, future=step > 0, past=step < 0, relative=True)
+        months = {"week": 0, "month": 1, "quarter": 3, "year": 12}[unit]
+        point = ref + timedelta(weeks=step) if unit == "week" else _addmonths(ref, months * step)
+        first, last, granularity = _unit_interval(point, unit)
+        return Atom(s, e, granularity, first, last, future=step > 0, past=step < 0, relative=True)
+    if kind == "deictic":
+        offset = {"yesterday": -1, "today": 0, "tomorrow": 1}[g("dx").lower()]
+        point = _relative_point(g("dx").lower(), "day", ref) if offset else ref
+        return Atom(s, e, "day", point, point, future=offset > 0, past=offset < 0, relative=True)
+    return None
+
+
+def _fiscal_label(day: date, fys: int) -> int:
+    """The fiscal year (named as in `_fiscal_year`) that contains `day`."""
+    if fys == 1:
+        return day.year
+    return day.year + 1 if day.month >= fys else day.year
+
+
+def _relative_named(s, e, unit, step, ref, hemisphere) -> Atom | None:
+    if unit.endswith("day"):  # next Monday, last Friday
+        weekday = list(calendar.day_name).index(unit.capitalize())
+        delta = (weekday - ref.weekday()) % 7
+        if step > 0:
+            point = ref + timedelta(days=delta or 7)
+        elif step < 0:
+            point = ref - timedelta(days=(ref.weekday() - weekday) % 7 or 7)
+        else:
+            point = ref + timedelta(days=delta)
+        return Atom(s, e, "day", point, point, future=point > ref, past=point < ref, relative=True)
+    # seasons: "this summer" is the one of the reference year, "next/last" step from it
+    base = ref.year
+    if _season(unit, base - 1, hemisphere)[1] >= ref:  # still in the winter that began last year
+        base -= 1
+    first, last = _season(unit, base + step, hemisphere)
+    return Atom(s, e, "season", first, last, future=first > ref, past=last < ref, relative=True)

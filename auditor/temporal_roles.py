@@ -1,32 +1,43 @@
 """What a temporal expression says about the content: its role (DESIGN.md §3.2).
 
 The cue lexicon below is ours. A role is decided from the words just before the expression (in
-the same sentence, after any earlier expression), then from the words just after it, then from the
-sentence's tense, in this order:
+the same sentence, after any earlier expression), then the words just after it, then the
+sentence's tense; the first rule that applies wins:
 
-1. `other`    copyright lines (©, "Copyright", "(c)") and citations ("(Rivera, 2019)", "et al., 2019")
-2. strong cues, the nearest one wins:
-   `as_of`     as of, as at, updated, last updated, reviewed, revised, current as of, accurate as of,
-               correct as of, verified, information current
-   `effective` effective, takes/took effect, in effect, in force, applies/apply from, starting,
-               starts, beginning, begins, commencing, as from, on and after, on or after, valid from,
-               opens, open, becomes, new from
-   `expires`   until, till, through, thru, expires/expired?, expiry, expiration, deadline, no later
-               than, valid through/until, ends, ending, end date, closes, will close, close on,
-               last day, due, cut-off, up to and including
-3. weak cues, the nearest one wins, unless the sentence speaks of the future (then `planned`):
-   `effective` from, since, after;  `expires` by, before (only with an obligation: must, submit,
-   apply, pay, received ...)
-4. `period`   for, during, throughout, covering, in fiscal ...; or a noun that a date qualifies
-              right after it ("2023 rates", "the 2024 water quality report", "FY2025 budget")
-5. `planned`  the sentence is in the future tense (will, scheduled, planned, upcoming, expected to,
-              is set to, going to, coming), or the expression is a future relative one (next month,
-              in two weeks, tomorrow), or it lies after the document date without a past tense
-6. `event`    anything else: a dated happening
+1. `other`     a copyright line (©, "Copyright", "(c)"), a citation ("(Rivera, 2019)", "et al.,
+               2019"), or a recurring date ("June 1 through September 30 each year", "annually").
+2. a strong cue, the nearest one, at most 40 characters of the same clause before the expression:
+   `as_of`     as of, as at, (last) updated, (last) reviewed, revised, current/accurate/correct as
+               of, verified, information current;
+   `effective` effective, takes/took effect, in effect, in force, comes into force, applies from,
+               starting, starts, beginning, begins, commencing, as from, on and/or after, valid
+               (from), opens/open, becomes, new from;
+   `expires`   until, till, expires, expiry, expiration, deadline, no later than, valid
+               through/until, ends, end of support/life/service, ending, end date, closes, close on,
+               last day, is/payment due, due on/by, cut-off, up to and including, not after; and
+               through/thru right before the expression (else it may mean "by way of").
+3. right after the expression: "update"/"revision" -> `as_of` ("MARCH 2024 UPDATE");
+   "or later", "onwards" -> `effective`.
+4. a weak cue right before the expression: from/since/after -> `effective`, by/before ->
+   `expires` (only when the sentence states an obligation: must, submit, apply, pay ...). A weak
+   cue yields in a past-tense sentence ("ran from ... to ..." is an event), when a future-tense
+   sentence gives a bounded range ("will be closed from Dec 24 to Jan 2" is planned), and "by" in
+   a future sentence without an obligation ("we will finish by 2030" is planned).
+5. `planned`   "scheduled/planned/slated/expected for|in|on" right before it.
+6. `period`    for, during, throughout, covering, over ... right before it, or a noun the date
+               qualifies right after it ("2023 rates", "2024 property assessment", "FY2025
+               budget"), or for a year/quarter/half/season a noun right before it ("Annual Report 2023").
+7. `planned`   a future-tense sentence (will, shall, scheduled, planned, upcoming, expected (to),
+               is set to, going to, intends/aims to, proposed ...) or a relative expression that
+               points forward (next month, in two weeks, tomorrow) — but never one that points
+               back ("two weeks ago", "last year"); or a date after the reference (document) date
+               in a sentence with no past tense.
+8. `event`     anything else: a dated happening.
 """
 
 from __future__ import annotations
 
+import functools
 import re
 from datetime import date
 
@@ -42,25 +53,30 @@ _STRONG = [
                   r"starting(?:\s+(?:on|from|in))?|starts(?:\s+on)?|beginning(?:\s+(?:on|in))?|"
                   r"begins(?:\s+on)?|commencing(?:\s+on)?|as\s+from|on\s+(?:and|or)\s+after|"
                   r"from\s+and\s+after|valid\s+from|valid|opens?(?:\s+(?:on|from))?|becomes?|new\s+from"),
-    ("expires", r"until|till|through|thru|expires?(?:\s+on)?|expiry(?:\s+date)?|expiration(?:\s+date)?|"
-                r"deadline(?:\s+is)?|no\s+later\s+than|valid\s+(?:through|until|till|to)|ends?(?:\s+on)?|"
-                r"ending(?:\s+on)?|end\s+date|closes(?:\s+on)?|close\s+on|will\s+close(?:\s+on)?|"
-                r"last\s+day(?:\s+(?:to\s+\w+|for\s+\w+))?(?:\s+is)?|due(?:\s+(?:on|by))?|cut-?off(?:\s+date)?|"
-                r"up\s+to\s+and\s+including|not\s+after|while\s+funds\s+last,?\s+until"),
+    ("expires", r"until|till|expires?(?:\s+on)?|expiry(?:\s+date)?|expiration(?:\s+date)?|"
+                r"deadline(?:\s+is)?|no\s+later\s+than|valid\s+(?:through|thru|until|till|to)|ends(?:\s+on)?|"
+                r"end\s+of\s+(?:support|life|service|sale)(?:\s+on)?|ending(?:\s+on)?|end\s+date|closes(?:\s+on)?|"
+                r"close\s+on|will\s+close(?:\s+on)?|last\s+day(?:\s+(?:to\s+\w+|for\s+\w+))?(?:\s+is)?|"
+                r"(?:is|are|payment|bills?|amount)\s+due(?:\s+(?:on|by))?|due\s+(?:on|by|date)|"
+                r"cut-?off(?:\s+date)?|up\s+to\s+and\s+including|not\s+after"),
 ]
 _WEAK = [
     ("effective", r"from|since|after"),
     ("expires", r"by|before"),
 ]
+# "through" is also "by way of" ("pay through the portal on ..."): a cue only right before the date
+_ADJACENT = [("expires", r"through|thru")]
 _PERIOD_LEFT = r"for|during|throughout|covering|covers|cover|over|for\s+the|in\s+the\s+(?:calendar|fiscal)\s+year"
 
 
 def _compile(pairs):
-    return [(role, re.compile(rf"(?i:\b(?:{body})\b[\s:,-]*)")) for role, body in pairs]
+    """One alternation with a group per role; its last match in a window is the nearest cue."""
+    return re.compile("|".join(rf"(?P<{role}>\b(?:{body})\b[\s:,-]*)" for role, body in pairs), re.I)
 
 
 _STRONG_CUES = _compile(_STRONG)
 _WEAK_CUES = _compile(_WEAK)
+_ADJACENT_CUES = _compile(_ADJACENT)
 _PERIOD_CUE = re.compile(rf"(?i:\b(?:{_PERIOD_LEFT})\s+(?:the\s+)?(?:(?:calendar|fiscal|school|tax)\s+year\s+)?)$")
 _PLANNED_LEFT = re.compile(r"(?i:\b(?:scheduled|planned|slated|set|expected|tentatively)\s+(?:for|in|on|to\s+\w+\s+(?:in|on))\s+(?:the\s+)?$)")
 _PERIOD_NOUN = (r"(?:water\s+)?rates?|rate\s+schedules?|tariffs?|fees?|charges?|prices?|pricing|"
@@ -69,13 +85,13 @@ _PERIOD_NOUN = (r"(?:water\s+)?rates?|rate\s+schedules?|tariffs?|fees?|charges?|
                 r"summary|holidays?|schedules?|plans?|allowances?|quotas?|tiers?|cycle|rebates?|campaigns?|"
                 r"restrictions|projects|statistics|targets|goals|capital")
 # the noun may follow directly ("2023 rates") or after one word ("2024 property assessment")
-_PERIOD_RIGHT = re.compile(rf"(?i:^\s*(?:-|–)?\s*(?:(?!(?:to|for|and|or|the|a|an|of|in|on|at|by|is|are|was|will)\b)"
+_PERIOD_RIGHT = re.compile(rf"(?i:\s*(?:-|–)?\s*(?:(?!(?:to|for|and|or|the|a|an|of|in|on|at|by|is|are|was|will)\b)"
                            rf"[A-Za-z]+\s+)?(?:{_PERIOD_NOUN})\b)")
 _PERIOD_LEFT_NOUN = re.compile(r"(?i:\b(?:report|statistics|results|targets|budget|rates|schedule|edition|"
                                r"plan|review|summary|figures)\s*:?\s*$)")
-_AS_OF_RIGHT = re.compile(r"(?i:^\s*(?:update|revision)\b)")
-_EFFECTIVE_RIGHT = re.compile(r"(?i:^\s*(?:,\s*)?(?:(?:or|and)\s+(?:later|after|thereafter)|onwards?)\b)")
-_RECURRING = re.compile(r"(?i:^\s*(?:,\s*)?(?:each|every)\s+(?:year|month|week|season)|^\s*(?:,\s*)?(?:annually|yearly)\b)")
+_AS_OF_RIGHT = re.compile(r"(?i:\s*(?:update|revision)\b)")
+_EFFECTIVE_RIGHT = re.compile(r"(?i:\s*(?:,\s*)?(?:(?:or|and)\s+(?:later|after|thereafter)|onwards?)\b)")
+_RECURRING = re.compile(r"(?i:\s*(?:,\s*)?(?:(?:each|every)\s+(?:year|month|week|season)|annually|yearly)\b)")
 _OBLIGATION = re.compile(r"(?i:\b(?:must|need\s+to|needs\s+to|have\s+to|has\s+to|required|requires|submit|"
                          r"submitted|apply|applications?|pay|paid|payment|received|return|returned|"
                          r"register|enrol|enroll|sign\s+up|send|sent|complete|completed\s+by|"
@@ -93,40 +109,45 @@ _STRONG_REACH = 40  # characters a strong cue may stand before its expression ("
 _WINDOW = 80
 
 
-def _nearest(cues, left: str, reach: int):
-    """The role of the cue whose match ends closest to the end of `left` (ties: the longer match),
-    if no more than `reach` characters of the same clause stand between it and the expression."""
-    best = None
-    for role, pattern in cues:
-        for m in pattern.finditer(left):
-            key = (m.end(), m.end() - m.start())
-            if best is None or key > best[0]:
-                best = (key, role)
-    if best is None:
+_CLAUSE_BREAK = re.compile(r"[.;!?]|\b(?:then|but|while|and|or)\b")
+
+
+def _nearest(cues: re.Pattern, left: str, reach: int) -> str | None:
+    """The role of the cue nearest the end of `left`, if no more than `reach` characters of the
+    same clause stand between it and the expression."""
+    last = None
+    for last in cues.finditer(left, max(0, len(left) - reach - 30)):
+        pass
+    if last is None:
         return None
-    (end, _), role = best
-    between = left[end:]
-    if len(between) > reach or re.search(r"[.;!?]|\b(?:then|but|while|and|or)\b", between):
+    between = left[last.end():]
+    if len(between) > reach or _CLAUSE_BREAK.search(between):
         return None
-    return role
+    return last.lastgroup
+
+
+@functools.lru_cache(maxsize=1024)
+def _tense(sentence: str) -> tuple[bool, bool]:
+    """(speaks of the future, speaks of the past), computed once per sentence."""
+    return bool(_FUTURE.search(sentence)), bool(_PAST.search(sentence))
 
 
 def role_for(left: str, right: str, sentence: str, *, start: date, reference_date: date | None,
              granularity: str = "day", future_relative: bool = False, past_relative: bool = False,
              bounded: bool = False) -> str:
     """The role of an expression, given the sentence text to its `left` and `right` (see module doc)."""
-    left = left[-_WINDOW:]
-    if _OTHER_LEFT.search(left) or _RECURRING.search(right):
+    left, right = left[-_WINDOW:], right[:_WINDOW]
+    if _OTHER_LEFT.search(left) or _RECURRING.match(right):
         return "other"
-    strong = _nearest(_STRONG_CUES, left, _STRONG_REACH)
+    strong = _nearest(_STRONG_CUES, left, _STRONG_REACH) or _nearest(_ADJACENT_CUES, left, 5)
     if strong:
         return strong
-    if _AS_OF_RIGHT.search(right):
+    if _AS_OF_RIGHT.match(right):
         return "as_of"
-    if _EFFECTIVE_RIGHT.search(right):
+    if _EFFECTIVE_RIGHT.match(right):
         return "effective"
-    future = (bool(_FUTURE.search(sentence)) or future_relative) and not past_relative
-    past = bool(_PAST.search(sentence))
+    future, past = _tense(sentence)
+    future = (future or future_relative) and not past_relative
     weak = _nearest(_WEAK_CUES, left, 5)
     if weak == "expires" and not _OBLIGATION.search(sentence):
         weak = None
@@ -140,7 +161,7 @@ def role_for(left: str, right: str, sentence: str, *, start: date, reference_dat
         return weak
     if _PLANNED_LEFT.search(left):
         return "planned"
-    if _PERIOD_CUE.search(left) or _PERIOD_RIGHT.search(right):
+    if _PERIOD_CUE.search(left) or _PERIOD_RIGHT.match(right):
         return "period"
     if granularity in ("year", "quarter", "half", "season") and _PERIOD_LEFT_NOUN.search(left):
         return "period"  # "Annual Report 2023", "Outage statistics 2024-Q3"

@@ -7,7 +7,7 @@ from unittest import mock
 
 import pytest
 
-from auditor import temporal
+from auditor import temporal, temporal_patterns
 from auditor.temporal import extract
 
 REF = date(2024, 11, 1)
@@ -117,14 +117,14 @@ def test_and_joins_a_range_only_after_between():
 
 def test_dateparser_sees_only_spans():
     calls = []
-    real = temporal._dateparser_span.__wrapped__
+    real = temporal_patterns.dateparser_span.__wrapped__
 
     def spy(span, reference):
         calls.append(span)
         return real(span, reference)
 
-    temporal._dateparser_span.cache_clear()
-    with mock.patch.object(temporal, "_dateparser_span", spy):
+    temporal_patterns.dateparser_span.cache_clear()
+    with mock.patch.object(temporal_patterns, "dateparser_span", spy):
         text = "We may call you. The sun is out. Your meter was read 3 days ago; a crew comes in two weeks."
         found = extract(text, REF)
     assert calls == ["3 days ago", "in 2 weeks"]
@@ -133,11 +133,11 @@ def test_dateparser_sees_only_spans():
 
 
 def test_dateparser_span_cache_is_keyed_by_reference():
-    temporal._dateparser_span.cache_clear()
-    assert temporal._dateparser_span("3 days ago", date(2024, 3, 1)) == date(2024, 2, 27)  # leap year
-    assert temporal._dateparser_span("3 days ago", date(2023, 3, 1)) == date(2023, 2, 26)
-    assert temporal._dateparser_span("3 days ago", date(2024, 3, 1)) == date(2024, 2, 27)
-    assert temporal._dateparser_span.cache_info().hits == 1
+    temporal_patterns.dateparser_span.cache_clear()
+    assert temporal_patterns.dateparser_span("3 days ago", date(2024, 3, 1)) == date(2024, 2, 27)  # leap year
+    assert temporal_patterns.dateparser_span("3 days ago", date(2023, 3, 1)) == date(2023, 2, 26)
+    assert temporal_patterns.dateparser_span("3 days ago", date(2024, 3, 1)) == date(2024, 2, 27)
+    assert temporal_patterns.dateparser_span.cache_info().hits == 1
 
 
 def test_empty_and_dateless_text():
