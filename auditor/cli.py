@@ -95,6 +95,8 @@ def scan(config_path, as_of, out, wait, jobs, quiet):
 
     config = _config(config_path, as_of=as_of, out=out)
     outcome = run_scan(config, wait=wait, jobs=jobs, progress=_progress(quiet))
+    for line in outcome.question_lines:
+        click.echo(line, err=True)
     click.echo(f"ingest: {outcome.ingest_line}")
     _finish(outcome.run, outcome.out_dir, summary_lines)
 
@@ -138,13 +140,15 @@ def ingest(paths, config_path, db, jobs, quiet):
 @click.option("--out", type=click.Path(file_okay=False), help="Report folder (default: reports/<as-of>/).")
 def audit(question_files, config_path, db, as_of, horizon, out):
     """Audit the stored corpus against a question set and write the report."""
-    from .scan import audit_and_report, load_question_files, summary_lines
+    from .scan import audit_and_report, load_question_files, question_lines, summary_lines
     from .store import Store
 
     config = _config(config_path, db=db, as_of=as_of, horizon=horizon, out=out)
-    questions = load_question_files(config, [Path(p) for p in question_files] or None)
+    sets = load_question_files(config, [Path(p) for p in question_files] or None)
+    for line in question_lines(sets):
+        click.echo(line, err=True)
     with Store(config.database) as store:
-        run, out_dir = audit_and_report(store, config, questions, as_of=config.audit_date())
+        run, out_dir = audit_and_report(store, config, sets, as_of=config.audit_date())
     _finish(run, out_dir, summary_lines)
 
 

@@ -22,6 +22,7 @@ class ScanOutcome:
     out_dir: Path
     ingest_line: str
     gate: dict | None
+    question_lines: list[str]
 
 
 def default_out_dir(config: Config, as_of: date) -> Path:
@@ -29,26 +30,45 @@ def default_out_dir(config: Config, as_of: date) -> Path:
     return config.report.out or Path("reports") / as_of.isoformat()
 
 
-def load_question_files(config: Config, paths: list[Path] | None = None) -> list[Question]:
+@dataclass
+class QuestionSet:
+    path: Path
+    questions: list[Question]
+    log_summary: object | None  # querylog.QueryLogSummary when the file was a query log
+
+
+def load_question_files(config: Config, paths: list[Path] | None = None) -> list[QuestionSet]:
     """Every configured question file, in order; ids must stay unique across files."""
-    from .questions import load_questions
+    from .questions import read_question_file
 
     files = list(paths or config.questions)
     if not files:
         where = repr(str(config.source)) if config.source else "the command line"
         raise InputError(f"{where}: no question file given (set `questions` in the config or pass --questions)")
-    questions: list[Question] = []
+    sets: list[QuestionSet] = []
     seen: dict[str, Path] = {}
     for path in files:
-        for question in load_questions(path):
+        questions, log_summary = read_question_file(path)
+        for question in questions:
             if question.id in seen:
-                raise InputError(f"{str(path)!r}: question id {question.id!r} is also used in {str(seen[question.id])!r}")
+                raise InputError(f"{str(path)!r}: question id {question.id!r} is also used in "
+                                 f"{str(seen[question.id])!r}; give the files an `id` column with distinct ids")
             seen[question.id] = path
-            questions.append(question)
-    return questions
+        sets.append(QuestionSet(Path(path), questions, log_summary))
+    return sets
 
 
-def audit_and_report(store: Store, config: Config, questions: list[Question], *, as_of: date,
+def store_question_sets(store: Store, sets: list[QuestionSet]) -> list[Question]:
+    """Keep each set in the store (redacted already: query logs are cleaned on import) and return
+    all questions in order."""
+    from .questions import store_questions
+
+    for qset in sets:
+        store_questions(store, qset.questions, qset.path.name)
+    return [q for qset in sets for q in qset.questions]
+
+
+def audit_and_report(store: Store, config: Config, sets: list[QuestionSet], *, as_of: date,
                      horizon_days: int | None = None, out_dir: Path | None = None,
                      gate: bool = True) -> tuple[dict, Path]:
     """Audit, attach the diff against the previous run and the gate outcome, write the report."""
@@ -57,6 +77,7 @@ def audit_and_report(store: Store, config: Config, questions: list[Question], *,
     from .report import write_report
     from .runs import apply_retention, diff_runs, load_run, previous_run, record_gate, update_latest
 
+    questions = store_question_sets(store, sets)
     run = run_audit(store, config, questions, as_of=as_of, horizon_days=horizon_days)
     run_id = run["run"]["id"]
     base_id = previous_run(store, run_id)
@@ -80,12 +101,18 @@ def scan(config: Config, *, as_of: date | None = None, out_dir: Path | None = No
     from .lock import ScanLock
 
     as_of = as_of or config.audit_date()
-    questions = load_question_files(config)  # fail on a bad question file before any work
+    sets = load_question_files(config)  # fail on a bad question file before any work
     with ScanLock(config.database, wait=wait):
         with Store(config.database) as store:
             summary = ingest_corpus(store, config, jobs=jobs, progress=progress)
-            run, out_dir = audit_and_report(store, config, questions, as_of=as_of, out_dir=out_dir)
-    return ScanOutcome(run=run, out_dir=out_dir, ingest_line=summary.line(), gate=run.get("gate"))
+            run, out_dir = audit_and_report(store, config, sets, as_of=as_of, out_dir=out_dir)
+    return ScanOutcome(run=run, out_dir=out_dir, ingest_line=summary.line(), gate=run.get("gate"),
+                       question_lines=question_lines(sets))
+
+
+def question_lines(sets: list[QuestionSet]) -> list[str]:
+    """What a query-log import merged and redacted, one line per log."""
+    return [f"{qset.path.name}: {qset.log_summary.line()}" for qset in sets if qset.log_summary is not None]
 
 
 def summary_lines(run: dict) -> list[str]:

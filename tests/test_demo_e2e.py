@@ -117,3 +117,25 @@ def test_cli_scan_prints_summary_and_report_path(demo_copy):
     assert any("weighted fallback exposure" in line for line in lines)
     report = [line for line in lines if line.startswith("report: ")]
     assert report and report[0].endswith("index.html")
+
+
+def test_question_set_is_kept_in_the_store(demo_scans):
+    config, first, _ = demo_scans
+    with Store(config.database) as store:
+        rows = store.query("SELECT qid FROM questions WHERE set_name = 'questions.csv' ORDER BY position")
+    assert [r["qid"] for r in rows] == [q["id"] for q in first.run["questions"]]
+
+
+def test_audit_of_a_query_log_reports_merges_and_redactions(demo_scans, tmp_path):
+    config, _, _ = demo_scans
+    result = CliRunner().invoke(cli, ["audit", "-c", str(config.source), "--questions",
+                                      str(DEMO / "querylog.csv"), "--out", str(tmp_path / "log-report")])
+    assert result.exit_code in (0, 3), result.output
+    summary = [line for line in result.stderr.splitlines() if line.startswith("querylog.csv: ")]
+    assert summary and "merged" in summary[0] and "redacted" in summary[0]
+    data = json.loads((tmp_path / "log-report" / "results.json").read_text(encoding="utf-8"))
+    # Weights are traffic counts: they add up to the log's total count (merging keeps every hit).
+    with open(DEMO / "querylog.csv", newline="", encoding="utf-8") as f:
+        total = sum(int(row["count"]) for row in csv.DictReader(f) if row["text"].strip())
+    assert data["summary"]["weight"] == pytest.approx(total)
+    assert "@example" not in json.dumps(data)
