@@ -9,7 +9,7 @@ from rank_bm25 import BM25Okapi
 
 from auditor.answer_types import ANSWER_TYPES, expected_answer_type, has_answer_type
 from auditor.judge import (ANSWER_TYPE_PENALTY, SIGNAL_WEIGHTS, Judged, bm25_share, combine, judge,
-                           passage_support, split_sentences, term_coverage, window_coverage)
+                           passage_support, phrase_coverage, split_sentences, term_coverage, window_coverage)
 from auditor.tokenize import Tokenizer
 
 TOKENIZE = Tokenizer().tokenize
@@ -71,9 +71,22 @@ def test_window_coverage_needs_the_terms_together():
     assert window_coverage([{"leak"}], idf, 3) == (pytest.approx(2 / 3), 0)
 
 
+def test_phrase_coverage_counts_adjacent_pairs_in_either_order():
+    idf = {"typing": 1.0, "override": 3.0, "decorator": 2.0}
+    question = ["typing", "override", "decorator"]  # pairs weigh 4 and 5
+    assert phrase_coverage(["override", "decorator", "typing"], question, idf) == pytest.approx(5 / 9)
+    assert phrase_coverage(["override", "typing", "decorator"], question, idf) == pytest.approx(4 / 9)
+    assert phrase_coverage(["typing", "x", "override", "y", "decorator"], question, idf) == 0.0
+    assert phrase_coverage(["typing", "override", "decorator"], question, idf) == 1.0
+    # One term: no pairs, term coverage stands in.
+    assert phrase_coverage(["override"], ["override"], {"override": 3.0}) == 1.0
+    assert phrase_coverage(["typing"], ["override"], {"override": 3.0}) == 0.0
+
+
 def test_combine_is_a_weighted_mean():
     assert sum(SIGNAL_WEIGHTS.values()) == pytest.approx(1.0)
-    assert combine({"bm25": 1, "coverage": 1, "window": 1}) == pytest.approx(1.0)
+    assert combine({name: 1.0 for name in SIGNAL_WEIGHTS}) == pytest.approx(1.0)
+    assert combine({name: 0.0 for name in SIGNAL_WEIGHTS}) == 0.0
     assert combine({"a": 0.2, "b": 0.8}, {"a": 1, "b": 3}) == pytest.approx(0.65)
     with pytest.raises(ValueError):
         combine({"a": 1}, {"a": 0})
@@ -192,7 +205,7 @@ def test_stale_only_support_is_refreshed_or_retired():
 
 
 def test_missing_answer_type_is_flagged_on_the_strongest_passage():
-    support = 0.5 * ANSWER_TYPE_PENALTY  # 0.40: below T only because of the downgrade
+    support = 0.48 * ANSWER_TYPE_PENALTY  # below T only because of the downgrade
     v = judge([Judged(support, True, answer_type_found=False)], threshold=T, weak_margin=M)
     assert v.verdict == "gap" and v.reasons == [] and v.flags == ["no_answer_type"]
     covered = judge([Judged(0.3, True), Judged(0.6, True, answer_type_found=False)], threshold=T, weak_margin=M)
