@@ -37,20 +37,25 @@ def statement(expression, start, end, granularity, role, text):
 
 def evidence(document, section, passage, text, *, score, support, supporting, as_of,
              source="statement", expires=None, fresh=True, reasons=(), owner=None, terms=None,
-             statements=(), rank=1, page=None):
-    return {"document": document, "page": page, "section": section, "passage": passage,
-            "score": score, "support": support, "supporting": supporting, "as_of": as_of,
-            "as_of_source": source, "expires": expires, "fresh": fresh, "reasons": list(reasons),
-            "text": text, "owner": owner, "terms": dict(terms or {}), "statements": list(statements),
-            "rank": rank}
+             statements=(), rank=1, page=None, answer_type=None, answer_type_found=True):
+    # The keys and their order follow what auditor/audit.py writes for one evidence item.
+    return {"rank": rank, "document": document, "page": page, "section": section,
+            "passage": passage, "owner": owner, "score": score, "support": support,
+            "signals": {"bm25": round(support * 0.6, 4), "coverage": round(min(1.0, support * 1.2), 4),
+                        "window": round(support, 4)},
+            "answer_type": answer_type, "answer_type_found": answer_type_found,
+            "supporting": supporting, "as_of": as_of, "as_of_source": source, "expires": expires,
+            "fresh": fresh, "reasons": list(reasons), "terms": dict(terms or {}),
+            "statements": list(statements), "text": text}
 
 
 def question(qid, text, *, owner, topic, weight, verdict, reasons=(), support, missing=(),
              evidence_items=(), flags=(), action=None, horizon_days=HORIZON):
+    terms = sorted({t for e in evidence_items for t in e["terms"]} | set(missing))
     return {"id": qid, "question": text, "owner": owner, "topic": topic, "weight": weight,
-            "verdict": verdict, "reasons": list(reasons), "support": support,
-            "missing_terms": list(missing), "evidence": list(evidence_items), "flags": list(flags),
-            "action": action, "horizon_days": horizon_days}
+            "verdict": verdict, "reasons": list(reasons), "flags": list(flags), "action": action,
+            "support": support, "horizon_days": horizon_days, "missing_terms": list(missing),
+            "terms": terms, "evidence": list(evidence_items)}
 
 
 def summarize(questions):
@@ -242,45 +247,67 @@ def sample_run() -> dict:
          "owner": HOSTILE_OWNER, "status": "active", "doc_date": "2026-05-31",
          "doc_date_source": "og:article:modified_time", "expires": None, "passages": 1,
          "as_of": "2026-05-31", "fresh": True, "reasons": []},
-        {"path": "quality/scan.pdf", "title": None, "kind": "pdf", "owner": "Water Quality",
+        {"path": "quality/scan.pdf", "title": None, "kind": None, "owner": None,
          "status": "failed", "doc_date": None, "doc_date_source": None, "expires": None,
-         "passages": 0, "as_of": None, "fresh": None, "reasons": ["encrypted PDF, no password given"]},
+         "passages": 0, "as_of": None, "fresh": None, "reasons": ["encrypted"]},
     ]
     ingest_errors = [
         {"document": "quality/scan.pdf", "error": "encrypted PDF, no password given"},
         {"document": "web/broken.html", "error": f"not valid UTF-8 near byte 1024 {HOSTILE_CLOSE}"},
     ]
     summary = summarize(qs)
-    history = [
+    history = [  # earlier done runs, oldest first (runs.history)
+        {"id": 4, "as_of": "2026-09-01",
+         "summary": {"questions": 11, "covered": 8, "stale": 1, "gap": 2, "weight": 560.0,
+                     "fallback_exposure": 0.22, "stale_exposure": 0.05}},
         {"id": 5, "as_of": "2026-10-01",
          "summary": {"questions": 12, "covered": 7, "stale": 2, "gap": 3, "weight": 590.0,
                      "fallback_exposure": 0.31, "stale_exposure": 0.08}},
         {"id": 6, "as_of": "2026-11-01",
-         "summary": {"questions": 13, "covered": 6, "stale": 3, "gap": 4, "weight": 602.0,
+         "summary": {"questions": 12, "covered": 6, "stale": 3, "gap": 3, "weight": 600.0,
                      "fallback_exposure": 0.29, "stale_exposure": 0.15}},
-        {"id": 7, "as_of": "2026-12-01", "summary": summary},
     ]
-    diff = {
-        "base": 6, "head": 7,
-        "new_gaps": [{"id": "q-012", "question": qs[11]["question"], "weight": 1.0}],
-        "resolved_gaps": [{"id": "q-007", "question": "How do I start water service?", "weight": 95.0}],
-        "newly_stale": [{"id": "q-001", "question": "Can I pay my bill by phone?", "weight": 88.0}],
+
+    def change(q, before, after):
+        return {"id": q["id"], "question": q["question"], "owner": q["owner"], "weight": q["weight"],
+                "before": before, "after": after, "reasons": q["reasons"]}
+
+    by_id = {q["id"]: q for q in qs}
+    lists = {
+        "new_gaps": [change(by_id["q-012"], "stale", "gap")],
+        "newly_stale": [change(by_id["q-001"], "covered", "stale")],
+        "resolved_gaps": [change(by_id["q-007"], "gap", "covered")],
         "refreshed": [],
-        "added": [{"id": "q-013", "question": "Can I pay by phone in Spanish?", "weight": 9.0}],
-        "removed": [],
+        "added": [change(by_id["q-013"], None, "stale")],
+        "removed": [{"id": "q-099", "question": "Where do I buy a rain barrel?", "owner": "Conservation Programs",
+                     "weight": 4.0, "before": "covered", "after": None, "reasons": []}],
     }
+    # The shape of runs.diff_runs.
+    diff = {"base_run": 6, "base_as_of": "2026-11-01", "head_run": 7, "head_as_of": "2026-12-01", **lists,
+            "counts": {k: len(v) for k, v in lists.items()},
+            "weights": {k: sum(i["weight"] for i in v) for k, v in lists.items()},
+            "exposure": {"fallback": [0.29, summary["fallback_exposure"]],
+                         "stale": [0.15, summary["stale_exposure"]]},
+            "summary": "1 new gap (weight 1), 1 newly stale (weight 88), 1 resolved gap (weight 95), "
+                       "1 added (weight 9), 1 removed (weight 4); fallback exposure 0.29 -> 0.28"}
+    # The shape of gate.evaluate_gate.
     gate = {"passed": False,
-            "checks": [{"limit": "max_fallback_exposure", "value": 0.25,
-                        "figure": summary["fallback_exposure"],
-                        "passed": summary["fallback_exposure"] <= 0.25},
-                       {"limit": "max_new_gaps", "value": 0, "figure": 1, "passed": False}]}
-    briefs = [
-        {"title": "Automatic payments", "terms": ["autopay", "automat", "payment"], "weight": 140.0,
-         "owner": "Billing", "questions": ["q-002"]},
-        {"title": "Payment plans", "terms": ["plan", "instal"], "weight": 26.0, "owner": "unassigned",
-         "questions": ["q-010", "q-012"]},
+            "checks": [{"limit": "max_fallback_exposure", "figure": "fallback_exposure", "max": 0.25,
+                        "value": summary["fallback_exposure"], "passed": False},
+                       {"limit": "max_stale_share", "figure": "stale_share", "max": 0.5,
+                        "value": 5 / 13, "passed": True},
+                       {"limit": "max_new_gaps", "figure": "new_gaps", "max": 0, "value": 1,
+                        "passed": False}],
+            "message": "gate failed: fallback_exposure 0.28 > max 0.25, new_gaps 1 > max 0"}
+    briefs = [  # the shape of briefs.content_briefs
+        {"title": "autopay (payments)", "terms": ["autopay"], "weight": 140.0, "owner": "Billing",
+         "questions": ["q-002"], "examples": ["How do I set up autopay?"], "topic": "payments"},
+        {"title": "plan, instal", "terms": ["plan", "instal"], "weight": 26.0, "owner": "unassigned",
+         "questions": ["q-010", "q-012"], "examples": [qs[9]["question"], qs[11]["question"]],
+         "topic": None},
         {"title": f"Brief {HOSTILE_SCRIPT}", "terms": [HOSTILE_IMG], "weight": 1.0,
-         "owner": HOSTILE_OWNER, "questions": ["q-011"]},
+         "owner": HOSTILE_OWNER, "questions": ["q-011"], "examples": [qs[10]["question"]],
+         "topic": HOSTILE_TEMPLATE},
     ]
     return {
         "format": 1,
@@ -354,7 +381,6 @@ def large_run(n: int = 10_000, passages: int = 4_000, seed: int = 7) -> dict:
     run = sample_run()
     run["questions"] = qs
     run["summary"] = summarize(qs)
-    run["history"][-1]["summary"] = run["summary"]
     run["run"]["corpus"] = {"documents": passages // 8, "passages": passages, "failed": 0,
                             "freshness": 0.26, "mean_age_days": 520.0}
     run["diff"] = None

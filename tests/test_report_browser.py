@@ -135,12 +135,13 @@ def test_expanding_a_row_shows_its_evidence(sample):
     assert "1372 days before the audit date" in why and "beyond the 365-day horizon" in why
     assert p.is_visible("#q0 .why .act")
     # Closing hides the evidence; a filter that hides the row hides its evidence too.
+    # (The toggle event is queued as a task, so wait for the state rather than read it at once.)
     p.click("#q0 summary")
-    assert evidence.is_hidden()
+    evidence.wait_for(state="hidden", timeout=2000)
     p.click("#q0 summary")
-    assert evidence.is_visible()
+    evidence.wait_for(state="visible", timeout=2000)
     p.select_option("#f-verdict", "gap")
-    assert evidence.is_hidden()
+    assert evidence.is_hidden()  # the change handler runs synchronously
     p.select_option("#f-verdict", "")
     assert evidence.is_visible()
 
@@ -150,6 +151,7 @@ def test_hostile_strings_show_literally_and_never_run(sample):
     p = page.page
     for i in (10, 11):  # q-011 and q-012 carry the hostile strings
         p.click(f"#q{i} summary")
+    p.locator("#q10 + tr.ev-row").wait_for(timeout=2000)
     assert p.evaluate("typeof window.__pwned") == "undefined"
     assert p.locator("img").count() == 0
     assert p.locator("a[href^='javascript:' i]").count() == 0
@@ -169,7 +171,10 @@ def test_hostile_strings_show_literally_and_never_run(sample):
 def test_screenshot(sample):
     page, _ = sample
     p = page.page
-    p.click("#q0 summary") if not p.is_visible("#q0 + tr.ev-row") else None
+    p.reload()  # the table as it opens, then the first question expanded
+    p.wait_for_selector("html[data-ready]", state="attached")
+    p.click("#q0 summary")
+    p.locator("#q0 + tr.ev-row").wait_for(timeout=2000)
     ARTIFACTS.mkdir(exist_ok=True)
     path = ARTIFACTS / "report.png"
     p.screenshot(path=str(path), full_page=True)

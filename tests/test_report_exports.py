@@ -10,8 +10,8 @@ import pytest
 
 import report_samples as samples
 from auditor.report import write_report
-from auditor.report.exports import (CSV_COLUMNS, FORMAT1_KEYS, owner_slugs, question_owner,
-                                    results_json, slugify)
+from auditor.report.exports import (CSV_COLUMNS, FORMAT1_KEYS, all_owners, owner_slugs,
+                                    question_owner, results_json, slugify)
 
 
 @pytest.fixture(scope="module")
@@ -94,8 +94,7 @@ def test_hostile_text_round_trips_through_csv(out):
 
 def test_owner_files_hold_only_that_owners_questions(out):
     run = samples.sample_run()
-    slugs = owner_slugs({question_owner(q) for q in run["questions"]}
-                        | {d["owner"] for d in run["documents"]})
+    slugs = owner_slugs(all_owners(run))
     seen = []
     for owner, slug in slugs.items():
         rows = read_csv(out / "owners" / f"{slug}.csv")
@@ -143,3 +142,4 @@ def test_question_owner_rule():
     assert question_owner(q) == "A"  # else the top evidence item
     assert question_owner({"owner": "C", "evidence": q["evidence"]}) == "C"
     assert question_owner({"evidence": []}) == "unassigned"
+    assert question_owner({"owner": "  ", "evidence": q["evidence"]}) == "A"  # blank is no owner

@@ -194,12 +194,14 @@ def test_charts_match_the_run(report):
     assert [s.title.get_text() for s in segs] == ["Billing: 2 stale", "Billing: 1 gap"]
     assert float(segs[0]["width"]) == pytest.approx(2 * float(segs[1]["width"]), abs=0.2)
     trend_points = svgs[2].find_all("circle")
-    assert len(trend_points) == 3 * len(results["history"])
+    assert len(trend_points) == 3 * (len(results["history"]) + 1)  # earlier runs and this one
+    labels = [t.get_text() for t in svgs[2].select("text.axis") if re.match(r"\d{4}-", t.get_text())]
+    assert labels == [h["as_of"] for h in results["history"]] + [results["run"]["as_of"]]
 
 
 def test_age_histogram_counts_and_horizon():
     svg = BeautifulSoup(str(age_histogram([0, 10, 200, 400, 800], 365, undated=2)), "lxml")
-    bars = svg.find_all("rect")
+    bars = [r for r in svg.find_all("rect") if r.title]  # (legend swatches have no title)
     assert sum(int(b.title.get_text().rsplit(": ", 1)[1]) for b in bars) == 5
     line = svg.select_one("line.horizon")
     # Bins of 365/6 days (at most 16 bins over 0..800): 14 bins, the horizon on the edge of the 7th.
@@ -230,19 +232,27 @@ def test_diff_and_gate_are_shown(report):
     _, soup, results = report
     gate = soup.select_one("section.gate")
     assert gate.select_one('[data-field="gate"]').get_text() == "failed"
+    assert gate.select_one(".gate-message").get_text() == results["gate"]["message"]
     rows = gate.select("tbody tr")
-    assert len(rows) == len(results["gate"]["checks"]) and all("failed" in r["class"] for r in rows)
-    for key, value in results["diff"].items():
-        if isinstance(value, list):
-            group = soup.select_one(f'[data-diff="{key}"]')
-            assert int(group.select_one(".count").get_text()) == len(value)
-            assert len(group.select("li")) == len(value)
+    assert [r.find_all("td")[-1].get_text() for r in rows] == ["failed", "passed", "failed"]
+    assert [("failed" in (r.get("class") or [])) for r in rows] == [False if c["passed"] else True
+                                                                    for c in results["gate"]["checks"]]
+    diff = results["diff"]
+    groups = [g["data-diff"] for g in soup.select("[data-diff]")]
+    assert groups == ["new_gaps", "newly_stale", "resolved_gaps", "refreshed", "added", "removed"]
+    for key in groups:
+        group = soup.select_one(f'[data-diff="{key}"]')
+        assert int(group.select_one(".count").get_text()) == len(diff[key]) == diff["counts"][key]
+        assert [li.select_one(".qid").get_text() for li in group.select("li")] == [i["id"] for i in diff[key]]
+    stale = soup.select_one('[data-diff="newly_stale"] li')
+    assert stale.select_one(".change").get_text() == "covered → stale"
+    assert soup.select_one("section[aria-labelledby=diff-h] .lead").get_text() == diff["summary"]
 
 
 def test_briefs_link_to_their_questions(report):
     _, soup, _ = report
     first = soup.select(".brief")[0]
-    assert first.h3.get_text() == "Automatic payments"  # highest weight first
+    assert first.h3.get_text() == "autopay (payments)"  # highest weight first
     link = first.select_one("a")
     assert link["href"] == "#q1" and soup.select_one("#q1 .qid").get_text() == "q-002"
 
@@ -255,6 +265,9 @@ def test_document_inventory(report):
     assert [li.contents[0].strip() for li in soup.select("#inv-expired li")] == ["conservation/toilet-rebate.html"]
     failed = [li.contents[0].strip().rstrip(":") for li in soup.select("#inv-failed li")]
     assert failed == ["quality/scan.pdf", "web/broken.html"]
+    scan = soup.select("#inv-failed li")[0]
+    assert [c.get_text() for c in scan.select(".chip")] == ["encrypted"]
+    assert scan.select_one(".err").get_text() == "encrypted PDF, no password given"
     counts = {d["data-count"]: int(d.data["value"]) for d in soup.select(".inv-counts [data-count]")}
     assert counts["documents"] == len(results["documents"])
     assert counts["removed"] == 1 and counts["failed"] == 2
@@ -291,8 +304,10 @@ def test_owner_page_holds_only_that_owner(report):
     assert {a["href"] for a in soup.select(".links a")} == {"../index.html", "field-operations.csv",
                                                             "../results.json"}
     index = BeautifulSoup((out / "index.html").read_text(encoding="utf-8"), "lxml")
-    hrefs = [a["href"] for a in index.select(".owners-nav a")]
-    assert "owners/field-operations.html" in hrefs and "owners/field-operations.csv" in hrefs
+    row = next(tr for tr in index.select("#owners tbody tr") if tr.td.get_text() == "Field Operations")
+    cells = [td.get_text() for td in row.find_all("td")]
+    assert cells[1:6] == ["2", "1", "1", "0", "12"]  # questions, covered, stale, gap, weight at risk
+    assert [a["href"] for a in row.select("a")] == ["owners/field-operations.html", "owners/field-operations.csv"]
 
 
 def test_page_evidence_is_short_and_highlighted(report):
@@ -300,9 +315,11 @@ def test_page_evidence_is_short_and_highlighted(report):
     data = page_data(soup)
     q1 = data["q"][0]
     assert q1["k"] == ["bill", "pay", "payment", "phone"]  # terms scored in its evidence
-    key, rank, score, support, ok, fresh, reasons, contrib, coded = q1["e"][0]
+    key, rank, score, support, ok, fresh, reasons, contrib, coded, signals, found = q1["e"][0]
     assert (key, rank, score, support, ok, fresh, reasons) == ("213", 1, 11.92, 0.71, 1, 0, ["too_old"])
     assert contrib == [2.7, 3.1, 0.0, 6.12]
+    assert q1["sk"] == ["bm25", "coverage", "window"]
+    assert signals == [round(x, 3) for x in (0.71 * 0.6, 0.71 * 1.2, 0.71)] and found == 1
     text, marked, end = data["p"][key]["txt"], [], 0
     for gap, length in zip(coded[::2], coded[1::2]):
         start = end + gap

@@ -56,7 +56,11 @@ def write_report(run: dict, out_dir: Path) -> Path:
                                     summary=summarize(own_q), owner=owner, links=links,
                                     highlighter=highlighter)
         write_atomic(out_dir / "owners" / f"{slug}.html", page)
-        owner_links.append((owner, slug, len(own_q)))
+        counts = summarize(own_q)
+        owner_links.append({"name": owner, "slug": slug, "questions": len(own_q),
+                            "covered": counts["covered"], "stale": counts["stale"], "gap": counts["gap"],
+                            "at_risk": sum(float(q.get("weight") or 0) for q in own_q
+                                           if q.get("verdict") in ("gap", "stale"))})
 
     links = {"files": [("results.json", "results.json"), ("gaps.csv", "gaps.csv")],
              "owners": owner_links}

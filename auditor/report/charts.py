@@ -138,6 +138,11 @@ def age_histogram(ages: list[int], horizon_days: int, undated: int = 0) -> Marku
     if undated:
         caption += f" · {undated} undated"
     body.append(f'<text x="{left}" y="{height - 8}" class="axis">{escape(caption)}</text>')
+    lx = width - right - 230
+    for cls, name in (("v-covered", "within horizon"), ("v-stale", "beyond horizon")):
+        body.append(f'<rect x="{lx}" y="{height - 18}" width="12" height="12" class="{cls}"/>'
+                    f'<text x="{lx + 17}" y="{height - 8}" class="axis">{name}</text>')
+        lx += 115
     return _svg(width, height, "Age of supporting evidence, histogram with the horizon marked", body)
 
 
@@ -148,12 +153,13 @@ TREND_SERIES = (
 )
 
 
-def trend(points: list[dict]) -> Markup:
+def trend(points: list[dict], width: int = 1160) -> Markup:
     """Line chart across runs: covered share of questions, stale and fallback exposure (0–100 %).
 
     `points` are {"label", "covered_share", "stale_exposure", "fallback_exposure"}, oldest first.
+    The chart is wide and low: it spans the page under the other two.
     """
-    width, height, left, right, top, bottom = 640, 220, 44, 16, 14, 52
+    height, left, right, top, bottom = 230, 44, 24, 14, 52
     plot_w, plot_h = width - left - right, height - top - bottom
     body = []
     for frac in (0.0, 0.25, 0.5, 0.75, 1.0):

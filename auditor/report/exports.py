@@ -64,14 +64,15 @@ def best_evidence(question: dict) -> dict | None:
     return evidence[0] if evidence else None
 
 
+def _named(owner) -> str | None:
+    name = str(owner or "").strip()
+    return name if name and name != UNASSIGNED else None
+
+
 def question_owner(question: dict) -> str:
-    """Owner of a question by the rule in this module's docstring."""
-    if question.get("owner"):
-        return str(question["owner"])
-    best = best_evidence(question)
-    if best and best.get("owner"):
-        return str(best["owner"])
-    return UNASSIGNED
+    """Owner of a question by the rule in this module's docstring (blank counts as none)."""
+    return (_named(question.get("owner")) or _named((best_evidence(question) or {}).get("owner"))
+            or UNASSIGNED)
 
 
 def slugify(name: str) -> str:
@@ -97,7 +98,7 @@ def owner_slugs(owners) -> dict[str, str]:
 
 
 def document_owner(document: dict) -> str:
-    return str(document.get("owner") or UNASSIGNED)
+    return _named(document.get("owner")) or UNASSIGNED
 
 
 def all_owners(run: dict) -> list[str]:

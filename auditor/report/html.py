@@ -51,7 +51,8 @@ FLAG_TEXT = {
     "stale_competitor": "a stale passage supports it too; the assistant may pick that one",
     "weak": "support is just above the threshold",
     "file_dated": "freshness rests on a file time only",
-    "no_answer_type": "the question's expected answer type was not recognised",
+    "no_answer_type": ("the best passage lacks the asked-for kind of answer (a date, amount, "
+                       "duration, name or place), so its support was lowered"),
 }
 SOURCE_TEXT = {"statement": "a dated statement", "metadata": "document metadata",
                "file": "the file time", "none": "no date"}
@@ -288,7 +289,9 @@ def _page_data(questions, owners_of, owner_index, topic_index, horizon, *,
     Per question: {"v": verdict, "o": owner index, "t": topic index (-1: none), "w": weight,
     "s": support, "h": horizon days, "k": the terms scored in its evidence, "e": evidence}; each
     evidence item is the array [passage key, rank, BM25 score, support, supporting 0/1, fresh 0/1,
-    reasons, contribution of each term of "k", highlights]. Highlights are delta-coded
+    reasons, contribution of each term of "k", highlights, value of each support signal named in
+    "sk", answer type found 1/0/null]; "at" is the kind of answer the question asks for (date,
+    amount, ...) or null. Highlights are delta-coded
     [gap, length, gap, length, ...] in UTF-16 code units, a gap counted from the previous end.
     Passages ("p") are keyed by passage id. The shape keeps a 10,000-question page small.
     """
@@ -299,6 +302,8 @@ def _page_data(questions, owners_of, owner_index, topic_index, horizon, *,
     for i, q in enumerate(questions):
         items = (q.get("evidence") or [])[:page_evidence]
         qterms = sorted({t for e in items for t in (e.get("terms") or {})})
+        snames = sorted({k for e in items for k in (e.get("signals") or {})})
+        answer_type = next((e.get("answer_type") for e in items if e.get("answer_type")), None)
         ev_out = []
         for j, e in enumerate(items):
             key = str(e["passage"]) if e.get("passage") is not None else f"{i}.{j}"
@@ -315,24 +320,29 @@ def _page_data(questions, owners_of, owner_index, topic_index, horizon, *,
             item = [key, e.get("rank", j + 1), round(float(e.get("score") or 0), 2),
                     round(float(e.get("support") or 0), 3), int(bool(e.get("supporting"))),
                     int(bool(e.get("fresh"))), list(e.get("reasons") or []), contrib]
-            keyed.append((item, key, [t for t in qterms if float(terms.get(t) or 0) > 0]))
+            signals = e.get("signals") or {}
+            found = e.get("answer_type_found")
+            keyed.append((item, key, [t for t in qterms if float(terms.get(t) or 0) > 0],
+                          [round(float(signals.get(k) or 0), 3) for k in snames],
+                          None if found is None else int(bool(found))))
             ev_out.append(item)
         rows.append({"v": q.get("verdict"), "o": owner_index[owners_of[i]],
                      "t": topic_index.get(q.get("topic"), -1),
                      "w": q.get("weight", 1.0), "s": q.get("support"),
-                     "h": q.get("horizon_days") or horizon, "k": qterms, "e": ev_out})
+                     "h": q.get("horizon_days") or horizon, "k": qterms, "sk": snames,
+                     "at": answer_type, "e": ev_out})
     limit = PASSAGE_CHARS
     if passages:
         limit = max(MIN_PASSAGE_CHARS, min(PASSAGE_CHARS, text_budget // len(passages)))
     for p in passages.values():
         p["txt"], p["cut"] = _cut(p.pop("_raw"), limit)
-    for item, key, matched in keyed:
+    for item, key, matched, signal_values, found in keyed:
         flat = hl.ranges(passages[key]["txt"], matched)
         coded, end = [], 0
         for k in range(0, len(flat), 2):
             coded += [flat[k] - end, flat[k + 1] - flat[k]]
             end = flat[k + 1]
-        item.append(coded)
+        item += [coded, signal_values, found]
     return {"q": rows, "p": passages}
 
 
@@ -405,7 +415,9 @@ def build_view(run: dict, *, questions: list[dict], documents: list[dict], summa
     }
 
 
-DIFF_ORDER = ("new_gaps", "resolved_gaps", "newly_stale", "refreshed", "added", "removed")
+DIFF_ORDER = ("new_gaps", "newly_stale", "resolved_gaps", "refreshed", "added", "removed")
+DIFF_META = ("base_run", "base_as_of", "head_run", "head_as_of", "summary", "counts", "weights",
+             "exposure")
 
 
 def _scalar_text(value) -> str:
@@ -420,50 +432,85 @@ def _scalar_text(value) -> str:
     return "" if value is None else str(value)
 
 
-def _item_text(item) -> dict:
-    """One entry of a diff list: the question's id and text, then the other fields as "key: value"."""
+def _diff_entry(item) -> dict:
+    """One question of a diff list (runs.diff_runs items: id, question, owner, weight, before,
+    after, reasons); other fields are shown as "key value"."""
     if not isinstance(item, dict):
-        return {"id": None, "text": _scalar_text(item), "extra": ""}
-    rest = [f"{_humanize(k).lower()} {_scalar_text(v)}" for k, v in item.items()
-            if k not in ("id", "question") and v not in (None, "", [])]
-    return {"id": item.get("id"), "text": _scalar_text(item.get("question", "")), "extra": " · ".join(rest)}
+        return {"id": None, "text": _scalar_text(item), "change": "", "extra": ""}
+    change = ""
+    if "before" in item or "after" in item:
+        change = f"{item.get('before') or 'not asked'} → {item.get('after') or 'not asked'}"
+    extra = []
+    if item.get("weight") is not None:
+        extra.append(f"weight {_num(item['weight'])}")
+    if item.get("owner"):
+        extra.append(str(item["owner"]))
+    if item.get("reasons"):
+        extra.append(", ".join(map(str, item["reasons"])))
+    extra += [f"{_humanize(k).lower()} {_scalar_text(v)}" for k, v in item.items()
+              if k not in ("id", "question", "owner", "weight", "before", "after", "reasons")
+              and v not in (None, "", [])]
+    return {"id": item.get("id"), "text": _scalar_text(item.get("question", "")), "change": change,
+            "extra": " · ".join(extra)}
 
 
 def diff_view(diff: dict | None) -> dict | None:
-    """Lists of the diff (known categories first, then any others by name) and its scalar fields."""
+    """The diff against the previous run (runs.diff_runs) as groups of questions and a few facts.
+
+    Known lists come first in DIFF_ORDER; any other list or field is still shown, by name.
+    """
     if not isinstance(diff, dict):
         return None
-    keys = [k for k in DIFF_ORDER if k in diff] + sorted(k for k in diff if k not in DIFF_ORDER)
-    groups, facts = [], []
-    for k in keys:
-        value = diff[k]
-        if isinstance(value, (list, tuple)):
-            groups.append({"key": k, "title": _humanize(k), "entries": [_item_text(x) for x in value]})
-        else:
-            facts.append((_humanize(k), _scalar_text(value)))
-    return {"groups": groups, "facts": facts}
+    weights = diff.get("weights") if isinstance(diff.get("weights"), dict) else {}
+    lists = [k for k in DIFF_ORDER if isinstance(diff.get(k), (list, tuple))]
+    lists += sorted(k for k, v in diff.items() if isinstance(v, (list, tuple)) and k not in lists)
+    groups = [{"key": k, "title": _humanize(k), "entries": [_diff_entry(x) for x in diff[k]],
+               "weight": weights.get(k)} for k in lists]
+    facts = []
+    if diff.get("base_run") is not None or diff.get("base_as_of"):
+        facts.append(("Compared with", f"run #{diff.get('base_run')} of {diff.get('base_as_of')}"))
+    exposure = diff.get("exposure") if isinstance(diff.get("exposure"), dict) else {}
+    for name in sorted(exposure):
+        pair = exposure[name]
+        if isinstance(pair, (list, tuple)) and len(pair) == 2:
+            facts.append((f"{_humanize(name)} exposure", f"{_pct(pair[0])} → {_pct(pair[1])}"))
+    for k in sorted(diff):
+        if k not in lists and k not in DIFF_META:
+            facts.append((_humanize(k), _scalar_text(diff[k])))
+    return {"groups": groups, "facts": facts,
+            "summary": diff.get("summary") if isinstance(diff.get("summary"), str) else None}
+
+
+GATE_COLUMNS = (("limit", "Limit"), ("figure", "Figure"), ("value", "Value"), ("max", "Limit value"),
+                ("passed", "Result"))
 
 
 def gate_view(gate: dict | None) -> dict | None:
-    """Outcome (passed / failed) and the gate's checks as a table with the union of their fields."""
+    """The gate outcome (gate.evaluate_gate: passed, checks, message) with one row per check."""
     if not isinstance(gate, dict):
         return None
     passed = gate.get("passed", gate.get("ok"))
-    tables, facts = [], []
-    for k in sorted(gate):
-        if k in ("passed", "ok"):
-            continue
-        value = gate[k]
-        if isinstance(value, (list, tuple)) and value and all(isinstance(x, dict) for x in value):
-            cols: list[str] = []
-            for x in value:
-                cols.extend(c for c in x if c not in cols)
-            tables.append({"title": _humanize(k), "columns": [_humanize(c) for c in cols],
-                           "rows": [[_scalar_text(x.get(c)) for c in cols] for x in value],
-                           "failed": [x.get("passed", x.get("ok")) is False for x in value]})
-        else:
-            facts.append((_humanize(k), _scalar_text(value)))
-    return {"passed": bool(passed), "tables": tables, "facts": facts}
+    checks = [c for c in gate.get("checks") or [] if isinstance(c, dict)]
+    known = [k for k, _ in GATE_COLUMNS]
+    cols = [k for k in known if any(k in c for c in checks)]
+    cols += sorted({k for c in checks for k in c if k not in known})
+    headers = [dict(GATE_COLUMNS).get(k, _humanize(k)) for k in cols]
+    rows = []
+    for c in checks:
+        cells = []
+        for k in cols:
+            v = c.get(k)
+            if k == "passed":
+                cells.append("passed" if v else "failed")
+            elif k in ("value", "max") and isinstance(v, float):
+                cells.append(_num(v, 3))
+            else:
+                cells.append(_scalar_text(v))
+        rows.append({"cells": cells, "failed": c.get("passed", c.get("ok")) is False})
+    facts = [(_humanize(k), _scalar_text(v)) for k, v in sorted(gate.items())
+             if k not in ("passed", "ok", "checks", "message")]
+    return {"passed": bool(passed), "message": gate.get("message"), "headers": headers,
+            "rows": rows, "facts": facts}
 
 
 def inventory(documents: list[dict], ingest_errors, audit: date | None) -> dict:
@@ -480,17 +527,16 @@ def inventory(documents: list[dict], ingest_errors, audit: date | None) -> dict:
     expired = [d for d in active if "expired" in (d.get("reasons") or [])
                or (audit and _date(d.get("expires")) and _date(d.get("expires")) < audit)]
     expired.sort(key=lambda d: (str(d.get("expires") or ""), str(d.get("path"))))
-    failed = [{"path": d.get("path"), "owner": document_owner(d),
-               "reasons": list(d.get("reasons") or [])} for d in docs if d.get("status") == "failed"]
-    seen = {f["path"] for f in failed}
+    # A failed file: its kinds (documents.reasons, e.g. "encrypted") and messages (ingest_errors).
+    failed = {str(d.get("path")): {"path": d.get("path"), "owner": document_owner(d),
+                                   "kinds": list(d.get("reasons") or []), "errors": []}
+              for d in docs if d.get("status") == "failed"}
     for err in ingest_errors or []:
-        if err.get("document") in seen:
-            for f in failed:
-                if f["path"] == err.get("document") and err.get("error") not in f["reasons"]:
-                    f["reasons"].append(err.get("error"))
-            continue
-        seen.add(err.get("document"))
-        failed.append({"path": err.get("document"), "owner": "", "reasons": [err.get("error")]})
+        entry = failed.setdefault(str(err.get("document")), {"path": err.get("document"), "owner": None,
+                                                             "kinds": [], "errors": []})
+        if err.get("error") and err.get("error") not in entry["errors"]:
+            entry["errors"].append(err.get("error"))
+    failed = list(failed.values())
     failed.sort(key=lambda f: str(f["path"]))
     return {
         "counts": {"documents": len(docs), "active": len(active),

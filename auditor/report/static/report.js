@@ -190,6 +190,22 @@
     });
     if (!terms.length) { tb.insertRow().insertCell().textContent = "no question term in this passage"; }
     left.appendChild(t);
+    var sig = e[9] || [];
+    if (q.sk && q.sk.length && sig.length) {
+      var sl = el("p", "signals");
+      sl.appendChild(el("span", "sr", "Support signals: "));
+      q.sk.forEach(function (name, k) {
+        var chip = el("span", "sig");
+        chip.appendChild(el("b", null, name));
+        chip.appendChild(document.createTextNode(" " + (+sig[k]).toFixed(2)));
+        sl.appendChild(chip);
+      });
+      left.appendChild(sl);
+    }
+    if (q.at && e[10] !== null && e[10] !== undefined) {
+      left.appendChild(el("p", "hint", e[10] ? "Has the kind of answer asked for (" + q.at + ")."
+        : "Lacks the kind of answer asked for (" + q.at + "): support lowered."));
+    }
     grid.appendChild(left);
     var right = el("div");
     var st = el("table", "st");
@@ -201,7 +217,9 @@
       var r = sb.insertRow();
       r.insertCell().textContent = x[0];
       r.insertCell().appendChild(el("span", "chip", x[1]));
-      r.insertCell().textContent = (x[2] === x[3] ? x[2] : x[2] + " – " + x[3]) + (x[4] ? " (" + x[4] + ")" : "");
+      var iv = r.insertCell();
+      iv.textContent = x[2] === x[3] ? x[2] : x[2] + " – " + x[3];
+      if (x[4]) { iv.appendChild(document.createTextNode(" ")); iv.appendChild(el("span", "gran", x[4])); }
     });
     if (!(p.st || []).length) { sb.insertRow().insertCell().textContent = "no dated statements"; }
     right.appendChild(st);
