@@ -1,7 +1,10 @@
 """Calibration of the support threshold from labelled questions."""
 
+import csv
 import json
+import shutil
 from datetime import date
+from pathlib import Path
 
 import pytest
 from click.testing import CliRunner
@@ -176,3 +179,64 @@ def test_cli_calibrate_prints_the_table_and_bad_labels_fail_in_one_line(labelled
     failed = CliRunner().invoke(cli, ["calibrate", "--labels", str(bad), "--db", str(store.path)])
     assert failed.exit_code == 1
     assert "unknown column(s) colour" in failed.output and len(failed.output.strip().splitlines()) == 1
+
+
+# --- the demo's labelled set ------------------------------------------------------------------------
+
+DEMO = Path(__file__).resolve().parent.parent / "fixtures" / "demo"
+
+
+@pytest.fixture(scope="module")
+def demo_store(tmp_path_factory):
+    """The demo knowledge base ingested by the real ingest into a fresh database."""
+    from auditor.config import load_config
+    from auditor.ingest import ingest_corpus
+    from auditor.store import Store
+
+    target = tmp_path_factory.mktemp("calibrate") / "demo"
+    shutil.copytree(DEMO, target)
+    text = (target / "audit.toml").read_text(encoding="utf-8")
+    (target / "audit.toml").write_text(text.replace("../../reports/demo/auditor.db", "work/auditor.db")
+                                       .replace("../../reports/demo", "work/report"), encoding="utf-8")
+    config = load_config(target / "audit.toml", env={})
+    with Store(config.database) as store:
+        ingest_corpus(store, config, jobs=1)
+        yield store, config, target
+
+
+def test_demo_calibration_restores_the_expected_verdicts(demo_store):
+    from auditor.questions import load_questions
+
+    store, config, target = demo_store
+    with store.transaction():
+        store.db.execute("DELETE FROM calibrations")
+    with open(target / "expected.csv", newline="", encoding="utf-8") as f:
+        expected = {row["id"]: row["verdict"] for row in csv.DictReader(f)}
+    questions = load_questions(target / "questions.csv")
+    # A threshold far too strict for this knowledge base: covered questions turn into gaps.
+    strict = config.replace(support=SupportConfig(threshold=0.8, weak_margin=0.05))
+    before = run_audit(store, strict, questions, as_of=AS_OF)
+    wrong = [q["id"] for q in before["questions"] if (q["verdict"] == "gap") != (expected[q["id"]] == "gap")]
+    assert len(wrong) >= 10
+
+    outcome = calibrate(store, strict, target / "labels.csv", holdout=True)
+    m = outcome["metrics"]
+    assert m["questions"] == 37 and m["unanswerable"] == 10 and m["auc"] > 0.95
+    assert m["f1"] >= 0.85
+    # Hiding each answer's document leaves most of those questions without support.
+    assert m["holdout"]["questions"] == 27 and m["holdout"]["gap_rate"] >= 0.6
+
+    after = run_audit(store, strict, questions, as_of=AS_OF)
+    assert after["run"]["thresholds"]["source"] == "calibration"
+    assert after["run"]["thresholds"]["support"] == outcome["thresholds"]["support"] < 0.8
+    assert {q["id"]: q["verdict"] for q in after["questions"]} == expected
+
+    # A stricter precision target lowers the threshold: every question whose support clears it is
+    # no longer a gap, the others stay gaps.
+    precise = calibrate(store, strict, target / "labels.csv", target_precision=1.0)
+    low = precise["thresholds"]["support"]
+    assert low < outcome["thresholds"]["support"] and precise["metrics"]["precision"] == 1.0
+    third = run_audit(store, strict, questions, as_of=AS_OF)
+    for q in third["questions"]:
+        assert (q["verdict"] == "gap") == (q["support"] < low), q["id"]
+    assert third["summary"]["gap"] <= after["summary"]["gap"]
