@@ -189,3 +189,35 @@ def test_empty_question_set_and_empty_store(store):
     assert run["run"]["corpus"]["passages"] == 0
     gap = run_audit(store, Config(), QUESTIONS[:1], as_of=AS_OF)["questions"][0]
     assert gap["verdict"] == "gap" and gap["evidence"] == [] and gap["reasons"] == []
+
+
+def test_run_object_follows_the_contract_and_reloads_equal(kb, tmp_path):
+    # The keys of the developers' contract (results.json format 1, DESIGN.md §4.3, and extensions).
+    from auditor.runs import load_run
+
+    run = run_audit(kb, Config(), QUESTIONS, as_of=AS_OF, out=tmp_path / "report")
+    assert {"format", "run", "summary", "questions", "ingest_errors", "documents", "briefs", "history",
+            "diff", "gate"} <= set(run)
+    assert {"id", "as_of", "horizon_days", "started", "finished", "title", "corpus", "thresholds",
+            "config_fingerprint", "corpus_fingerprint"} <= set(run["run"])
+    assert {"documents", "passages", "failed", "freshness", "mean_age_days"} <= set(run["run"]["corpus"])
+    for q in run["questions"]:
+        assert {"id", "question", "owner", "topic", "weight", "verdict", "reasons", "support", "missing_terms",
+                "evidence", "flags", "action", "horizon_days"} <= set(q)
+        for e in q["evidence"]:
+            assert {"document", "page", "section", "passage", "score", "support", "supporting", "as_of",
+                    "as_of_source", "expires", "fresh", "reasons", "text", "owner", "terms", "statements",
+                    "rank"} <= set(e)
+    for d in run["documents"]:
+        assert set(d) == {"path", "title", "kind", "owner", "status", "doc_date", "doc_date_source", "expires",
+                          "passages", "as_of", "fresh", "reasons"}
+    # The gap question becomes a content brief (auditor/briefs.py) naming it.
+    assert any("q3" in b["questions"] for b in run["briefs"])
+    # With `out`, the report is written from the same run object.
+    written = json.loads((tmp_path / "report" / "results.json").read_text(encoding="utf-8"))
+    assert [q["verdict"] for q in written["questions"]] == ["covered", "stale", "gap"]
+    # What runs.load_run rebuilds from the store is the run we returned.
+    loaded = load_run(kb, run["run"]["id"])
+    assert json.loads(dumps(loaded["questions"])) == json.loads(dumps(run["questions"]))
+    assert loaded["summary"] == run["summary"] and loaded["run"]["corpus"] == run["run"]["corpus"]
+    assert loaded["documents"] == run["documents"] and loaded["run"]["thresholds"] == run["run"]["thresholds"]
