@@ -195,6 +195,7 @@ def update_latest(out_dir: str | Path, link: str | Path | None = None) -> Path:
     except ValueError:  # another drive (Windows)
         target = str(out_dir.resolve())
     temporary = link.with_name(f".{link.name}.{os.getpid()}.tmp")
+    _remove_dead_temporaries(link)
     try:
         if temporary.is_symlink() or temporary.exists():
             temporary.unlink()
@@ -206,6 +207,23 @@ def update_latest(out_dir: str | Path, link: str | Path | None = None) -> Path:
     except OSError as exc:
         raise AuditorError(f"{str(link)!r}: cannot point it at the newest report ({exc})") from None
     return link
+
+
+def _remove_dead_temporaries(link: Path) -> None:
+    """Drop temporary links left by a scan killed inside update_latest (its pid no longer runs)."""
+    for leftover in link.parent.glob(f".{link.name}.*.tmp"):
+        try:
+            pid = int(leftover.name[len(link.name) + 2:-4])
+            os.kill(pid, 0)
+        except ValueError:
+            continue
+        except ProcessLookupError:
+            try:
+                leftover.unlink()
+            except OSError:
+                pass
+        except PermissionError:  # alive, another user's
+            continue
 
 
 # --- diff -----------------------------------------------------------------------------------------

@@ -231,6 +231,10 @@ def test_update_latest_replaces_the_link_atomically(tmp_path):
     update_latest(reports / "2026-12-01")
     assert json.loads((reports / "latest" / "results.json").read_text())["as_of"] == "2026-12-01"
     assert sorted(p.name for p in reports.iterdir()) == ["2026-11-01", "2026-12-01", "latest"]  # no temp left
+    # a temporary link left by a killed scan (pid 2**22 + 1 is above Linux's pid_max, never alive) goes
+    os.symlink("2026-11-01", reports / f".latest.{2**22 + 1}.tmp")
+    update_latest(reports / "2026-12-01")
+    assert sorted(p.name for p in reports.iterdir()) == ["2026-11-01", "2026-12-01", "latest"]
     (tmp_path / "other" / "latest").mkdir(parents=True)
     (tmp_path / "other" / "run").mkdir()
     with pytest.raises(AuditorError, match="is a folder, not the link"):
