@@ -35,6 +35,7 @@ MONTH = rf"(?:{MONTH_NAMES})\b\.?"
 _WEEKDAYS = ("Monday|Tuesday|Wednesday|Thursday|Friday|Saturday|Sunday|"
              "Mon|Tues|Tue|Wed|Thurs|Thur|Thu|Fri|Sat|Sun")
 WEEKDAY_NAMES = f"{_WEEKDAYS}|{_WEEKDAYS.upper()}"
+_FULL_MONTHS = "|".join(n.capitalize() for n in MONTH_NUMBERS if len(n) > 4 or n in ("may", "june", "july"))
 WEEKDAY = rf"(?:{WEEKDAY_NAMES})\b\.?"
 DAY = r"(?:[0-3]?\d)(?:st|nd|rd|th)?(?![\d:])"  # "9:30" is a time, not a day
 YEAR_CORE = r"(?:1[89]\d{2}|2[01]\d{2})"
@@ -101,6 +102,8 @@ _ALTERNATIVES = [
     ("rolling", rf"(?i:\b(?:the\s+)?(?P<rod>past|last|previous|next|coming|following)\s+(?P<ron>{COUNT})\s+"
                 rf"(?P<rou>(?:day|week|month|year)s)\b)"),
     # "last month", "next quarter", "this fiscal year", "next Monday"
+    # "next July", "last March": a capital month name only ("this may take a day" is no date)
+    ("monthrel", rf"(?i:\b(?P<mdir>last|this|next|coming|previous|following)\s+)(?P<mrel>{_FULL_MONTHS})\b"),
     ("relative", rf"(?i:\b(?P<rdir>last|this|next|past|coming|previous|current|following)\s+(?P<runit>{_REL_UNIT})\b)"),
     ("deictic", r"(?i:\b(?P<dx>yesterday|today|tomorrow)\b)"),
     # a bare year: kept only next to a cue (year_in_context)
@@ -170,6 +173,8 @@ def year_in_context(text: str, start: int, end: int, previous_end: int | None) -
     if _YEAR_BLOCK_LEFT.search(text, left_from, start) or _YEAR_BLOCK_RIGHT.match(text, end):
         return False
     if _YEAR_LEFT.search(text, left_from, start) or _YEAR_RIGHT.match(text, end):
+        return True
+    if text[start - 1:start] == "(" and text[end:end + 1] == ")":  # "(2016)": a publication year
         return True
     if previous_end is not None and start - previous_end < 12:
         gap = text[previous_end:start]
@@ -415,8 +420,11 @@ def parse_candidate(m, ctx) -> Atom | None:
     if kind == "yearrange":
         y1, raw = int(g("yr1")), g("yr2")
         y2 = int(raw) if len(raw) == 4 else y1 // 100 * 100 + int(raw)
-        if not 0 < y2 - y1 <= 50 or (len(raw) == 2 and y2 - y1 > 1 and g(kind)[4:5] != "/"):
+        if not 0 < y2 - y1 <= 50 or (len(raw) == 2 and y2 != y1 + 1):
             return None
+        if len(raw) == 2 and fys != 1:
+            # "2025–26" with a fiscal year configured is that fiscal year (rates, budgets, seasons)
+            return Atom(s, e, "year", *_fiscal_year(y1, fys, explicit_start=y1))
         return Atom(s, e, "year", date(y1, 1, 1), date(y2, 12, 31), bounded=True)
     if kind == "year":
         if not year_in_context(ctx["text"], s, e, ctx["previous_end"]):
@@ -450,6 +458,16 @@ def parse_candidate(m, ctx) -> Atom | None:
             return Atom(s, e, unit, ref, last, future=True, relative=True)
         first = ref - span if span else _addmonths(ref, -count * (12 if unit == "year" else 1))
         return Atom(s, e, unit, first, ref, past=True, relative=True)
+    if kind == "monthrel":
+        month, direction = MONTH_NUMBERS[g("mrel").lower()], g("mdir").lower()
+        if direction in ("next", "coming", "following"):
+            year = ref.year if month > ref.month else ref.year + 1
+        elif direction in ("last", "previous"):
+            year = ref.year if month < ref.month else ref.year - 1
+        else:
+            year = ref.year
+        first, last = date(year, month, 1), month_end(year, month)
+        return Atom(s, e, "month", first, last, future=first > ref, past=last < ref, relative=True)
     if kind == "relative":
         direction, unit = g("rdir").lower(), re.sub(r"\s+", " ", g("runit").lower())
         step = {"last": -1, "past": -1, "previous": -1, "next": 1, "coming": 1, "following": 1}.get(direction, 0)

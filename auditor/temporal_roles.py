@@ -5,10 +5,11 @@ the same sentence, after any earlier expression), then the words just after it, 
 sentence's tense; the first rule that applies wins:
 
 1. `other`     a copyright line (©, "Copyright", "(c)"), a citation ("(Rivera, 2019)", "et al.,
-               2019"), or a recurring date ("June 1 through September 30 each year", "annually").
-2. a strong cue, the nearest one, at most 40 characters of the same clause before the expression:
-   `as_of`     as of, as at, (last) updated, (last) reviewed, revised, current/accurate/correct as
-               of, verified, information current;
+               2019", "4th edition (2016)"), or a recurring date ("June 1 through September 30 each year", "annually").
+2. a strong cue, the nearest one, at most 40 characters of the same clause before the expression
+   (no "and", "or", "but", "once", "when", "if" ... in between):
+   `as_of`     as of, as at, (last) updated, (last) reviewed, revised, (last) modified, date
+               modified, current/accurate/correct as of, verified, information current;
    `effective` effective, takes/took effect, in effect, in force, comes into force, applies from,
                starting, starts, beginning, begins, commencing, as from, on and/or after, valid
                (from), opens/open, becomes, new from;
@@ -20,9 +21,8 @@ sentence's tense; the first rule that applies wins:
    "or later", "onwards" -> `effective`.
 4. a weak cue right before the expression: from/since/after -> `effective`, by/before ->
    `expires` (only when the sentence states an obligation: must, submit, apply, pay ...). A weak
-   cue yields in a past-tense sentence ("ran from ... to ..." is an event), when a future-tense
-   sentence gives a bounded range ("will be closed from Dec 24 to Jan 2" is planned), and "by" in
-   a future sentence without an obligation ("we will finish by 2030" is planned).
+   cue yields in a past-tense sentence ("ran from ... to ..." is an event) and when a future-tense
+   sentence gives a bounded range ("will be closed from Dec 24 to Jan 2" is planned).
 5. `planned`   "scheduled/planned/slated/expected for|in|on" right before it.
 6. `period`    for, during, throughout, covering, over ... right before it, or a noun the date
                qualifies right after it ("2023 rates", "2024 property assessment", "FY2025
@@ -42,23 +42,24 @@ import re
 from datetime import date
 
 _OTHER_LEFT = re.compile(r"(?i:(?:©|\(c\)|\bcopyright)\s*(?:©\s*)?$|\bet\s+al\.?,?\s*$|"
-                         r"\([A-Z][A-Za-z.&' -]{1,60},\s*$)")
+                         r"\([A-Z][A-Za-z.&' -]{1,60},\s*$|\(\s*$)")  # the last: "(2016)", a publication year
 _STRONG = [
-    ("as_of", r"as\s+of|as\s+at|(?:last\s+)?updated(?:\s+on)?|(?:last\s+)?reviewed(?:\s+on)?|revised(?:\s+on)?|"
+    ("as_of", r"as\s+of|as\s+at|(?:last[\s_]+)?updated(?:\s+on)?|(?:last[\s_]+)?reviewed(?:\s+on)?|revised(?:\s+on)?|"
+              r"(?:last[\s_]+)?modified(?:\s+on)?|date[\s_]+modified|"
               r"current\s+as\s+of|accurate\s+as\s+of|correct\s+as\s+of|verified(?:\s+on)?|"
               r"information\s+(?:is\s+)?current"),
+    ("expires", r"until|till|expires?(?:\s+on)?|expiry(?:\s+date)?|expiration(?:\s+date)?|"
+                r"deadline(?:\s+is)?|no\s+later\s+than|valid\s+(?:through|thru|until|till|to)|ends(?:\s+on)?|"
+                r"end\s+of\s+(?:support|life|service|sale)(?:\s+on)?|(?:will|to)\s+end(?:\s+on)?|ending(?:\s+on)?|end\s+date|closes(?:\s+on)?|"
+                r"close\s+on|will\s+close(?:\s+on)?|last\s+day(?:\s+(?:to\s+\w+|for\s+\w+))?(?:\s+is)?|"
+                r"(?:is|are|payment|bills?|amount)\s+due(?:\s+(?:on|by))?|due\s+(?:on|by|date)|"
+                r"cut-?off(?:\s+date)?|up\s+to\s+and\s+including|not\s+after"),
     ("effective", r"effective(?:\s+(?:from|on|as\s+of))?|takes?\s+effect(?:\s+on)?|took\s+effect(?:\s+on)?|"
                   r"in\s+effect(?:\s+from)?|in\s+force(?:\s+from)?|comes?\s+into\s+force(?:\s+on)?|"
                   r"appl(?:y|ies)\s+(?:from|to\s+bills\s+(?:issued|dated)\s+(?:on\s+or\s+)?after)|"
                   r"starting(?:\s+(?:on|from|in))?|starts(?:\s+on)?|beginning(?:\s+(?:on|in))?|"
                   r"begins(?:\s+on)?|commencing(?:\s+on)?|as\s+from|on\s+(?:and|or)\s+after|"
                   r"from\s+and\s+after|valid\s+from|valid|opens?(?:\s+(?:on|from))?|becomes?|new\s+from"),
-    ("expires", r"until|till|expires?(?:\s+on)?|expiry(?:\s+date)?|expiration(?:\s+date)?|"
-                r"deadline(?:\s+is)?|no\s+later\s+than|valid\s+(?:through|thru|until|till|to)|ends(?:\s+on)?|"
-                r"end\s+of\s+(?:support|life|service|sale)(?:\s+on)?|ending(?:\s+on)?|end\s+date|closes(?:\s+on)?|"
-                r"close\s+on|will\s+close(?:\s+on)?|last\s+day(?:\s+(?:to\s+\w+|for\s+\w+))?(?:\s+is)?|"
-                r"(?:is|are|payment|bills?|amount)\s+due(?:\s+(?:on|by))?|due\s+(?:on|by|date)|"
-                r"cut-?off(?:\s+date)?|up\s+to\s+and\s+including|not\s+after"),
 ]
 _WEAK = [
     ("effective", r"from|since|after"),
@@ -70,7 +71,8 @@ _PERIOD_LEFT = r"for|during|throughout|covering|covers|cover|over|for\s+the|in\s
 
 
 def _compile(pairs):
-    """One alternation with a group per role; its last match in a window is the nearest cue."""
+    """One alternation with a group per role; its last match in a window is the nearest cue.
+    Where two cues start alike, the earlier pair wins ("valid through" is an expiry, not "valid")."""
     return re.compile("|".join(rf"(?P<{role}>\b(?:{body})\b[\s:,-]*)" for role, body in pairs), re.I)
 
 
@@ -109,7 +111,7 @@ _STRONG_REACH = 40  # characters a strong cue may stand before its expression ("
 _WINDOW = 80
 
 
-_CLAUSE_BREAK = re.compile(r"[.;!?]|\b(?:then|but|while|and|or)\b")
+_CLAUSE_BREAK = re.compile(r"[.;!?]|\b(?:then|but|while|and|or|once|when|if|unless|because)\b")
 
 
 def _nearest(cues: re.Pattern, left: str, reach: int) -> str | None:
@@ -149,14 +151,12 @@ def role_for(left: str, right: str, sentence: str, *, start: date, reference_dat
     future, past = _tense(sentence)
     future = (future or future_relative) and not past_relative
     weak = _nearest(_WEAK_CUES, left, 5)
-    if weak == "expires" and not _OBLIGATION.search(sentence):
-        weak = None
+    if weak == "expires" and not _OBLIGATION.search(left):
+        weak = None  # "apply by ...", "must be received before ..."; not "tickets opened before ..."
     if weak == "effective" and past and not future:
         weak = None  # "the campaign ran from ... to ..." tells of an event
     if weak == "effective" and future and bounded:
         weak = None  # "will be closed from Dec 24 to Jan 2": a planned event, not a lasting change
-    if weak == "expires" and future and not _OBLIGATION.search(left):
-        weak = None  # "we will finish by 2030"
     if weak:
         return weak
     if _PLANNED_LEFT.search(left):

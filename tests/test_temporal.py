@@ -6,8 +6,10 @@ from datetime import date
 from unittest import mock
 
 import pytest
+from hypothesis import given, settings, strategies as st
 
 from auditor import temporal, temporal_patterns
+from auditor.models import GRANULARITIES, ROLES
 from auditor.temporal import extract
 
 REF = date(2024, 11, 1)
@@ -143,3 +145,50 @@ def test_dateparser_span_cache_is_keyed_by_reference():
 def test_empty_and_dateless_text():
     assert extract("", REF) == []
     assert extract("Call us to set up a payment plan.", REF) == []
+
+
+def test_relative_month_names():
+    found = extract("Rates rose last March and will rise again next July; this July is quiet.", REF)
+    assert [(e.expression, e.start, e.end) for e in found] == [
+        ("last March", date(2024, 3, 1), date(2024, 3, 31)),
+        ("next July", date(2025, 7, 1), date(2025, 7, 31)),
+        ("this July", date(2024, 7, 1), date(2024, 7, 31)),
+    ]
+    # "may" after "this" is the verb
+    assert extract("This may take a few days. The next may be sooner.", REF) == []
+
+
+def test_short_year_range_is_the_fiscal_year_when_one_is_configured():
+    calendar_years = extract("Residential Water Rates 2025–26", REF)[0]
+    assert (calendar_years.start, calendar_years.end) == (date(2025, 1, 1), date(2026, 12, 31))
+    fiscal = extract("Residential Water Rates 2025–26", REF, fiscal_year_start=7)[0]
+    assert (fiscal.start, fiscal.end, fiscal.granularity) == (date(2025, 7, 1), date(2026, 6, 30), "year")
+    assert extract("Rates 2025–27", REF) == []  # a short form names consecutive years only
+
+
+def test_metadata_style_cues():
+    roles = [e.role for e in extract("last_reviewed: 2026-08-03\nLast modified on 3 May 2024.", REF)]
+    assert roles == ["as_of", "as_of"]
+
+
+def test_publication_year_in_parentheses_is_other():
+    (e,) = extract("See AWWA Manual M36, 4th edition (2016).", REF)
+    assert (e.expression, e.role) == ("2016", "other")
+
+
+# Arbitrary text, with date-like pieces mixed in, never breaks the extractor and always yields
+# well-formed expressions.
+_PIECES = st.sampled_from(["March", "May", "2024", "-", "–", "/", "Q3", "FY", "winter", "next", "ago", "two",
+                           "weeks", "the", "end of", "12", "31", "02/29/", ", ", " ", ".", "\n", "W53", "(", ")",
+                           "through", "from", "to", "and", "between", "early", "mid-", "'90s", "1990s"])
+
+
+@settings(max_examples=300, deadline=None)
+@given(st.lists(st.one_of(_PIECES, st.text(max_size=6)), max_size=30), st.booleans(), st.booleans())
+def test_any_text_yields_well_formed_expressions(pieces, with_reference, day_first):
+    text = "".join(pieces)
+    for e in extract(text, REF if with_reference else None, day_first=day_first, fiscal_year_start=4):
+        assert text[e.char_start:e.char_end] == e.expression
+        assert e.start <= e.end
+        assert e.granularity in GRANULARITIES and e.role in ROLES
+        assert e.expression.strip() and e.expression in text

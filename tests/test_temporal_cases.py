@@ -8,7 +8,10 @@ standard numbers, prices, quantities, hour ranges) with no expected expression. 
 (document) date is 2024-11-01 unless a case gives `ref`; `opts` are extract() options.
 
 The expected values were worked out by hand from the calendar and the conventions in
-auditor/temporal.py's docstring, not produced by the extractor.
+auditor/temporal.py's docstring, not produced by the extractor. Cases marked "set": "holdout" were
+written after the extractor's rules were in place and run once before any rule was changed for
+them (first run: precision 1.000, recall 0.943, role accuracy 0.909 on 33 matched expressions);
+the figures are printed for them apart.
 """
 
 from __future__ import annotations
@@ -73,10 +76,11 @@ def test_table_has_enough_cases():
     assert sum(1 for c in cases if not c["expect"]) >= 30
 
 
-def test_precision_recall_and_role_accuracy(capsys):
+def figures(cases):
+    """(precision, recall, role accuracy, counts, problems) over `cases`."""
     true_positive = false_positive = false_negative = right_role = 0
     problems = []
-    for case in load_cases():
+    for case in cases:
         pairs, extra, missed = score(case)
         true_positive += len(pairs)
         false_positive += len(extra)
@@ -88,10 +92,19 @@ def test_precision_recall_and_role_accuracy(capsys):
                      for f, x in pairs if f.role != x[4]]
     precision = true_positive / (true_positive + false_positive)
     recall = true_positive / (true_positive + false_negative)
-    role_accuracy = right_role / true_positive
+    counts = f"{len(cases)} sentences, {true_positive} matched, {false_positive} extra, {false_negative} missed"
+    return precision, recall, right_role / true_positive, counts, problems
+
+
+def test_precision_recall_and_role_accuracy(capsys):
+    cases = load_cases()
+    precision, recall, role_accuracy, counts, problems = figures(cases)
     with capsys.disabled():
-        print(f"\ntemporal cases: precision {precision:.3f}, recall {recall:.3f}, role accuracy "
-              f"{role_accuracy:.3f} ({true_positive} matched, {false_positive} extra, {false_negative} missed)")
+        print(f"\ntemporal cases: precision {precision:.3f}, recall {recall:.3f}, "
+              f"role accuracy {role_accuracy:.3f} ({counts})")
+        held = figures([c for c in cases if c.get("set") == "holdout"])
+        print(f"  of which held out: precision {held[0]:.3f}, recall {held[1]:.3f}, "
+              f"role accuracy {held[2]:.3f} ({held[3]})")
         for problem in problems:
             print("  " + problem)
     assert precision >= 0.95
