@@ -3,6 +3,10 @@
 `run_audit` builds the run object (results.json format 1, DESIGN.md §4.3, with the extensions listed
 in the developers' preamble) and stores it as one `runs` row plus one `results` row per question,
 all in one transaction, so a failed audit leaves nothing half-written.
+
+A question's `support` is the support its verdict rests on: the best fresh supporting passage's
+for a covered question, else the best passage's. Each evidence item carries its own support, the
+signals it came from (`signals`), and whether the asked-for answer type was found.
 """
 
 from __future__ import annotations
@@ -126,14 +130,12 @@ def _judge_question(question, result, passages, statements, passage_fresh, fresh
                     tokenizer) -> dict:
     idf = dict(result.idf)
     evidence, judged = [], []
-    horizons = []
     for rank, hit in enumerate(result.hits, start=1):
         passage = passages.get(hit.passage_id)
         if passage is None:  # the index is newer than the store read; cannot happen in one process
             continue
         horizon = freshness_rules.horizon_for(fresh_config, path=passage["path"], topic=question.topic,
                                               override=question.horizon_days)
-        horizons.append(horizon)
         fresh = passage_fresh(hit.passage_id, horizon)
         scored = passage_support(question.question, passage["text"], score=hit.score,
                                  max_score=result.max_score, idf=idf, tokenize=tokenizer.tokenize)
