@@ -154,3 +154,24 @@ def test_retention_keeps_the_newest_runs_after_a_scan(tmp_path):
     december = json.loads((root / "reports" / "2026-12-01" / "results.json").read_text())
     assert december["diff"]["base_run"] == 1 and december["history"][0]["id"] == 1
     assert (root / "reports" / "2026-11-01" / "results.json").is_file()
+
+
+@pytest.mark.slow
+def test_failed_gate_exits_3_with_the_limit_and_keeps_the_report(tmp_path):
+    root = make_site(tmp_path / "site")
+    config = root / "audit.toml"
+    config.write_text(config.read_text().replace("max_gap_share = 0.9", "max_fallback_exposure = 0.10"),
+                      encoding="utf-8")
+    done = run_scan(root, "2026-11-01")
+    # November: gaps q-barrel (12) and q-paperless (20) of weight 215 -> 32/215 = 0.149 > 0.10
+    assert done.returncode == 3, done.stderr
+    assert done.stderr.splitlines() == ["gate failed: fallback_exposure 0.15 > max 0.10"]
+    results = json.loads((root / "reports" / "latest" / "results.json").read_text())
+    assert results["gate"]["passed"] is False
+    assert results["gate"]["checks"][0]["value"] == pytest.approx(32 / 215)
+
+    from auditor.runs import load_run
+    from auditor.store import Store
+
+    with Store(root / "state" / "auditor.db") as store:
+        assert load_run(store)["gate"] == results["gate"]  # stored with the run
