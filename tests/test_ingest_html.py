@@ -21,7 +21,8 @@ PAGE = html_page(
     <main>
       <h1>Paying your bill</h1>
       <p>You can pay in several ways.</p>
-      <h2>By phone</h2>
+      <div class="modal consent-popup">Your privacy choices</div>
+      <h2>By phone<a class="headerlink" href="#by-phone">¶</a></h2>
       <p>Call   the payment line,
          any time.</p>
       <h3>Fees</h3>
@@ -40,7 +41,8 @@ def test_main_content_only_with_heading_path():
     doc = parse_html(PAGE.encode(), "pay.html")
     texts = [b.text for b in doc.blocks]
     joined = "\n".join(texts)
-    for chrome in ("cookies", "Accept", "Billing", "Help", "Related", "©", "Search", "tracking", "color"):
+    for chrome in ("cookies", "Accept", "Billing", "Help", "Related", "©", "Search", "tracking", "color",
+                   "privacy", "¶"):
         assert chrome not in joined
     assert doc.title == "Paying your bill | Fernhollow"
     by_text = {b.text: b.heading_path for b in doc.blocks}

@@ -74,11 +74,13 @@ def parse_html(data: bytes, path: str) -> ParsedDocument:
     text = decode_text(data, path, declared=declared, kind="html")
     if "<" not in text[:65536]:
         raise IngestFailure("not_a_html", path, "no HTML markup in the file")
-    soup = BeautifulSoup(text, "lxml")
-    _check_depth(soup, path)
-    dates = _dates(soup)
-    title = _title(soup)
-    root = _content_root(soup)
+    # multi_valued_attributes=None: "class" stays one string; splitting every attribute of every
+    # tag is a sixth of bs4's parse time and only `class` is read here.
+    soup = BeautifulSoup(text, "lxml", multi_valued_attributes=None)
+    scan = _scan(soup, path)
+    dates = _dates(scan)
+    title = _title(soup, scan)
+    root = scan.main or (scan.articles[0] if len(scan.articles) == 1 else None) or soup.body or soup
     # Inside <main>/<article> a <header> holds the title: keep it; around <body> it is site chrome.
     blocks = _blocks(root, keep_chrome=root.name not in ("body", "[document]"))
     if not any(b.heading_path == () or b.text != b.heading_path[-1] for b in blocks):
@@ -88,38 +90,68 @@ def parse_html(data: bytes, path: str) -> ParsedDocument:
     return ParsedDocument(blocks=blocks, title=title, dates=dates)
 
 
-def _check_depth(soup: BeautifulSoup, path: str) -> None:
+class _Scan:
+    """What one pass over the tree finds: the elements dates, title and content root come from."""
+
+    def __init__(self):
+        self.scripts: list[Tag] = []
+        self.metas: list[Tag] = []
+        self.times: list[Tag] = []
+        self.itemprops: dict[str, Tag] = {}
+        self.main: Tag | None = None
+        self.articles: list[Tag] = []
+
+
+def _scan(soup: BeautifulSoup, path: str) -> _Scan:
+    """One iterative pass (bs4's find() walks the whole tree each call; pages can be large), which
+    also refuses trees nested deeper than MAX_DEPTH."""
+    scan = _Scan()
     stack = [(soup, 0)]
     while stack:
         node, depth = stack.pop()
         if depth > MAX_DEPTH:
             raise IngestFailure("parse_error", path, f"HTML nested deeper than {MAX_DEPTH} elements; not a page a browser would show")
-        stack.extend((child, depth + 1) for child in node.contents if isinstance(child, Tag))
+        name = node.name
+        if name == "meta":
+            scan.metas.append(node)
+        elif name == "script":
+            if "ld+json" in (node.get("type") or "").lower():
+                scan.scripts.append(node)
+        elif name == "time":
+            scan.times.append(node)
+        elif name == "article":
+            scan.articles.append(node)
+        if scan.main is None and (name == "main" or node.get("role") == "main") and name != "[document]":
+            scan.main = node
+        prop = node.get("itemprop")
+        if prop in ("dateModified", "datePublished", "expires"):
+            scan.itemprops.setdefault(prop, node)
+        children = [c for c in node.contents if isinstance(c, Tag)]
+        stack.extend((c, depth + 1) for c in reversed(children))
+    return scan
 
 
-def _title(soup: BeautifulSoup) -> str | None:
+def _title(soup: BeautifulSoup, scan: _Scan) -> str | None:
     if soup.title and soup.title.string and soup.title.string.strip():
         return _WS.sub(" ", soup.title.string).strip()
-    og = soup.find("meta", attrs={"property": "og:title"})
-    if og and og.get("content", "").strip():
-        return og["content"].strip()
+    for meta in scan.metas:
+        if meta.get("property") == "og:title" and (meta.get("content") or "").strip():
+            return meta["content"].strip()
     return None
 
 
-def _content_root(soup: BeautifulSoup) -> Tag | None:
-    main = soup.find("main") or soup.find(attrs={"role": "main"})
-    if main is None:
-        articles = soup.find_all("article")
-        main = articles[0] if len(articles) == 1 else None
-    return main or soup.body or soup
+_PERMALINK = {"¶", "§", "#", "🔗"}
 
 
 def _dropped(tag: Tag, inside_root: bool) -> bool:
     if tag.name in _DROP or (tag.name in _CHROME and not inside_root):
         return True
+    # Documentation generators append permalink anchors ("¶") to headings and definitions.
+    if tag.name == "a" and (tag.get("href") or "").startswith("#") and tag.get_text().strip() in _PERMALINK:
+        return True
     if tag.get("hidden") is not None or tag.get("aria-hidden") == "true" or tag.get("role") in ("navigation", "banner", "contentinfo"):
         return True
-    marker = " ".join(filter(None, [tag.get("id") or "", " ".join(tag.get("class") or [])]))
+    marker = f"{tag.get('id') or ''} {tag.get('class') or ''}".strip()
     return bool(marker and _BANNER.search(marker))
 
 
@@ -172,7 +204,7 @@ def _blocks(root: Tag, keep_chrome: bool) -> list[Block]:
             continue
         if name in _HEADINGS:
             end_block()
-            title = _WS.sub(" ", item.get_text(" ")).strip()
+            title = _WS.sub(" ", item.get_text(" ")).strip().rstrip("¶§🔗 ")
             if title:
                 level = _HEADINGS[name]
                 while headings and headings[-1][0] >= level:
@@ -202,9 +234,9 @@ def _blocks(root: Tag, keep_chrome: bool) -> list[Block]:
     return blocks
 
 
-def _dates(soup: BeautifulSoup) -> list[MetaDate]:
+def _dates(scan: _Scan) -> list[MetaDate]:
     found: list[MetaDate] = []
-    for script in soup.find_all("script", attrs={"type": re.compile(r"application/ld\+json", re.I)}):
+    for script in scan.scripts:
         try:
             data = json.loads(script.string or "")
         except (json.JSONDecodeError, TypeError, RecursionError):
@@ -215,23 +247,23 @@ def _dates(soup: BeautifulSoup) -> list[MetaDate]:
                 found.append(MetaDate(d, kind, f"jsonld:{key}"))
     used = set()
     for key, kind in _JSONLD_KEYS:
-        tag = soup.find(attrs={"itemprop": key})
+        tag = scan.itemprops.get(key)
         if tag is not None:
             used.add(id(tag))
             value = tag.get("content") or tag.get("datetime") or tag.get_text()
             parse = parse_time_element if tag.name == "time" else parse_w3c_datetime
             if d := parse(value.strip()):
                 found.append(MetaDate(d, kind, f"microdata:{key}"))
-    metas = soup.find_all("meta")
+    metas = scan.metas
     for attr, name, kind, source in _META:
         for meta in metas:
             if (meta.get(attr) or "").strip().lower() == name and (d := parse_w3c_datetime(meta.get("content"))):
                 found.append(MetaDate(d, kind, source))
                 break
-    for time in soup.find_all("time"):
+    for time in scan.times:
         if id(time) in used:
             continue
-        hint = " ".join(filter(None, [time.get("itemprop"), " ".join(time.get("class") or []),
+        hint = " ".join(filter(None, [time.get("itemprop"), time.get("class"),
                                       "updated" if time.has_attr("pubdate") else None, _preceding_text(time)]))
         for kind, pattern in _TIME_HINTS:
             if pattern.search(hint):

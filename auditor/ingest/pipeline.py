@@ -107,16 +107,21 @@ def run_tasks(tasks: list, target: Callable, settings, *, jobs: int, timeout: fl
     pending = list(reversed(tasks))
     workers = [_Worker(ctx, target, settings, init) for _ in range(max(1, min(jobs, len(tasks))))]
     startup_failures = 0
+
+    def assign() -> None:
+        for w in workers:
+            if w.ready and w.task is None and pending:
+                w.task = pending.pop()
+                w.conn.send(w.task)
+                w.deadline = time.monotonic() + timeout
+
     try:
         while pending or any(w.task is not None for w in workers):
-            for w in workers:
-                if w.ready and w.task is None and pending:
-                    w.task = pending.pop()
-                    w.conn.send(w.task)
-                    w.deadline = time.monotonic() + timeout
+            assign()
             deadlines = [w.deadline for w in workers if w.task is not None]
             wait_for = max(0.0, min(deadlines) - time.monotonic()) if deadlines else None
             ready = wait([w.conn for w in workers], timeout=wait_for)
+            finished = []
             for i, w in enumerate(workers):
                 if w.conn in ready:
                     try:
@@ -127,7 +132,7 @@ def run_tasks(tasks: list, target: Callable, settings, *, jobs: int, timeout: fl
                         w.stop(kill=True)
                         workers[i] = _Worker(ctx, target, settings, init)
                         if task is not None:
-                            yield task, "crash", code
+                            finished.append((task, "crash", code))
                         else:
                             startup_failures += 1
                             if startup_failures > 3:
@@ -136,13 +141,16 @@ def run_tasks(tasks: list, target: Callable, settings, *, jobs: int, timeout: fl
                     if status == "ready":
                         w.ready = True
                         continue
-                    task, w.task, w.deadline = w.task, None, None
-                    yield task, status, value
+                    finished.append((w.task, status, value))
+                    w.task, w.deadline = None, None
                 elif w.task is not None and time.monotonic() >= w.deadline:
-                    task = w.task
+                    finished.append((w.task, "timeout", timeout))
                     w.stop(kill=True)
                     workers[i] = _Worker(ctx, target, settings, init)
-                    yield task, "timeout", timeout
+            # Hand out the next files before the caller writes these results, so that workers
+            # parse while the main process writes to SQLite.
+            assign()
+            yield from finished
     finally:
         for w in workers:
             w.stop(kill=w.task is not None)
@@ -362,6 +370,8 @@ def ingest_corpus(store, config, *, paths=None, jobs=None, progress=False) -> In
     settings = _Settings(config.retrieval.language, config.retrieval.stopwords, corpus.day_first,
                          corpus.fiscal_year_start, corpus.hemisphere)
     jobs = jobs or corpus.jobs or os.cpu_count() or 1
+    # Largest files first: with a few big files among many small ones, the pool stays busy to the end.
+    tasks.sort(key=lambda t: -by_path[t["doc_path"]].size)
     vocabulary = Vocabulary(store)
     bar = _Progress(len(tasks)) if progress and sys.stderr.isatty() else None
     for task, status, value in run_tasks(tasks, parse_file, settings, jobs=jobs, timeout=corpus.timeout_s,
