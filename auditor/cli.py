@@ -255,7 +255,7 @@ def search(query, config_path, db, k, as_json):
 @click.option("--labels", required=True, type=click.Path(dir_okay=False), help="Labelled questions CSV.")
 @config_option
 @db_option
-@click.option("--target-precision", type=click.FloatRange(0, 1), help="Pick the lowest threshold reaching this gap precision.")
+@click.option("--target-precision", type=click.FloatRange(0, 1), help="Pick the threshold that finds the most gaps while keeping this gap precision.")
 @click.option("--holdout", is_flag=True, help="Also hide each question's expected documents and measure the gap verdict.")
 def calibrate(labels, config_path, db, target_precision, holdout):
     """Choose support thresholds from labelled questions; later audits use them."""
