@@ -40,25 +40,29 @@ def _words(text: str) -> int:
     return len(_WORD.findall(text))
 
 
-def _pieces(text: str) -> list[tuple[int, int]]:
-    """(start, end) spans of `text`, each at most MAX_WORDS words, cut at sentence ends."""
+def _pieces(text: str, first_budget: int = TARGET_WORDS) -> list[tuple[int, int]]:
+    """(start, end) spans of `text` cut at sentence ends: the first of at most `first_budget`
+    words (room left after a heading), the others of at most TARGET_WORDS; a sentence longer
+    than that is cut at word boundaries."""
+    first_budget = max(1, min(first_budget, TARGET_WORDS))
     cuts = [0] + [m.end() for m in _SENTENCE_END.finditer(text)] + [len(text)]
-    sentences = [(a, b) for a, b in zip(cuts, cuts[1:]) if text[a:b].strip()]
+    units: list[tuple[int, int, int]] = []  # (start, end, words)
+    for a, b in zip(cuts, cuts[1:]):
+        words = list(_WORD.finditer(text, a, b))
+        if not words:
+            continue
+        size = first_budget if not units else TARGET_WORDS
+        while len(words) > size:  # one enormous "sentence"
+            units.append((words[0].start(), words[size - 1].end(), size))
+            words = words[size:]
+            size = TARGET_WORDS
+        units.append((words[0].start(), words[-1].end() if b == len(text) else b, len(words)))
     spans: list[tuple[int, int]] = []
     start = end = None
     count = 0
-    for a, b in sentences:
-        n = _words(text[a:b])
-        if n > MAX_WORDS:  # one enormous "sentence": cut at word boundaries
-            if start is not None:
-                spans.append((start, end))
-                start, count = None, 0
-            words = list(_WORD.finditer(text, a, b))
-            for i in range(0, len(words), TARGET_WORDS):
-                chunk = words[i:i + TARGET_WORDS]
-                spans.append((chunk[0].start(), chunk[-1].end()))
-            continue
-        if start is not None and count + n > TARGET_WORDS:
+    for a, b, n in units:
+        limit = first_budget if not spans else TARGET_WORDS
+        if start is not None and count + n > limit:
             spans.append((start, end))
             start, count = None, 0
         if start is None:
@@ -107,8 +111,9 @@ def segment(blocks: list[Block]) -> list[Passage]:
         heading = is_heading(block)
         if current and (content and heading or block.page != current[0][0].page):
             flush()
-        if not heading and n > MAX_WORDS:
-            spans = _pieces(block.text)
+        room = MAX_WORDS - (words if current and not content else 0)  # after a heading
+        if not heading and n > room:
+            spans = _pieces(block.text, room)
             for i, (a, b) in enumerate(spans):
                 piece = Block(block.text[a:b], block.heading_path, block.page)
                 pn = _words(piece.text)

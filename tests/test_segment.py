@@ -50,7 +50,7 @@ def test_pages_are_not_mixed():
     assert [p.page for p in segment(blocks)] == [1, 2]
 
 
-@settings(max_examples=60, deadline=None)
+@settings(max_examples=300, deadline=None)
 @given(st.lists(st.tuples(st.integers(0, 400), st.integers(0, 3), st.booleans()), min_size=1, max_size=12))
 def test_offsets_always_slice_the_document_text(spec):
     blocks = []
