@@ -10,11 +10,14 @@ from auditor.config import Config, CorpusConfig
 
 
 def make_pdf(pages: list[str], *, sections: list[tuple[int, str, int]] | None = None,
-             info: dict[str, str] | None = None, xmp: str | None = None, title: str | None = None) -> bytes:
+             info: dict[str, str] | None = None, xmp: str | None = None, title: str | None = None,
+             outline: bool = True) -> bytes:
     """A text PDF with one page per entry of `pages`.
 
     `sections`: (page number from 1, title, outline level from 0) — the title is written as a line
     at the top of that page and added to the outline (fpdf2 `start_section`).
+    With `outline=False` the titles are only set in bold, 16 pt for level 0 and 13 pt below, as
+    headings look in a PDF without bookmarks.
     `info`: Info dictionary entries set through pypdf, e.g. {"/ModDate": "D:20240301120000Z"}.
     `xmp`: an XMP packet (RDF/XML) embedded with fpdf2's set_xmp_metadata.
     """
@@ -32,8 +35,12 @@ def make_pdf(pages: list[str], *, sections: list[tuple[int, str, int]] | None = 
     for number, text in enumerate(pages, 1):
         pdf.add_page()
         for name, level in by_page.get(number, []):
-            pdf.start_section(name, level=level)
+            if outline:
+                pdf.start_section(name, level=level)
+            else:
+                pdf.set_font("Helvetica", "B", 16 if level == 0 else 13)
             pdf.multi_cell(0, 6, name, new_x="LMARGIN", new_y="NEXT")
+            pdf.set_font("Helvetica", size=11)
             pdf.ln(4)
         pdf.multi_cell(0, 6, text, new_x="LMARGIN", new_y="NEXT")
     data = bytes(pdf.output())

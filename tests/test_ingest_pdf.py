@@ -29,6 +29,20 @@ def test_text_per_page_with_outline_headings():
                         ("Commercial", ("Rates", "Commercial"), 2), ("Fees", ("Fees",), 3)]
 
 
+def test_headings_from_fonts_when_there_is_no_outline():
+    body = "Residential rates apply to homes. " * 8  # several lines of 11 pt body text
+    data = make_pdf([body, COMMERCIAL + " " + FEES], outline=False,
+                    sections=[(1, "Rate schedule", 0), (1, "Residential", 1), (2, "Commercial", 1)])
+    doc = parse_pdf(data, "rates.pdf")
+    assert [(b.text, b.heading_path, b.page) for b in doc.blocks] == [
+        ("Rate schedule", ("Rate schedule",), 1),
+        ("Residential", ("Rate schedule", "Residential"), 1),
+        (body.strip(), ("Rate schedule", "Residential"), 1),
+        ("Commercial", ("Rate schedule", "Commercial"), 2),
+        (COMMERCIAL + " " + FEES, ("Rate schedule", "Commercial"), 2),
+    ]
+
+
 def test_pages_without_outline():
     doc = parse_pdf(make_pdf(["First page text.", "Second page text."]), "plain.pdf")
     assert [(b.text, b.heading_path, b.page) for b in doc.blocks] == [

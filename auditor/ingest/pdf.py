@@ -20,7 +20,6 @@ from .walk import IngestFailure
 
 logging.getLogger("pypdf").setLevel(logging.ERROR)  # its warnings would flood the progress bar
 
-_PARAGRAPH_BREAK = re.compile(r"\n[ \t]*\n+")
 _HYPHEN_BREAK = re.compile(r"(\w)-\n(\w)")
 _SENTENCE_END = re.compile(r"[.!?:;)\]]$")
 
@@ -41,7 +40,8 @@ def parse_pdf(data: bytes, path: str) -> ParsedDocument:
                 raise IngestFailure("encrypted", path, f"encrypted PDF; cannot decrypt ({exc})") from None
             if not ok:
                 raise IngestFailure("encrypted", path, "encrypted PDF, no password given (the empty password does not open it)")
-        pages = [_page_text(page) for page in reader.pages]
+        runs: list[list[tuple[str, float, bool]]] = []
+        pages = [_page_text(page, runs) for page in reader.pages]
         outline = _outline(reader)
         dates = _dates(reader)
         title = _title(reader)
@@ -56,7 +56,10 @@ def parse_pdf(data: bytes, path: str) -> ParsedDocument:
         raise IngestFailure("empty", path, "PDF has no pages")
     if not any(p.strip() for p in pages):
         raise IngestFailure("needs_ocr", path, f"PDF has no text layer on any of its {len(pages)} pages (scanned?); needs OCR")
-    blocks = _blocks(pages, outline)
+    if outline:
+        blocks = _blocks(pages, _outline_headings(outline))
+    else:
+        blocks = _blocks(pages, _font_headings(runs), prefix=False)
     return ParsedDocument(blocks=blocks, title=title or next((t for t, _, _ in outline), None), dates=dates)
 
 
@@ -71,8 +74,29 @@ def _one_line(exc: Exception) -> str:
     return " ".join(str(exc).split())[:160]
 
 
-def _page_text(page) -> str:
-    text = page.extract_text() or ""
+def _page_text(page, runs: list) -> str:
+    """The page's text; appends the page's text runs as (text, effective font size, bold), runs
+    on one line in one font merged (TeX writes a line as many small runs)."""
+    page_runs: list[list] = []  # [text, size, bold, line key]
+
+    def visit(text, cm, tm, font, size):
+        if not text or not text.strip():
+            return
+        try:
+            scale = abs(float(tm[3]) * float(cm[3])) or 1.0
+            name = str((font or {}).get("/BaseFont", ""))
+            line = (round(float(tm[5]), 1), round(float(cm[5]), 1))
+        except Exception:
+            scale, name, line = 1.0, "", None
+        size, bold = round(float(size or 0) * scale, 1), "Bold" in name or "Black" in name
+        last = page_runs[-1] if page_runs else None
+        if last and last[1] == size and last[2] == bold and last[3] == line and line is not None:
+            last[0] += text
+        else:
+            page_runs.append([text, size, bold, line])
+
+    text = page.extract_text(visitor_text=visit) or ""
+    runs.append([(" ".join(t.split()), size, bold) for t, size, bold, _ in page_runs])
     text = text.replace("\r\n", "\n").replace("\r", "\n").replace("\x00", "")
     return _HYPHEN_BREAK.sub(r"\1\2", text)
 
@@ -107,67 +131,114 @@ def _outline(reader) -> list[tuple[str, int, int]]:
     return out
 
 
-def _paragraphs(text: str) -> list[str]:
-    """Blank lines end paragraphs; so does a short line ending a sentence (text extraction
-    rarely keeps blank lines)."""
-    out = []
-    for chunk in _PARAGRAPH_BREAK.split(text):
-        lines = [line.strip() for line in chunk.split("\n") if line.strip()]
-        if not lines:
-            continue
-        width = max(len(line) for line in lines)
-        current: list[str] = []
-        for line in lines:
-            current.append(line)
-            if _SENTENCE_END.search(line) and len(line) < 0.7 * width:
-                out.append(" ".join(current))
-                current = []
-        if current:
-            out.append(" ".join(current))
-    return out
-
-
-def _blocks(pages: list[str], outline: list[tuple[str, int, int]]) -> list[Block]:
-    blocks: list[Block] = []
-    headings: list[tuple[int, str]] = []
+def _outline_headings(outline: list[tuple[str, int, int]]) -> dict[int, list[tuple[str, int]]]:
     by_page: dict[int, list[tuple[str, int]]] = {}
     for title, page, level in outline:
         by_page.setdefault(page, []).append((title, level))
+    return by_page
+
+
+def _font_headings(runs: list[list[tuple[str, float, bool]]]) -> dict[int, list[tuple[str, int]]]:
+    """Headings of a PDF without an outline, from the text layer's fonts: short runs set larger
+    than the body text (the size carrying most characters), or in bold at body size when the body
+    is not bold. Larger sizes are higher levels."""
+    chars: dict[float, int] = {}
+    bold_chars = total = 0
+    for page in runs:
+        for text, size, bold in page:
+            chars[size] = chars.get(size, 0) + len(text)
+            total += len(text)
+            bold_chars += len(text) if bold else 0
+    if not chars:
+        return {}
+    body = max(chars, key=chars.get)
+    bold_headings = bold_chars < 0.3 * total
+
+    def is_heading(text: str, size: float, bold: bool) -> bool:
+        if len(text.split()) > 15 or text.endswith((".", ",", ";")) or sum(c.isalpha() for c in text) < 3:
+            return False
+        return size >= body * 1.15 or (bold_headings and bold and size >= body * 0.95)
+
+    sizes = sorted({size for page in runs for text, size, bold in page if is_heading(text, size, bold)
+                    and size >= body * 1.15}, reverse=True)
+    level_of = {size: i + 1 for i, size in enumerate(sizes)}
+    out: dict[int, list[tuple[str, int]]] = {}
+    for index, page in enumerate(runs):
+        for text, size, bold in page:
+            if is_heading(text, size, bold):
+                out.setdefault(index, []).append((text, level_of.get(size, len(sizes) + 1)))
+    return out
+
+
+def _after(line: str, title: str) -> str:
+    """What follows `title` on `line` (an outline title may open a line of body text)."""
+    need = len("".join(title.split()))
+    for i, ch in enumerate(line):
+        if need == 0:
+            return line[i:].strip()
+        if not ch.isspace():
+            need -= 1
+    return ""
+
+
+def _same_line(line: str, title: str, prefix: bool) -> bool:
+    # Compared without spaces: text extraction and the font runs space words differently.
+    a, b = "".join(line.split()), "".join(title.split())
+    return a.startswith(b) if prefix else a == b
+
+
+def _blocks(pages: list[str], headings: dict[int, list[tuple[str, int]]], *, prefix: bool = True) -> list[Block]:
+    """Blocks per page: paragraphs end at blank lines and at a short line ending a sentence (text
+    extraction rarely keeps blank lines); a line that starts with an expected heading of the page
+    becomes a heading block, and headings not found in the text apply from the page top."""
+    blocks: list[Block] = []
+    stack: list[tuple[int, str]] = []
 
     def enter(title: str, level: int) -> None:
-        while headings and headings[-1][0] >= level:
-            headings.pop()
-        headings.append((level, title))
+        while stack and stack[-1][0] >= level:
+            stack.pop()
+        stack.append((level, title))
 
     for index, text in enumerate(pages):
-        pieces: list[tuple[str | None, int, str]] = []  # (heading title, level, text after it)
-        rest = text
-        for title, level in by_page.get(index, []):
-            at = _find_heading(rest, title)
-            if at is None:
-                pieces.append((title, level, ""))
-                continue
-            pieces.append((None, 0, rest[:at]))
-            pieces.append((title, level, ""))
-            rest = rest[at + len(title):] if rest[at:at + len(title)] == title else rest[at:].split("\n", 1)[-1]
-        pieces.append((None, 0, rest))
-        for title, level, chunk in pieces:
-            if title is not None:
+        lines = text.split("\n")
+        expected = headings.get(index, [])
+        at: dict[int, tuple[str, int]] = {}
+        position = 0
+        for title, level in expected:
+            found = next((i for i in range(position, len(lines)) if i not in at
+                          and _same_line(lines[i], title, prefix)), None)
+            if found is None:
+                if not prefix:  # a font heading not found as a line: not a heading after all
+                    continue
                 enter(title, level)
-                blocks.append(Block(title, tuple(h for _, h in headings), index + 1))
-            for para in _paragraphs(chunk):
-                blocks.append(Block(para, tuple(h for _, h in headings), index + 1))
+                blocks.append(Block(title, tuple(h for _, h in stack), index + 1))
+            else:
+                at[found] = (title, level)
+                position = found + 1
+        width = max((len(line.strip()) for line in lines), default=0)
+        paragraph: list[str] = []
+
+        def flush() -> None:
+            if paragraph:
+                blocks.append(Block(" ".join(paragraph), tuple(h for _, h in stack), index + 1))
+                paragraph.clear()
+
+        for i, raw in enumerate(lines):
+            line = raw.strip()
+            if i in at:
+                flush()
+                title, level = at[i]
+                enter(title, level)
+                blocks.append(Block(title, tuple(h for _, h in stack), index + 1))
+                line = _after(line, title)
+            if not line:
+                flush()
+                continue
+            paragraph.append(line)
+            if _SENTENCE_END.search(line) and len(line) < 0.7 * width:
+                flush()
+        flush()
     return blocks
-
-
-def _find_heading(text: str, title: str) -> int | None:
-    """Offset of `title` at the start of a line of `text` (whitespace-insensitive), or None."""
-    words = title.split()
-    if not words:
-        return None
-    pattern = re.compile(r"(?m)^[ \t]*" + r"\s+".join(re.escape(w) for w in words))
-    m = pattern.search(text)
-    return m.start() if m else None
 
 
 def _dates(reader) -> list[MetaDate]:
