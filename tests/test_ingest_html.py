@@ -149,8 +149,14 @@ def test_charset_from_meta_windows_1252():
     assert doc.blocks[0].text == "Café – 2€"
 
 
+def test_charset_from_xml_declaration():
+    page = '<?xml version="1.0" encoding="ISO-8859-1"?><html><body><p>Gr\xfc\xdfe</p></body></html>'
+    assert parse_html(page.encode("latin-1"), "x.xhtml").blocks[0].text == "Grüße"
+
+
 def test_charset_detected_when_undeclared():
-    # No BOM and no meta: UTF-8 is tried first, then cp1252.
+    # No BOM and no meta: UTF-8 when valid, else windows-1252 (WHATWG HTML §13.2.3.1: the
+    # implementation-defined default is windows-1252 for English-language locales).
     page = "<html><body><p>Caf\xe9 r\xe9sum\xe9</p></body></html>"
     assert parse_html(page.encode("utf-8"), "u.html").blocks[0].text == "Café résumé"
     assert parse_html(page.encode("cp1252"), "w.html").blocks[0].text == "Café résumé"

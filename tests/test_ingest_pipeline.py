@@ -4,8 +4,7 @@ owners, tokens and statements. Documents are built inside the tests (fpdf2/pypdf
 from __future__ import annotations
 
 import json
-import os
-import time
+from datetime import date
 
 import numpy as np
 import pytest
@@ -18,7 +17,7 @@ from auditor.vocabulary import Vocabulary
 from ingest_helpers import config_for, html_page, make_pdf, words, write_tree, xmp_packet
 
 FEES_MD = ("---\ntitle: Late fees\nowner: Billing\nupdated: 2024-03-01\nexpires: 2025-01-01\ntags: [fees, billing]\n---\n"
-           "# Billing\n\n## Late fees\n\nAs of March 2024 a late fee of 5% applies to unpaid bills.\n\n"
+           "# Billing\n\n## Late fees\n\nAs of March 2024 a late fee of 5% applies to unpaid bills. It changed last month.\n\n"
            "## Paying\n\nPay by phone or online.\n")
 
 
@@ -76,12 +75,17 @@ def test_all_formats_land_in_the_store(tmp_path, corpus):
             assert p["token_count"] == len(ids)
         # Statements are temporal.extract over the passage text with the document date as reference.
         fee_passage = next(p for p in passages if "late fee" in p["text"])
-        stored = store.query("SELECT expression, start, end, char_start, char_end FROM statements WHERE passage_id = ?",
-                             [fee_passage["id"]])
-        expected = temporal.extract(fee_passage["text"], reference_date=None)
-        assert [(s["expression"], s["start"], s["char_start"]) for s in stored] == \
-               [(e.expression, e.start.isoformat(), e.char_start) for e in expected]
-        assert stored and stored[0]["expression"] == "March 2024"
+        stored = store.query("SELECT expression, sentence, start, end, granularity, role, char_start, char_end "
+                             "FROM statements WHERE passage_id = ? ORDER BY id", [fee_passage["id"]])
+        # The document date (front matter updated: 2024-03-01) anchors relative expressions.
+        expected = temporal.extract(fee_passage["text"], reference_date=date(2024, 3, 1))
+        assert [tuple(s.values()) for s in stored] == [
+            (e.expression, e.text, e.start.isoformat(), e.end.isoformat(), e.granularity, e.role, e.char_start, e.char_end)
+            for e in expected]
+        assert [s["expression"] for s in stored] == ["March 2024", "last month"]
+        assert stored[1]["start"] == "2024-02-01"  # "last month" seen from 2024-03-01
+        for s in stored:
+            assert fee_passage["text"][s["char_start"]:s["char_end"]] == s["expression"]
 
 
 def test_rerun_parses_nothing_and_one_change_reparses_one_file(tmp_path, corpus):

@@ -68,3 +68,11 @@ def test_offsets_always_slice_the_document_text(spec):
     # Nothing but separators and trailing headings is left out.
     covered = " ".join(text[p.char_start:p.char_end] for p in passages)
     assert n_words(covered) >= sum(n_words(b.text) for b in blocks if not b.heading_path)
+
+
+def test_a_heading_counts_against_the_word_limit():
+    # Found by the property test above: heading (2 words) + a 249-word paragraph.
+    blocks = [Block("Heading 0", ("Heading 0",)), Block(words(249), ("Heading 0",))]
+    passages = segment(blocks)
+    assert all(n_words(p.text) <= MAX_WORDS for p in passages)
+    assert passages[0].text.startswith("Heading 0\n\n") and len(passages) == 2

@@ -8,6 +8,10 @@ Dates, most specific first (DESIGN.md §3.1): schema.org in JSON-LD (dateModifie
 expires), schema.org microdata (itemprop), Open Graph (article:modified_time, og:updated_time,
 article:published_time, article:expiration_time), Dublin Core (DCTERMS.modified, DC.date...),
 <time datetime> marked as an update/publication date, <meta http-equiv="last-modified">.
+
+Charset, after the WHATWG encoding-sniffing steps: byte-order mark, then the <meta> prescan (or
+an XHTML XML declaration), then UTF-8 when the bytes are valid UTF-8, else windows-1252 — the
+standard's default for English-language locales.
 """
 
 from __future__ import annotations
@@ -36,7 +40,10 @@ _BLOCKS = {"p", "div", "section", "article", "main", "blockquote", "pre", "ul", 
            "caption", "thead", "tbody", "tfoot", "center"}
 _LINES = {"li", "tr", "dt", "dd", "br"}
 _CELLS = {"td", "th"}
-_META_CHARSET = re.compile(rb"""<meta[^>]+charset\s*=\s*["']?([A-Za-z0-9_\-:.]+)""", re.I)
+# WHATWG HTML §13.2.3.2 prescan: <meta charset> or <meta http-equiv content="...; charset=...">;
+# an XHTML file's XML declaration names its encoding the same way.
+_META_CHARSET = re.compile(rb"""<meta[^>]+charset\s*=\s*["']?([A-Za-z0-9_\-:.]+)"""
+                           rb"""|<\?xml[^>]+encoding\s*=\s*["']([A-Za-z0-9_\-:.]+)""", re.I)
 _WS = re.compile(r"[ \t\r\n\f\u00a0]+")
 
 _JSONLD_KEYS = [("dateModified", "modified"), ("datePublished", "published"), ("expires", "expires")]
@@ -63,7 +70,7 @@ def _charset(data: bytes) -> str | None:
     m = _META_CHARSET.search(data[:4096])
     if not m:
         return None
-    name = m.group(1).decode("ascii", "replace").lower()
+    name = (m.group(1) or m.group(2)).decode("ascii", "replace").lower()
     # WHATWG Encoding: "iso-8859-1" and "ascii" labels mean windows-1252.
     return "cp1252" if name in ("iso-8859-1", "latin1", "us-ascii", "ascii", "windows-1252") else name
 

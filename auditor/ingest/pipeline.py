@@ -14,6 +14,9 @@ What an owner can expect:
 
 Only the main process writes to SQLite; workers read, detect, parse, segment, tokenize and extract
 dated statements (the CPU-heavy part) and send plain data back.
+
+This module holds three parts (the timeout-safe process pool, the per-file work done in a worker,
+and the store writes); it is past 400 lines because the pool has no module of its own yet.
 """
 
 from __future__ import annotations
