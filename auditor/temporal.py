@@ -26,11 +26,13 @@ import re
 from datetime import date
 
 from .models import TemporalExpression
-from .temporal_patterns import (CANDIDATES, MODIFIER_BEFORE, MODIFIERS, RANGE_JOIN, RANGE_OPEN, STARTS, Atom,
+from .temporal_patterns import (DIGIT_CANDIDATES, MODIFIER_BEFORE, WORD_CANDIDATES, MODIFIERS, RANGE_JOIN, RANGE_OPEN, STARTS, Atom,
                                 month_end, month_span, narrow, parse_candidate)
 from .temporal_roles import role_for
 
 __all__ = ["extract", "timex3"]
+
+_DIGITS = frozenset("0123456789'")
 
 # --- sentences -------------------------------------------------------------------------------------
 
@@ -134,7 +136,8 @@ def extract(text: str, reference_date: date | None = None, *, day_first: bool = 
     for start in STARTS.finditer(text):
         if start.start() < scanned_to:
             continue
-        m = CANDIDATES.match(text, start.start())
+        at = start.start()
+        m = (DIGIT_CANDIDATES if text[at] in _DIGITS else WORD_CANDIDATES).match(text, at)
         if m is None:
             continue
         scanned_to = m.end()

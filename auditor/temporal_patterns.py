@@ -97,13 +97,13 @@ _ALTERNATIVES = [
     # "two weeks ago", "3 days ago", "a month ago"
     ("ago", rf"(?i:\b(?P<agn>{COUNT})\s+(?P<agu>{_UNIT})\s+ago\b)"),
     # "in two weeks", "in 30 days" (not "within": a duration, not a date)
-    ("inrel", rf"(?i:\bin\s+(?P<inn>{COUNT})\s+(?P<inu>{_UNIT})(?!\s+(?:ago|of|to|in|per|or|and)\b)\b)"),
+    ("inrel", rf"(?i:\bin\s+(?P<inn>{COUNT})\s+(?P<inu>{_UNIT})(?!\s+(?:ago|of|to|in|per)\b)\b)"),
     # "the past 12 months", "the next two weeks"
     ("rolling", rf"(?i:\b(?:the\s+)?(?P<rod>past|last|previous|next|coming|following)\s+(?P<ron>{COUNT})\s+"
                 rf"(?P<rou>(?:day|week|month|year)s)\b)"),
-    # "last month", "next quarter", "this fiscal year", "next Monday"
     # "next July", "last March": a capital month name only ("this may take a day" is no date)
     ("monthrel", rf"(?i:\b(?P<mdir>last|this|next|coming|previous|following)\s+)(?P<mrel>{_FULL_MONTHS})\b"),
+    # "last month", "next quarter", "this fiscal year", "next Monday"
     ("relative", rf"(?i:\b(?P<rdir>last|this|next|past|coming|previous|current|following)\s+(?P<runit>{_REL_UNIT})\b)"),
     ("deictic", r"(?i:\b(?P<dx>yesterday|today|tomorrow)\b)"),
     # a bare year: kept only next to a cue (year_in_context)
@@ -111,13 +111,25 @@ _ALTERNATIVES = [
 ]
 
 CANDIDATES = re.compile("|".join(f"(?P<{name}>{body})" for name, body in _ALTERNATIVES))
+# The same alternation split by what a candidate starts with, so that a position tries only the
+# forms that can begin there (the order within each stays that of _ALTERNATIVES).
+_DIGIT_FIRST = {"isoweek", "isodate", "isoordinal", "quarter", "half", "fiscalrange", "decade", "dmrange", "dmy",
+                "numeric", "yearrange", "ago", "year"}
+_WORD_FIRST = {"quarter", "half", "fiscal", "season", "decade", "mdrange", "mmrange", "mdy", "dmy", "monthyear",
+               "ago", "inrel", "rolling", "monthrel", "relative", "deictic"}
+DIGIT_CANDIDATES = re.compile("|".join(f"(?P<{n}>{b})" for n, b in _ALTERNATIVES if n in _DIGIT_FIRST))
+WORD_CANDIDATES = re.compile("|".join(f"(?P<{n}>{b})" for n, b in _ALTERNATIVES if n in _WORD_FIRST))
+assert _DIGIT_FIRST | _WORD_FIRST == {n for n, _ in _ALTERNATIVES}
 
 # Where a candidate can begin. Trying the whole alternation only at these word starts, instead of
 # at every character, is what makes the scan cheap (about ten times faster on help-centre text).
-_STARTER_WORDS = ("the|first|second|third|fourth|last|final|spring|summer|fall|autumn|winter|this|next|"
-                  "past|previous|coming|current|following|yesterday|today|tomorrow|in|" + "|".join(NUMBER_WORDS))
+_STARTER_WORDS = ("first|second|third|fourth|last|final|spring|summer|fall|autumn|winter|this|next|"
+                  "past|previous|coming|current|following|yesterday|today|tomorrow")
+# frequent small words start a candidate only before what can follow them there
+_STARTER_PHRASES = (r"the\s+(?:first|second|third|fourth|1st|2nd|3rd|4th|last|final|past|previous|next|coming|"
+                    rf"following|\d|')|in\s+{COUNT}\s|(?:{COUNT})\s+{_UNIT}\s+ago\b")
 STARTS = re.compile(rf"(?<!\w)(?=['\d]|Q[1-4]|H[12]|FY|F\.Y\.|(?:[Ff]iscal|{MONTH_NAMES}|{WEEKDAY_NAMES}|"
-                    rf"(?i:{_STARTER_WORDS}))\b)")
+                    rf"(?i:{_STARTER_WORDS}))\b|(?i:{_STARTER_PHRASES}))")
 
 # "early 2023", "mid-2022", "the end of this year", "late March 2024"
 MODIFIER_BEFORE = re.compile(
@@ -192,7 +204,7 @@ def month_end(year: int, month: int) -> date:
     return date(year, month, calendar.monthrange(year, month)[1])
 
 
-def _addmonths(day: date, months: int) -> date:
+def _add_months(day: date, months: int) -> date:
     index = day.year * 12 + day.month - 1 + months
     year, month = divmod(index, 12)
     return date(year, month + 1, min(day.day, calendar.monthrange(year, month + 1)[1]))
@@ -201,8 +213,8 @@ def _addmonths(day: date, months: int) -> date:
 def month_span(year: int, first: int, count: int) -> tuple[date, date]:
     """`count` months from month `first` of `year` (which may run past December)."""
     start = date(year, 1, 1)
-    start = _addmonths(start, first - 1)
-    return start, _addmonths(start, count) - timedelta(days=1)
+    start = _add_months(start, first - 1)
+    return start, _add_months(start, count) - timedelta(days=1)
 
 
 def _iso_week(year: int, week: int) -> date:
@@ -332,7 +344,7 @@ def _day_atom(m, a, month: int, day: int, year: str | None) -> Atom | None:
 def parse_candidate(m, ctx) -> Atom | None:
     """Turn the candidate match `m` into an atom, or None when it is not a date after all."""
     kind = m.lastgroup
-    g = m.group
+    g = m.groupdict().get  # the digit- and word-first alternations hold different groups
     s, e = m.start(kind), m.end(kind)
     if kind in ("isodate", "numeric", "isoordinal") and IDENTIFIER_BEFORE.search(ctx["text"], max(0, s - 20), s):
         return None
@@ -441,7 +453,7 @@ def parse_candidate(m, ctx) -> Atom | None:
         if unit_name == "fortnight":
             count, unit_name = count * 2, "week"
         if unit_name == "quarter":  # dateparser has no quarters
-            point = _addmonths(ref, 3 * count * (-1 if kind == "ago" else 1))
+            point = _add_months(ref, 3 * count * (-1 if kind == "ago" else 1))
         else:
             span = f"{count} {unit_name}s ago" if kind == "ago" else f"in {count} {unit_name}s"
             point = _relative_point(span, unit_name, ref)
@@ -454,9 +466,9 @@ def parse_candidate(m, ctx) -> Atom | None:
         forward = g("rod").lower() in ("next", "coming", "following")
         span = {"day": timedelta(days=count), "week": timedelta(weeks=count)}.get(unit)
         if forward:
-            last = ref + span if span else _addmonths(ref, count * (12 if unit == "year" else 1))
+            last = ref + span if span else _add_months(ref, count * (12 if unit == "year" else 1))
             return Atom(s, e, unit, ref, last, future=True, relative=True)
-        first = ref - span if span else _addmonths(ref, -count * (12 if unit == "year" else 1))
+        first = ref - span if span else _add_months(ref, -count * (12 if unit == "year" else 1))
         return Atom(s, e, unit, first, ref, past=True, relative=True)
     if kind == "monthrel":
         month, direction = MONTH_NUMBERS[g("mrel").lower()], g("mdir").lower()
@@ -478,7 +490,7 @@ def parse_candidate(m, ctx) -> Atom | None:
             first, last = _fiscal_year(label, fys)
             return Atom(s, e, "year", first, last, future=step > 0, past=step < 0, relative=True)
         months = {"week": 0, "month": 1, "quarter": 3, "year": 12}[unit]
-        point = ref + timedelta(weeks=step) if unit == "week" else _addmonths(ref, months * step)
+        point = ref + timedelta(weeks=step) if unit == "week" else _add_months(ref, months * step)
         first, last, granularity = _unit_interval(point, unit)
         return Atom(s, e, granularity, first, last, future=step > 0, past=step < 0, relative=True)
     if kind == "deictic":
