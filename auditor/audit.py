@@ -372,7 +372,8 @@ def _store_run(store: Store, run: dict) -> None:
             "UPDATE runs SET status = 'done', finished = ?, corpus = ?, summary = ?, ingest_errors = ?, "
             "extras = ? WHERE id = ?",
             [head["finished"], dumps(head["corpus"]), dumps(run["summary"]), dumps(run["ingest_errors"]),
-             dumps({"documents": run["documents"], "briefs": run["briefs"]}), head["id"]])
+             dumps({"documents": run["documents"], "briefs": run["briefs"], "title": head.get("title")}),
+             head["id"]])
 
 
 def _now() -> str:

@@ -73,6 +73,8 @@ ISO_DATE = IsoDate()
 config_option = click.option("-c", "--config", "config_path", type=click.Path(dir_okay=False),
                              help="TOML config (default: ./audit.toml when present).")
 db_option = click.option("--db", type=click.Path(dir_okay=False), help="SQLite database (default: the config's, else ./auditor.db).")
+wait_option = click.option("--wait", type=click.FloatRange(min=0), default=0.0,
+                           help="Wait this many seconds for another scan's lock (default: refuse at once).")
 quiet_option = click.option("-q", "--quiet", is_flag=True, help="No progress bars.")
 
 
@@ -86,7 +88,7 @@ def cli():
 @config_option
 @click.option("--as-of", type=ISO_DATE, help="Audit date (default: the config's, else today).")
 @click.option("--out", type=click.Path(file_okay=False), help="Report folder (default: reports/<as-of>/).")
-@click.option("--wait", type=click.FloatRange(min=0), default=0.0, help="Wait this many seconds for another scan's lock.")
+@wait_option
 @click.option("--jobs", type=click.IntRange(min=1), help="Parser processes (default: one per core).")
 @quiet_option
 def scan(config_path, as_of, out, wait, jobs, quiet):
@@ -116,14 +118,16 @@ def _finish(run: dict, out_dir: Path, summary_lines) -> None:
 @config_option
 @db_option
 @click.option("--jobs", type=click.IntRange(min=1), help="Parser processes (default: one per core).")
+@wait_option
 @quiet_option
-def ingest(paths, config_path, db, jobs, quiet):
+def ingest(paths, config_path, db, jobs, wait, quiet):
     """Ingest documents under PATH... into the database (unchanged files are skipped)."""
     from .ingest import ingest_corpus
+    from .lock import ScanLock
     from .store import Store
 
     config = _config(config_path, db=db)
-    with Store(config.database) as store:
+    with ScanLock(config.database, wait=wait), Store(config.database) as store:
         summary = ingest_corpus(store, config, paths=[Path(p) for p in paths], jobs=jobs, progress=_progress(quiet))
     for error in summary.errors:
         click.echo(f"failed: {error}", err=True)
@@ -138,8 +142,10 @@ def ingest(paths, config_path, db, jobs, quiet):
 @click.option("--as-of", type=ISO_DATE, help="Audit date (default: the config's, else today).")
 @click.option("--horizon", type=int, help="Freshness horizon in days (default: the config's, else 365).")
 @click.option("--out", type=click.Path(file_okay=False), help="Report folder (default: reports/<as-of>/).")
-def audit(question_files, config_path, db, as_of, horizon, out):
+@wait_option
+def audit(question_files, config_path, db, as_of, horizon, out, wait):
     """Audit the stored corpus against a question set and write the report."""
+    from .lock import ScanLock
     from .scan import audit_and_report, load_question_files, question_lines, summary_lines
     from .store import Store
 
@@ -147,7 +153,7 @@ def audit(question_files, config_path, db, as_of, horizon, out):
     sets = load_question_files(config, [Path(p) for p in question_files] or None)
     for line in question_lines(sets):
         click.echo(line, err=True)
-    with Store(config.database) as store:
+    with ScanLock(config.database, wait=wait), Store(config.database) as store:
         run, out_dir = audit_and_report(store, config, sets, as_of=config.audit_date())
     _finish(run, out_dir, summary_lines)
 

@@ -205,6 +205,11 @@ def _build(raw: dict, base: Path, source: Path | None, where: str, warn) -> Conf
         raise ConfigError(f"{where}: freshness.horizon_days must not be negative")
     if not 0.0 <= config.support.threshold <= 1.0:
         raise ConfigError(f"{where}: support.threshold must lie between 0 and 1")
+    for limit in dataclasses.fields(GateConfig):
+        value = getattr(config.gate, limit.name)
+        if value is not None and (value < 0 or (limit.name != "max_new_gaps" and value > 1)):
+            bound = "a whole number of at least 0" if limit.name == "max_new_gaps" else "a share between 0 and 1"
+            raise ConfigError(f"{where}: gate.{limit.name} must be {bound}, not {value!r}")
     if config.retrieval.top_k < 1:
         raise ConfigError(f"{where}: retrieval.top_k must be at least 1")
     return config
