@@ -120,3 +120,16 @@ def test_meta_dates_are_all_kept(tmp_path):
     assert json.loads(row["meta_dates"]) == [
         {"value": "2024-01-02", "kind": "modified", "source": "front_matter:updated"},
         {"value": "2020-05-06", "kind": "published", "source": "front_matter:date"}]
+
+
+def test_new_parser_code_reparses_everything(tmp_path):
+    root = write_tree(tmp_path / "kb", {"a.md": GUIDE, "b.txt": "B\n\nText."})
+    with Store(tmp_path / "a.db") as store:
+        ingest_corpus(store, config_for(root))
+        from auditor.ingest.pipeline import parser_fingerprint
+
+        assert store.get_meta("ingest:parser") == parser_fingerprint()
+        store.set_meta("ingest:parser", "an older parser")
+        summary = ingest_corpus(store, config_for(root))
+        assert (summary.parsed, summary.changed, summary.unchanged) == (2, 2, 0)
+        assert ingest_corpus(store, config_for(root)).parsed == 0

@@ -1,7 +1,8 @@
 """Incremental ingest of the corpus into the store, parsing in worker processes.
 
 What an owner can expect:
-* unchanged files (same sha256, same sitemap date, same parser version) are not parsed again;
+* unchanged files (same sha256, same sitemap date, same parser code: parser_fingerprint) are
+  not parsed again;
 * a changed file has its passages and statements replaced in one transaction;
 * a file that has gone is marked 'removed' and its passages are deleted (the row stays for history);
 * a file that fails gets a row in ingest_errors (kind + one line naming the file). If an earlier
@@ -9,7 +10,8 @@ What an owner can expect:
   index is asked to keep 'failed' documents' passages), so a broken re-export does not silently
   turn answered questions into gaps; the report shows the error. The failed content's hash is kept
   (meta 'ingest:failed') so an unchanged broken file is not parsed again on every run; a timeout is
-  retried only when corpus.timeout_s has grown.
+  retried only when corpus.timeout_s has grown; an unexpected parser exception or a crashed worker
+  is retried on every run (the fault may be ours, not the file's).
 * a new tokenizer fingerprint (meta 'tokenizer') re-tokenizes every stored passage first.
 
 Only the main process writes to SQLite; workers read, detect, parse, segment, tokenize and extract
@@ -21,6 +23,7 @@ and the store writes); it is past 400 lines because the pool has no module of it
 
 from __future__ import annotations
 
+import hashlib
 import json
 import multiprocessing as mp
 import os
@@ -36,8 +39,20 @@ from ..errors import AuditorError, InputError
 from ..models import MetaDate
 from .walk import IngestFailure, SourceFile, detect_kind, discover, glob_match, read_file, sha256
 
-# Bump when a parser change should re-parse unchanged files.
-PARSER_VERSION = "1"
+# The code whose output is stored per file: when any of it changes, every file is parsed again
+# (a better date pattern or parser must reach documents that did not change).
+_PARSER_SOURCES = ("ingest/*.py", "segment.py", "temporal*.py", "models.py")
+
+
+def parser_fingerprint() -> str:
+    """sha256 (first 16 hex digits) of the source of the parsers, segmenter and temporal stage."""
+    package = Path(__file__).resolve().parent.parent
+    digest = hashlib.sha256()
+    for pattern in _PARSER_SOURCES:
+        for source in sorted(package.glob(pattern)):
+            digest.update(source.name.encode() + b"\0" + source.read_bytes())
+    return digest.hexdigest()[:16]
+
 DATE_KINDS_FOR_DOC_DATE = ("modified", "reviewed", "published", "created")
 
 
@@ -312,7 +327,8 @@ def ingest_corpus(store, config, *, paths=None, jobs=None, progress=False) -> In
     summary = IngestSummary()
     tokenizer = Tokenizer(config.retrieval.language, config.retrieval.stopwords)
     summary.retokenized = _retokenize_if_needed(store, tokenizer)
-    parser_changed = store.get_meta("ingest:parser") != PARSER_VERSION
+    parser = parser_fingerprint()
+    parser_changed = store.get_meta("ingest:parser") != parser
     failed_before = json.loads(store.get_meta("ingest:failed", "{}"))
     known = {row["path"]: row for row in store.query(
         "SELECT id, path, sha256, status, meta_dates, owner, owner_source FROM documents")}
@@ -393,7 +409,14 @@ def ingest_corpus(store, config, *, paths=None, jobs=None, progress=False) -> In
             summary.passages += _write_document(store, config, vocabulary, f, value, row, now)
             failed_before.pop(f.doc_path, None)
             continue
-        sha = sha256(read_file(f.file, f.doc_path)) if os.path.exists(f.file) else None
+        # Remember the failed content only when the failure is the file's own (a refusal or a
+        # timeout): an unexpected exception or a crash may be ours, so the file is tried again.
+        sha = None
+        if status == "timeout" or status == "ok":
+            try:
+                sha = sha256(read_file(f.file, f.doc_path))
+            except IngestFailure:
+                sha = None
         if status == "ok":
             kind, message = value["kind"], value["message"]
         elif status == "timeout":
@@ -410,10 +433,10 @@ def ingest_corpus(store, config, *, paths=None, jobs=None, progress=False) -> In
     with store.transaction():
         for path in [p for p in failed_before if p not in seen]:
             del failed_before[path]
-        store.db.execute(f"DELETE FROM ingest_errors WHERE path NOT IN ({','.join('?' * len(seen))})" if seen
-                         else "DELETE FROM ingest_errors", list(seen))
+        gone = [r["path"] for r in store.query("SELECT path FROM ingest_errors") if r["path"] not in seen]
+        store.db.conn.executemany("DELETE FROM ingest_errors WHERE path = ?", [(p,) for p in gone])
         store.set_meta("ingest:failed", json.dumps(failed_before, sort_keys=True))
-        store.set_meta("ingest:parser", PARSER_VERSION)
+        store.set_meta("ingest:parser", parser)
         store.set_meta("tokenizer", tokenizer.fingerprint())
         store.set_meta("ingest:last", now)
     summary.seconds = time.monotonic() - started
