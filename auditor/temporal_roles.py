@@ -7,7 +7,8 @@ sentence's tense; the first rule that applies wins:
 1. `other`     a copyright line (©, "Copyright", "(c)"), a citation ("(Rivera, 2019)", "et al.,
                2019", "4th edition (2016)"), or a recurring date ("June 1 through September 30 each year", "annually").
 2. a strong cue, the nearest one, at most 40 characters of the same clause before the expression
-   (no "and", "or", "but", "once", "when", "if" ... in between):
+   (no "and", "or", "but", "once", "when", "if" ... in between; for an as-of cue at most 20 and
+   no new verb, so that "updated meters were installed in 2019" is no as-of statement):
    `as_of`     as of, as at, (last) updated, (last) reviewed, revised, (last) modified, date
                modified, current/accurate/correct as of, verified, information current;
    `effective` effective, takes/took effect, in effect, in force, comes into force, applies from,
@@ -114,9 +115,13 @@ _WINDOW = 80
 _CLAUSE_BREAK = re.compile(r"[.;!?]|\b(?:then|but|while|and|or|once|when|if|unless|because)\b")
 
 
+_NEW_VERB = re.compile(r"(?i:\b(?:was|were|is|are|will|has|have|had|be|been)\b)")
+_AS_OF_REACH = 20  # "reviewed this guide in January 2024", not "updated meters were installed in 2019"
+
+
 def _nearest(cues: re.Pattern, left: str, reach: int) -> str | None:
     """The role of the cue nearest the end of `left`, if no more than `reach` characters of the
-    same clause stand between it and the expression."""
+    same clause stand between it and the expression (an as-of cue: fewer, and no new verb)."""
     last = None
     for last in cues.finditer(left, max(0, len(left) - reach - 30)):
         pass
@@ -124,6 +129,8 @@ def _nearest(cues: re.Pattern, left: str, reach: int) -> str | None:
         return None
     between = left[last.end():]
     if len(between) > reach or _CLAUSE_BREAK.search(between):
+        return None
+    if last.lastgroup == "as_of" and (len(between) > _AS_OF_REACH or _NEW_VERB.search(between)):
         return None
     return last.lastgroup
 

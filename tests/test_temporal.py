@@ -192,3 +192,9 @@ def test_any_text_yields_well_formed_expressions(pieces, with_reference, day_fir
         assert e.start <= e.end
         assert e.granularity in GRANULARITIES and e.role in ROLES
         assert e.expression.strip() and e.expression in text
+
+
+def test_as_of_cue_must_govern_the_date():
+    # "updated" as an adjective with its own verb before the date is no as-of statement
+    assert [e.role for e in extract("Updated meters were installed in 2019.", REF)] == ["event"]
+    assert [e.role for e in extract("Conservation Programs reviewed this guide in January 2024.", REF)] == ["as_of"]
