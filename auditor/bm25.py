@@ -249,7 +249,13 @@ class CorpusStats:
 
 # --- map: the index of one shard ------------------------------------------------------------------
 
-_ARRAYS = ("indptr", "indices", "weights", "tf", "doc_len", "df", "idf", "maxw", "keys")
+_ARRAYS = ("indptr", "indices", "weights", "tf", "doc_len", "df", "idf", "maxw", "keys", "dense", "dense_row")
+
+# Terms in at least this share of the passages also get a dense weight row: adding a dense row is a
+# sequential pass, several times cheaper than scattering as many postings, and looking a passage up
+# in it is one read instead of a binary search. Capped so the rows stay a small part of the index.
+DENSE_SHARE = 0.25
+DENSE_MAX_TERMS = 64
 
 
 class SparseIndex:
@@ -265,9 +271,8 @@ class SparseIndex:
         for name in _ARRAYS:
             setattr(self, name, arrays[name])
         self.n_terms = len(self.df)
-        # Pruning needs every weight positive (true unless an Okapi floor goes negative).
-        self._prunable = self.meta.get("min_weight", 1.0) > 0
         self._scratch: np.ndarray | None = None
+        self._marks: np.ndarray | None = None
 
     # -- build / save / load -----------------------------------------------------------------------
     @classmethod
@@ -309,14 +314,21 @@ class SparseIndex:
         nonempty = np.flatnonzero(np.diff(indptr) > 0)
         if len(nonempty):
             maxw[nonempty] = np.maximum.reduceat(weights, indptr[nonempty])
+        local_df = np.diff(indptr)
+        common = np.flatnonzero(local_df >= max(DENSE_SHARE * counts.n_docs, 1))
+        common = common[np.argsort(-local_df[common], kind="stable")][:DENSE_MAX_TERMS]
+        dense = np.zeros((len(common), counts.n_docs), np.float32)
+        dense_row = np.full(width, -1, np.int32)
+        for row, t in enumerate(common):
+            dense[row, indices[indptr[t]:indptr[t + 1]]] = weights[indptr[t]:indptr[t + 1]]
+            dense_row[t] = row
         missing = float(scorer.idf(stats.n_docs + 1, np.array([1.0]))[0])
         missing = max(missing, float(idf.max(initial=0.0)), 0.0)
         meta = dict(meta or {})
-        meta["min_weight"] = float(weights.min()) if len(weights) else 1.0
         arrays = dict(indptr=indptr, indices=indices, weights=weights, tf=tf,
                       doc_len=counts.doc_len.astype(np.int32), df=df, idf=idf, maxw=maxw,
                       keys=np.arange(counts.n_docs, dtype=np.int64) if keys is None
-                      else np.asarray(keys, dtype=np.int64))
+                      else np.asarray(keys, dtype=np.int64), dense=dense, dense_row=dense_row)
         meta["corpus_docs"] = stats.n_docs
         return cls(params, counts.n_docs, avgdl, arrays, missing, meta)
 
@@ -384,17 +396,23 @@ class SparseIndex:
         """Exact float64 contribution of each term (rows) to each passage ordinal (columns)."""
         docs = np.asarray(docs, dtype=np.int64)
         out = np.zeros((len(term_ids), len(docs)), np.float64)
+        rows = [r for r, t in enumerate(term_ids)
+                if t is not None and 0 <= t < self.n_terms and self.df[t] > 0]
+        if not rows or not len(docs):
+            return out
+        terms = np.array([term_ids[r] for r in rows], dtype=np.int64)
+        lo, hi = self.indptr[terms], self.indptr[terms + 1]
+        # One binary search per term, then every gather and the formula at once over terms × docs.
+        # Needles of the haystack's dtype: otherwise numpy converts the whole posting list per call.
+        needles = docs.astype(self.indices.dtype)
+        pos = np.stack([np.searchsorted(self.indices[a:b], needles) for a, b in zip(lo.tolist(), hi.tolist())])
+        pos += lo[:, None]
+        np.minimum(pos, (hi - 1)[:, None], out=pos)
+        found = self.indices[pos] == docs[None, :]
         p = self.params
-        for row, t in enumerate(term_ids):
-            if t is None or not 0 <= t < self.n_terms or self.df[t] == 0 or not len(docs):
-                continue
-            lo, hi = int(self.indptr[t]), int(self.indptr[t + 1])
-            postings = self.indices[lo:hi]
-            pos = np.minimum(np.searchsorted(postings, docs), hi - lo - 1)
-            found = postings[pos] == docs
-            tf = self.tf[lo + pos[found]]
-            out[row, found] = self.idf[t] * p.scorer.tf(tf, self.doc_len[docs[found]], self.avgdl,
-                                                        p.k1, p.b, p.delta)
+        part = self.idf[terms][:, None] * p.scorer.tf(self.tf[pos], self.doc_len[docs][None, :], self.avgdl,
+                                                      p.k1, p.b, p.delta)
+        out[rows] = np.where(found, part, 0.0)
         return out
 
     def scores(self, term_ids: list[int | None]) -> np.ndarray:
@@ -427,50 +445,81 @@ class SparseIndex:
         return candidates[order], exact[order], parts[:, order]
 
     def _candidates(self, terms: np.ndarray, k: int, scratch: np.ndarray) -> np.ndarray:
-        """Ordinals sure to hold the top k (plus near-ties), by float32 accumulation with
-        MaxScore-style pruning (Turtle & Flood 1995): once the k-th best partial score beats the
-        most the remaining terms could add, passages without any of the terms seen so far cannot
-        enter the top k, and the remaining terms are only looked up for the candidates."""
+        """Ordinals sure to hold the top k (plus near-ties) by float32 accumulation: postings
+        scattered into `scratch`, dense rows added for the commonest terms. Then the k-th best score
+        is bounded from below by the k-th best of a subset (the rarest terms' passages, which the
+        best passages tend to hold, and a strided sample): only passages reaching that bound are
+        kept, so no pass sorts or partitions the whole array."""
         indptr, indices, weights = self.indptr, self.indices, self.weights
-        order = terms[np.argsort(-self.maxw[terms], kind="stable")]
-        bounds = self.maxw[order].astype(np.float64)
-        prefix = np.cumsum(bounds)
-        rest = prefix[-1] - prefix
+        rows = self.dense_row[terms]
+        sparse = terms[rows < 0]
+        sparse = sparse[np.argsort(indptr[sparse + 1] - indptr[sparse], kind="stable")]
         touched: list[np.ndarray] = []
-        n_touched = 0
-        dense_limit = self.n_docs // 8
-        for j, t in enumerate(order):
+        for t in sparse.tolist():
             lo, hi = int(indptr[t]), int(indptr[t + 1])
             postings = indices[lo:hi]
-            scratch[postings] += weights[lo:hi]
+            np.add.at(scratch, postings, weights[lo:hi])  # faster than fancy += in numpy 2
             touched.append(postings)
-            n_touched += hi - lo
-            if j == len(order) - 1 or not self._prunable:
-                continue
-            if rest[j] * (1 + 1e-5) >= prefix[j] or n_touched > 4 * dense_limit:
-                continue  # the k-th score cannot exceed prefix[j]; or pruning would not pay
-            seen = np.flatnonzero(scratch) if n_touched > dense_limit else np.unique(np.concatenate(touched))
-            if len(seen) <= k:
-                continue
-            partial = scratch[seen]
-            theta = np.partition(partial, len(seen) - k)[len(seen) - k]
-            if rest[j] * (1 + 1e-5) < theta:
-                scratch[seen] = 0
-                for t2 in order[j + 1:]:
-                    lo2, hi2 = int(indptr[t2]), int(indptr[t2 + 1])
-                    postings2 = indices[lo2:hi2]
-                    pos = np.minimum(np.searchsorted(postings2, seen), hi2 - lo2 - 1)
-                    found = postings2[pos] == seen
-                    partial[found] += weights[lo2 + pos[found]]
-                return _near_top(seen, partial, k)
-        seen = np.flatnonzero(scratch) if n_touched > dense_limit else np.unique(np.concatenate(touched))
-        values = scratch[seen]
-        scratch[seen] = 0
+        for row in rows[rows >= 0].tolist():
+            scratch += self.dense[row]
+        n_touched = sum(len(p) for p in touched)
+        if len(sparse) < len(terms) or n_touched > self.n_docs // 16:
+            held, values = _sample(scratch, touched)
+            theta = _kth_distinct(held, values, scratch, k, len(touched) + 1)
+            seen = np.flatnonzero(scratch >= theta * (1 - 1e-5)) if theta > 0 else np.flatnonzero(scratch)
+            values = scratch[seen]
+            scratch.fill(0)
+        else:
+            held = np.concatenate(touched)
+            values = scratch[held]
+            theta = _kth_distinct(held, values, scratch, k, len(touched))
+            seen = self._distinct(held[values >= theta * (1 - 1e-5)] if theta > 0 else held)
+            values = scratch[seen]
+            scratch[held] = 0
         return _near_top(seen, values, k)
+
+    def _distinct(self, docs: np.ndarray) -> np.ndarray:
+        """Sorted distinct ordinals of `docs`: a flag array for large inputs (np.unique sorts or
+        hashes, far slower than one pass over N/8 bytes), np.unique for small ones."""
+        if len(docs) < 4096:
+            return np.unique(docs)
+        if self._marks is None:
+            self._marks = np.zeros(self.n_docs, bool)
+        self._marks[docs] = True
+        out = np.flatnonzero(self._marks).astype(self.indices.dtype)
+        self._marks[out] = False
+        return out
 
     def top_k_many(self, queries: list[list[int | None]], k: int):
         """`top_k` for many questions (one scratch array serves them all)."""
         return [self.top_k(q, k) for q in queries]
+
+
+def _sample(scratch: np.ndarray, touched: list[np.ndarray]) -> tuple[np.ndarray, np.ndarray]:
+    """Ordinals and scores of a subset: the rarest terms' postings (up to N/4 of them, rarest
+    first) and every 64th passage. Each passage occurs at most len(touched) + 1 times."""
+    budget, lists = len(scratch) // 4, []
+    for postings in touched:
+        if len(postings) > budget:
+            break
+        lists.append(postings)
+        budget -= len(postings)
+    held = np.concatenate([*lists, np.arange(0, len(scratch), 64, dtype=np.int32)])
+    return held, scratch[held]
+
+
+def _kth_distinct(held: np.ndarray, values: np.ndarray, scratch: np.ndarray, k: int, lists: int) -> float:
+    """The k-th largest partial score among distinct passages of `held` (which repeats a passage
+    at most `lists` times), without sorting or hashing all of `held`; 0 when fewer than k."""
+    wanted = k * lists
+    if len(held) > wanted:
+        top = held[np.argpartition(values, len(values) - wanted)[len(values) - wanted:]]
+    else:
+        top = held
+    distinct = scratch[np.unique(top)]
+    if len(distinct) < k:
+        return 0.0
+    return float(np.partition(distinct, len(distinct) - k)[len(distinct) - k])
 
 
 def _near_top(docs: np.ndarray, values: np.ndarray, k: int) -> np.ndarray:
