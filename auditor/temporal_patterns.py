@@ -79,9 +79,9 @@ _ALTERNATIVES = [
     ("season", rf"(?i:\b(?P<sn>spring|summer|fall|autumn|winter)(?:\s+of)?\s+)(?P<sy>{YEAR_CORE})(?!\d)"
                rf"(?:\s*(?:-|–|/)\s*(?P<sy2>\d{{4}}|\d{{2}})(?!\d))?"),
     ("decade", r"(?i:\b(?:the\s+))?(?P<dc>(?:1[89]|20)\d0)'?s\b|(?<![\w'])'(?P<dc2>\d0)s\b"),
-    # "March 1–15, 2025" (a day range inside one month)
-    ("mdrange", rf"(?:{WEEKDAY},?\s+)?(?P<rm>{MONTH})\s+(?P<rd1>{DAY}){DASH}(?P<rd2>{DAY}),?\s+(?P<ry>{YEAR})"),
-    ("dmrange", rf"(?<!\d)(?P<rd3>{DAY}){DASH}(?P<rd4>{DAY})\s+(?P<rm2>{MONTH}),?\s+(?P<ry2>{YEAR})"),
+    # "March 1–15, 2025", "8 to 10 November 2024" (a day range inside one month)
+    ("mdrange", rf"(?:{WEEKDAY},?\s+)?(?P<rm>{MONTH})\s+(?P<rd1>{DAY}){TO}(?P<rd2>{DAY}),?\s+(?P<ry>{YEAR})"),
+    ("dmrange", rf"(?<!\d)(?P<rd3>{DAY}){TO}(?P<rd4>{DAY})\s+(?P<rm2>{MONTH}),?\s+(?P<ry2>{YEAR})"),
     # "March–May 2025"
     ("mmrange", rf"(?P<mm1>{MONTH}){TO}(?P<mm2>{MONTH}),?\s+(?:of\s+)?(?P<mmy>{YEAR})"),
     # "Tuesday, March 5th, 2024", "Mar. 5 2024", "March 5" (year from context)

@@ -60,7 +60,7 @@ _STRONG = [
                   r"appl(?:y|ies)\s+(?:from|to\s+bills\s+(?:issued|dated)\s+(?:on\s+or\s+)?after)|"
                   r"starting(?:\s+(?:on|from|in))?|starts(?:\s+on)?|beginning(?:\s+(?:on|in))?|"
                   r"begins(?:\s+on)?|commencing(?:\s+on)?|as\s+from|on\s+(?:and|or)\s+after|"
-                  r"from\s+and\s+after|valid\s+from|valid|opens?(?:\s+(?:on|from))?|becomes?|new\s+from"),
+                  r"from\s+and\s+after|valid\s+from|valid|opens?(?:\s+(?:on|from))?|becomes?|became|new\s+from"),
 ]
 _WEAK = [
     ("effective", r"from|since|after"),
@@ -86,7 +86,7 @@ _PERIOD_NOUN = (r"(?:water\s+)?rates?|rate\s+schedules?|tariffs?|fees?|charges?|
                 r"budgets?|reports?|annual|water\s+quality|consumer\s+confidence|seasons?|programs?|programmes?|"
                 r"figures|results|data|levels|surveys?|editions?|calendar|billing|assessments?|statements?|"
                 r"summary|holidays?|schedules?|plans?|allowances?|quotas?|tiers?|cycle|rebates?|campaigns?|"
-                r"restrictions|projects|statistics|targets|goals|capital")
+                r"restrictions|projects|statistics|targets|goals|capital|newsletters?|bulletins?|issues?")
 # the noun may follow directly ("2023 rates") or after one word ("2024 property assessment")
 _PERIOD_RIGHT = re.compile(rf"(?i:\s*(?:-|–)?\s*(?:(?!(?:to|for|and|or|the|a|an|of|in|on|at|by|is|are|was|will)\b)"
                            rf"[A-Za-z]+\s+)?(?:{_PERIOD_NOUN})\b)")
@@ -103,11 +103,15 @@ _FUTURE = re.compile(r"(?i:\b(?:will|shall|'ll|scheduled|planned|plans?\s+to|upc
                      r"expects?\s+to|(?:is|are)\s+set\s+to|(?:is|are)\s+going\s+to|intends?\s+to|"
                      r"aims?\s+to|forthcoming|coming\s+soon|(?:is|are)\s+to\s+be|anticipated|"
                      r"tentatively|proposed)\b)")
-_PAST = re.compile(r"(?i:\b(?:was|were|had|has\s+been|have\s+been|did|completed|replaced|installed|"
+_PAST = re.compile(r"(?i:\b(?:was|were|had|did|completed|replaced|installed|"
                    r"happened|occurred|took\s+place|ended|closed|launched|opened|introduced|began|"
                    r"started|finished|received|ran|moved|changed|rose|fell|increased|decreased|"
                    r"upgraded|repaired|issued|sent|published|adopted|approved|merged|retired|used|"
                    r"released|mailed|lasted|declared|frozen|caused|damaged|met|answered)\b)")
+# a participle right before a weak cue modifies a noun ("accounts opened from ...", "applications
+# received after ..."); it does not put the sentence in the past
+_PARTICIPLE_BEFORE_CUE = re.compile(r"(?i:\b\w+(?:ed|en)\s+(?:on\s+or\s+)?(?:from|after|since|before|by)\s*$)")
+_NEGATION = re.compile(r"(?i:\b(?:cannot|can't|not|no\s+longer|won't)\b)")
 _STRONG_REACH = 40  # characters a strong cue may stand before its expression ("effective for bills on")
 _WINDOW = 80
 
@@ -158,14 +162,25 @@ def role_for(left: str, right: str, sentence: str, *, start: date, reference_dat
     future, past = _tense(sentence)
     future = (future or future_relative) and not past_relative
     weak = _nearest(_WEAK_CUES, left, 5)
-    if weak == "expires" and not _OBLIGATION.search(left):
-        weak = None  # "apply by ...", "must be received before ..."; not "tickets opened before ..."
-    if weak == "effective" and past and not future:
-        weak = None  # "the campaign ran from ... to ..." tells of an event
-    if weak == "effective" and future and bounded:
-        weak = None  # "will be closed from Dec 24 to Jan 2": a planned event, not a lasting change
-    if weak:
-        return weak
+    if weak is not None:
+        participle = _PARTICIPLE_BEFORE_CUE.search(left)
+        if participle:
+            past = _tense(sentence.replace(participle.group(), " "))[1]
+        if weak == "effective" and left.rstrip().lower().endswith("after") and _NEGATION.search(sentence):
+            return "expires"  # "applications received after 30 April cannot be considered"
+        cue = weak
+        if weak == "expires" and not _OBLIGATION.search(left):
+            weak = None  # "apply by ...", "must be received before ..."; not "tickets opened before ..."
+        if weak == "effective" and past and not future:
+            weak = None  # "the campaign ran from ... to ..." tells of an event
+        if weak == "effective" and future and bounded:
+            weak = None  # "will be closed from Dec 24 to Jan 2": a planned event, not a lasting change
+        if weak:
+            return weak
+        if not (cue == "effective" and future and bounded):
+            # a reference point ("laptops bought before 2020"): an event unless it lies ahead
+            if reference_date is None or start <= reference_date:
+                return "event"
     if _PLANNED_LEFT.search(left):
         return "planned"
     if _PERIOD_CUE.search(left) or _PERIOD_RIGHT.match(right):

@@ -198,3 +198,15 @@ def test_as_of_cue_must_govern_the_date():
     # "updated" as an adjective with its own verb before the date is no as-of statement
     assert [e.role for e in extract("Updated meters were installed in 2019.", REF)] == ["event"]
     assert [e.role for e in extract("Conservation Programs reviewed this guide in January 2024.", REF)] == ["as_of"]
+
+
+def test_weak_cues_in_context():
+    roles = lambda text: [e.role for e in extract(text, REF)]  # noqa: E731
+    # a participle before the cue does not make the sentence past tense
+    assert roles("New accounts opened from 1 July 2024 pay a deposit.") == ["effective"]
+    # "after" with a refusal is a deadline
+    assert roles("Applications received after 30 April 2025 cannot be considered.") == ["expires"]
+    # a reference point in a future sentence is no planned event
+    assert roles("Laptops bought before 2020 will be replaced next spring.") == ["event", "planned"]
+    # present perfect with "since" is a lasting state
+    assert roles("Single sign-on has been required since last year.") == ["effective"]
