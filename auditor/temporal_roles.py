@@ -25,7 +25,7 @@ sentence's tense; the first rule that applies wins:
    cue yields in a past-tense sentence ("ran from ... to ..." is an event) and when a future-tense
    sentence gives a bounded range ("will be closed from Dec 24 to Jan 2" is planned).
 5. `planned`   "scheduled/planned/slated/expected for|in|on" right before it.
-6. `period`    for, during, throughout, covering, over ... right before it, or a noun the date
+6. `period`    for, during, throughout, covering, over, applies to ... right before it, or a noun the date
                qualifies right after it ("2023 rates", "2024 property assessment", "FY2025
                budget"), or for a year/quarter/half/season a noun right before it ("Annual Report 2023").
 7. `planned`   a future-tense sentence (will, shall, scheduled, planned, upcoming, expected (to),
@@ -68,7 +68,8 @@ _WEAK = [
 ]
 # "through" is also "by way of" ("pay through the portal on ..."): a cue only right before the date
 _ADJACENT = [("expires", r"through|thru")]
-_PERIOD_LEFT = r"for|during|throughout|covering|covers|cover|over|for\s+the|in\s+the\s+(?:calendar|fiscal)\s+year"
+_PERIOD_LEFT = (r"for|during|throughout|covering|covers|cover|over|for\s+the|appl(?:y|ies)\s+to|"
+                r"in\s+the\s+(?:calendar|fiscal)\s+year")
 
 
 def _compile(pairs):
@@ -86,7 +87,7 @@ _PERIOD_NOUN = (r"(?:water\s+)?rates?|rate\s+schedules?|tariffs?|fees?|charges?|
                 r"budgets?|reports?|annual|water\s+quality|consumer\s+confidence|seasons?|programs?|programmes?|"
                 r"figures|results|data|levels|surveys?|editions?|calendar|billing|assessments?|statements?|"
                 r"summary|holidays?|schedules?|plans?|allowances?|quotas?|tiers?|cycle|rebates?|campaigns?|"
-                r"restrictions|projects|statistics|targets|goals|capital|newsletters?|bulletins?|issues?")
+                r"restrictions|projects|statistics|targets|goals|capital|newsletters?|bulletins?|issues?|audits?|reviews?")
 # the noun may follow directly ("2023 rates") or after one word ("2024 property assessment")
 _PERIOD_RIGHT = re.compile(rf"(?i:\s*(?:-|–)?\s*(?:(?!(?:to|for|and|or|the|a|an|of|in|on|at|by|is|are|was|will)\b)"
                            rf"[A-Za-z]+\s+)?(?:{_PERIOD_NOUN})\b)")
