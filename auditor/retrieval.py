@@ -176,7 +176,7 @@ def build_index(store: Store, params: Params, meta: dict | None = None) -> Spars
 
     counts = count_terms(token_arrays())
     return SparseIndex.build(counts, params, CorpusStats.of(counts), meta=meta,
-                             keys=np.array(passage_ids, dtype=np.int64))
+                             keys=np.array(passage_ids, dtype=np.int64), consume=True)
 
 
 def describe_hits(store: Store, result: SearchResult) -> list[dict]:

@@ -18,9 +18,8 @@ from auditor.tokenize import Tokenizer  # noqa: E402
 
 def test_ndcg_worked_example():
     # Wikipedia "Discounted cumulative gain", worked example (from memory): graded relevances
-    # 3, 2, 3, 0, 1, 2 in rank order give DCG6 = 6.861, ideal order 3, 3, 2, 2, 1 gives 7.141
-    # (the example's ideal list adds two unretrieved documents rated 3 and 2 in its second part;
-    # this is the first part, where all judged documents are retrieved), nDCG6 = 0.961.
+    # 3, 2, 3, 0, 1, 2 in rank order give DCG6 = 6.861; the ideal order 3, 3, 2, 2, 1, 0 gives
+    # IDCG6 = 7.141, so nDCG6 = 0.961.
     relevance = {"d1": 3, "d2": 2, "d3": 3, "d4": 0, "d5": 1, "d6": 2}
     assert ndcg_at_k(["d1", "d2", "d3", "d4", "d5", "d6"], relevance, k=6) == pytest.approx(0.961, abs=5e-4)
     assert ndcg_at_k(["x", "y"], {"d": 1}) == 0.0
