@@ -100,15 +100,19 @@ _OBLIGATION = re.compile(r"(?i:\b(?:must|need\s+to|needs\s+to|have\s+to|has\s+to
                          r"submitted|apply|applications?|pay|paid|payment|received|return|returned|"
                          r"register|enrol|enroll|sign\s+up|send|sent|complete|completed\s+by|"
                          r"postmarked|file|claim|request|renew|redeem)\b)")
-_FUTURE = re.compile(r"(?i:\b(?:will|shall|'ll|scheduled|planned|plans?\s+to|upcoming|expected\s+to|expected|"
-                     r"expects?\s+to|(?:is|are)\s+set\s+to|(?:is|are)\s+going\s+to|intends?\s+to|"
-                     r"aims?\s+to|forthcoming|coming\s+soon|(?:is|are)\s+to\s+be|anticipated|"
-                     r"tentatively|proposed)\b)")
-_PAST = re.compile(r"(?i:\b(?:was|were|had|did|completed|replaced|installed|"
-                   r"happened|occurred|took\s+place|ended|closed|launched|opened|introduced|began|"
-                   r"started|finished|received|ran|moved|changed|rose|fell|increased|decreased|"
-                   r"upgraded|repaired|issued|sent|published|adopted|approved|merged|retired|used|"
-                   r"released|mailed|lasted|declared|frozen|caused|damaged|met|answered)\b)")
+# Tense cues, looked up as words (a set lookup is several times faster than a regex scan).
+_FUTURE_WORDS = {"will", "shall", "scheduled", "planned", "upcoming", "expected", "forthcoming", "anticipated",
+                 "tentatively", "proposed"}
+_FUTURE_HINTS = {"plan", "plans", "expect", "expects", "set", "going", "intend", "intends", "aim", "aims",
+                 "coming", "be"}
+_FUTURE_PHRASES = re.compile(r"(?i:\b(?:plans?\s+to|expects?\s+to|(?:is|are)\s+set\s+to|(?:is|are)\s+going\s+to|"
+                             r"intends?\s+to|aims?\s+to|coming\s+soon|(?:is|are)\s+to\s+be)\b)")
+_PAST_WORDS = {"was", "were", "had", "did", "completed", "replaced", "installed", "happened", "occurred", "took",
+               "ended", "closed", "launched", "opened", "introduced", "began", "started", "finished", "received",
+               "ran", "moved", "changed", "rose", "fell", "increased", "decreased", "upgraded", "repaired", "issued",
+               "sent", "published", "adopted", "approved", "merged", "retired", "used", "released", "mailed",
+               "lasted", "declared", "frozen", "caused", "damaged", "met", "answered"}
+_WORDS = re.compile(r"[a-z']+")
 # a participle right before a weak cue modifies a noun ("accounts opened from ...", "applications
 # received after ..."); it does not put the sentence in the past
 _PARTICIPLE_BEFORE_CUE = re.compile(r"(?i:\b\w+(?:ed|en)\s+(?:on\s+or\s+)?(?:from|after|since|before|by)\s*$)")
@@ -143,7 +147,11 @@ def _nearest(cues: re.Pattern, left: str, reach: int) -> str | None:
 @functools.lru_cache(maxsize=1024)
 def _tense(sentence: str) -> tuple[bool, bool]:
     """(speaks of the future, speaks of the past), computed once per sentence."""
-    return bool(_FUTURE.search(sentence)), bool(_PAST.search(sentence))
+    lower = sentence.lower()
+    words = set(_WORDS.findall(lower))
+    future = (not _FUTURE_WORDS.isdisjoint(words) or "'ll" in lower
+              or (not _FUTURE_HINTS.isdisjoint(words) and _FUTURE_PHRASES.search(lower) is not None))
+    return future, not _PAST_WORDS.isdisjoint(words)
 
 
 def role_for(left: str, right: str, sentence: str, *, start: date, reference_date: date | None,
