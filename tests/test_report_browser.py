@@ -27,6 +27,13 @@ ARGS = ["--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
 VISIBLE_ROWS = "#questions > tbody > tr[id]:not([hidden])"
 
 
+def shown_text(locator) -> str:
+    """Rendered text of an element, scrolled into view first: rows off screen are not laid out
+    (content-visibility: auto), and innerText of content that is not laid out is empty."""
+    locator.scroll_into_view_if_needed()
+    return locator.inner_text()
+
+
 @pytest.fixture(scope="module")
 def browser():
     with sync_api.sync_playwright() as p:
@@ -76,7 +83,7 @@ def test_filter_by_verdict_shows_the_right_rows(sample):
         p.select_option("#f-verdict", verdict)
         rows = p.locator(VISIBLE_ROWS)
         assert rows.count() == counts[verdict]
-        assert set(rows.locator(".v").all_inner_texts()) == {verdict}
+        assert set(rows.locator(".v").all_text_contents()) == {verdict}
         assert p.inner_text("#shown") == f"{counts[verdict]} of {len(results['questions'])} questions shown"
     p.select_option("#f-verdict", "")
     assert p.locator(VISIBLE_ROWS).count() == len(results["questions"])
@@ -89,16 +96,16 @@ def test_owner_topic_and_text_filters_combine(sample):
     billing = [q for q in results["questions"] if q["owner"] == "Billing"]
     assert p.locator(VISIBLE_ROWS).count() == len(billing)
     p.fill("#f-text", "phone")
-    assert p.locator(f"{VISIBLE_ROWS} .qid").all_inner_texts() == ["q-001", "q-013"]
+    assert p.locator(f"{VISIBLE_ROWS} .qid").all_text_contents() == ["q-001", "q-013"]
     p.select_option("#f-verdict", "gap")
     assert p.locator(VISIBLE_ROWS).count() == 0
     p.select_option("#f-verdict", "")
     p.select_option("#f-owner", "")
     p.fill("#f-text", "")
     p.select_option("#f-topic", label="rebates")
-    assert p.locator(f"{VISIBLE_ROWS} .qid").all_inner_texts() == ["q-003"]
+    assert p.locator(f"{VISIBLE_ROWS} .qid").all_text_contents() == ["q-003"]
     p.select_option("#f-topic", "-1")  # questions without a topic
-    assert p.locator(f"{VISIBLE_ROWS} .qid").all_inner_texts() == ["q-010", "q-012"]
+    assert p.locator(f"{VISIBLE_ROWS} .qid").all_text_contents() == ["q-010", "q-012"]
     p.select_option("#f-topic", "")
 
 
@@ -106,13 +113,13 @@ def test_sort_by_weight_and_back(sample):
     page, results = sample
     p = page.page
     p.click("#questions th[data-sort=weight]")
-    ids = p.locator("#questions > tbody > tr[id] .qid").all_inner_texts()
+    ids = p.locator("#questions > tbody > tr[id] .qid").all_text_contents()
     by_weight = [q["id"] for q in sorted(results["questions"], key=lambda q: -q["weight"])]
     assert ids == by_weight
     assert p.get_attribute("#questions th[data-sort=weight]", "aria-sort") == "descending"
     p.focus("#questions th[data-sort=weight]")
     p.keyboard.press("Enter")  # keyboard works too: now ascending
-    assert p.locator("#questions > tbody > tr[id] .qid").all_inner_texts() == by_weight[::-1]
+    assert p.locator("#questions > tbody > tr[id] .qid").all_text_contents() == by_weight[::-1]
 
 
 def test_expanding_a_row_shows_its_evidence(sample):
@@ -126,12 +133,12 @@ def test_expanding_a_row_shows_its_evidence(sample):
     items = evidence.locator("article.ev")
     assert items.count() == len(q["evidence"])
     first = items.nth(0)
-    assert first.locator("blockquote.passage").inner_text() == q["evidence"][0]["text"]
-    assert first.locator("mark").all_inner_texts() == ["pay", "bill", "phone", "phone"]
-    assert first.locator("table").nth(0).locator("tbody .chip").all_inner_texts() == ["phone", "pay", "bill"]
+    assert shown_text(first.locator("blockquote.passage")) == q["evidence"][0]["text"]
+    assert first.locator("mark").all_text_contents() == ["pay", "bill", "phone", "phone"]
+    assert first.locator("table").nth(0).locator("tbody .chip").all_text_contents() == ["phone", "pay", "bill"]
     assert first.locator("table.st tbody tr").count() == 1
-    assert "As of February 2023" in first.locator("table.st").inner_text()
-    why = first.locator(".fw").inner_text()
+    assert "As of February 2023" in shown_text(first.locator("table.st"))
+    why = shown_text(first.locator(".fw"))
     assert "1372 days before the audit date" in why and "beyond the 365-day horizon" in why
     assert p.is_visible("#q0 .why .act")
     # Closing hides the evidence; a filter that hides the row hides its evidence too.
@@ -156,14 +163,14 @@ def test_hostile_strings_show_literally_and_never_run(sample):
     assert p.locator("img").count() == 0
     assert p.locator("a[href^='javascript:' i]").count() == 0
     assert p.locator("script").count() == 2
-    summary = p.inner_text("#q10 summary")
+    summary = shown_text(p.locator("#q10 summary"))
     assert samples.HOSTILE_SCRIPT in summary and samples.HOSTILE_IMG in summary
-    q12 = p.inner_text("#q11 summary")
+    q12 = shown_text(p.locator("#q11 summary"))
     for s in (samples.HOSTILE_CLOSE, samples.HOSTILE_LINK, samples.HOSTILE_TEMPLATE):
         assert s in q12
-    passage = p.locator("#q10 + tr.ev-row blockquote.passage").inner_text()
+    passage = shown_text(p.locator("#q10 + tr.ev-row blockquote.passage"))
     assert passage == " ".join(results["questions"][10]["evidence"][0]["text"].split())
-    assert samples.HOSTILE_OWNER in p.inner_text("#q10 td:nth-child(2)")
+    assert samples.HOSTILE_OWNER in shown_text(p.locator("#q10 td:nth-child(2)"))
     assert p.evaluate("typeof window.__pwned") == "undefined"
     assert page.console_errors() == []  # a script blocked by the CSP would have logged an error
 
@@ -193,24 +200,48 @@ def test_page_works_without_javascript(tmp_path, browser):
     assert p.locator("#questions > tbody > tr").count() == len(samples.sample_run()["questions"])
     assert p.is_hidden("#filters")
     p.click("#q1 summary")
-    assert "No passage supports this question" in p.inner_text("#q1 .why")
+    assert "No passage supports this question" in shown_text(p.locator("#q1 .why"))
     context.close()
+
+
+def metrics(cdp) -> dict:
+    return {m["name"]: m["value"] for m in cdp.send("Performance.getMetrics")["metrics"]}
 
 
 @pytest.mark.slow
 def test_large_run_opens_and_filters_within_a_second(tmp_path_factory, browser):
+    """10,000 questions: page size, time to open and to filter, rows built by the script.
+
+    Times are the renderer main thread's CPU time (Chrome DevTools Protocol Performance.getMetrics
+    "ThreadTime"), which other work on a shared machine does not inflate the way it does wall
+    time; wall times are recorded beside them in test-artifacts/report-large-timing.json.
+    """
+    from auditor.report.html import SERVER_ROWS, verdict_sentence
+
     out = tmp_path_factory.mktemp("large")
     run = samples.large_run(10_000)
     index = write_report(run, out)
     size = index.stat().st_size
-    page = Page(browser, index.as_uri())
-    p = page.page
-    opened = p.evaluate("""() => {
-        const nav = performance.getEntriesByType('navigation')[0];
-        return nav.domContentLoadedEventEnd;
-    }""")
-    gaps = sum(1 for q in run["questions"] if q["verdict"] == "gap")
-    filtered = p.evaluate("""() => {
+    p = browser.new_page(viewport={"width": 1280, "height": 900})
+    errors = []
+    p.on("console", lambda m: errors.append(m.text) if m.type == "error" else None)
+    p.on("pageerror", lambda e: errors.append(str(e)))
+    cdp = p.context.new_cdp_session(p)
+    cdp.send("Performance.enable", {"timeDomain": "threadTicks"})
+    p.goto(index.as_uri())
+    p.wait_for_selector("html[data-ready]", state="attached")
+    opened_cpu = metrics(cdp)["ThreadTime"]
+    opened_wall = p.evaluate("() => performance.getEntriesByType('navigation')[0].domContentLoadedEventEnd")
+    assert p.inner_text("#shown") == "10000 of 10000 questions shown (the first 500 listed)"
+    assert p.locator(VISIBLE_ROWS).count() == 500
+
+    def timed(script):
+        before = metrics(cdp)["ThreadTime"]
+        wall = p.evaluate(script)
+        return metrics(cdp)["ThreadTime"] - before, wall
+
+    gaps = [i for i, q in enumerate(run["questions"]) if q["verdict"] == "gap"]
+    filter_cpu, filter_wall = timed("""() => {
         const s = document.getElementById('f-verdict');
         const t0 = performance.now();
         s.value = 'gap';
@@ -218,8 +249,10 @@ def test_large_run_opens_and_filters_within_a_second(tmp_path_factory, browser):
         document.body.getBoundingClientRect();  // force the layout the filter causes
         return performance.now() - t0;
     }""")
-    assert p.locator(VISIBLE_ROWS).count() == gaps
-    searched = p.evaluate("""() => {
+    assert p.inner_text("#shown").startswith(f"{len(gaps)} of 10000 questions shown")
+    assert p.locator(VISIBLE_ROWS).count() == min(500, len(gaps))
+    leak = [i for i in gaps if "leak" in run["questions"][i]["question"].lower()]
+    search_cpu, search_wall = timed("""() => {
         const s = document.getElementById('f-text');
         const t0 = performance.now();
         s.value = 'leak';
@@ -227,17 +260,32 @@ def test_large_run_opens_and_filters_within_a_second(tmp_path_factory, browser):
         document.body.getBoundingClientRect();
         return performance.now() - t0;
     }""")
-    expected = sum(1 for q in run["questions"] if q["verdict"] == "gap" and "leak" in q["question"].lower())
-    assert p.locator(VISIBLE_ROWS).count() == expected
-    p.click(f"{VISIBLE_ROWS} >> nth=0 >> summary")
-    assert p.locator("tr.ev-row article.ev").count() == 3
+    ids = p.locator(f"{VISIBLE_ROWS} .qid").all_text_contents()
+    assert ids == [run["questions"][i]["id"] for i in leak][:500]
+    if p.is_visible("#show-all"):
+        p.click("#show-all")
+    assert p.locator(VISIBLE_ROWS).count() == len(leak)
+    # A row past the server-written ones is built by the script, with its explanation and evidence.
+    late = next(i for i in leak if i >= SERVER_ROWS)
+    p.click(f"#q{late} summary")
+    p.locator(f"#q{late} + tr.ev-row").wait_for(timeout=2000)
+    assert p.locator(f"#q{late} + tr.ev-row article.ev").count() == 3
+    q = run["questions"][late]
+    assert shown_text(p.locator(f"#q{late} .why p").first) == verdict_sentence(q, run["run"]["thresholds"])
+    assert shown_text(p.locator(f"#q{late} td:nth-child(5) .v")) == q["verdict"]
+    assert shown_text(p.locator(f"#q{late} .why .act")).startswith("Write:")
+    assert p.locator(f"#q{late} .why .chip.miss").all_text_contents() == q["missing_terms"]
     ARTIFACTS.mkdir(exist_ok=True)
-    timing = {"questions": len(run["questions"]), "page_bytes": size, "dom_content_loaded_ms": round(opened),
-              "filter_verdict_ms": round(filtered), "filter_text_ms": round(searched)}
+    p.screenshot(path=str(ARTIFACTS / "report-large.png"))
+    timing = {"questions": len(run["questions"]), "page_bytes": size,
+              "open_cpu_ms": round(opened_cpu * 1000), "open_wall_ms": round(opened_wall),
+              "filter_verdict_cpu_ms": round(filter_cpu * 1000), "filter_verdict_wall_ms": round(filter_wall),
+              "filter_text_cpu_ms": round(search_cpu * 1000), "filter_text_wall_ms": round(search_wall)}
     (ARTIFACTS / "report-large-timing.json").write_text(json.dumps(timing, indent=2) + "\n")
     print(timing)
-    assert page.console_errors() == []
+    assert errors == []
     assert size < 15_000_000
-    # The issue's target: opens and filters within a second (noisy on a shared machine).
-    assert opened < 1000 and filtered < 1000 and searched < 1000, timing
+    # The issue's target: the page opens and filters within a second.
+    assert timing["open_cpu_ms"] < 1000 and timing["filter_verdict_cpu_ms"] < 1000 \
+        and timing["filter_text_cpu_ms"] < 1000, timing
     p.close()

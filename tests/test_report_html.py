@@ -316,10 +316,12 @@ def test_page_evidence_is_short_and_highlighted(report):
     q1 = data["q"][0]
     assert q1["k"] == ["bill", "pay", "payment", "phone"]  # terms scored in its evidence
     key, rank, score, support, ok, fresh, reasons, contrib, coded, signals, found = q1["e"][0]
-    assert (key, rank, score, support, ok, fresh, reasons) == ("213", 1, 11.92, 0.71, 1, 0, ["too_old"])
+    assert (key, rank, score, support, ok, fresh) == ("213", 1, 11.92, 0.71, 1, 0)
+    assert [data["R"][r] for r in reasons] == ["too_old"]
     assert contrib == [2.7, 3.1, 0.0, 6.12]
-    assert q1["sk"] == ["bm25", "coverage", "window"]
-    assert signals == [round(x, 3) for x in (0.71 * 0.6, 0.71 * 1.2, 0.71)] and found == 1
+    assert data["sk"] == ["bm25", "coverage", "window"] and "sk" not in q1  # page-wide names
+    assert signals == [round(x, 2) for x in (0.71 * 0.6, 0.71 * 1.2, 0.71)] and found == 1
+    assert "h" not in q1 and data["q"][12]["h"] == 180  # only q-013 overrides the horizon
     text, marked, end = data["p"][key]["txt"], [], 0
     for gap, length in zip(coded[::2], coded[1::2]):
         start = end + gap
@@ -343,9 +345,17 @@ def test_large_run_stays_under_the_page_limit(tmp_path):
     size = index.stat().st_size
     assert size < 15_000_000, size
     soup = BeautifulSoup(index.read_text(encoding="utf-8"), "lxml")
-    assert len(soup.select("#questions > tbody > tr")) == 10_000
+    # The first SERVER_ROWS rows are HTML; the script builds the rest from the data block.
+    rows = soup.select("#questions > tbody > tr")
+    assert len(rows) == report_html.SERVER_ROWS
+    assert [r.select_one(".qid").get_text() for r in rows[-2:]] == ["L00998", "L00999"]
     assert int(figure(soup, "questions")) == 10_000
+    assert "first 1000 of 10000 questions" in soup.select_one("#rows-note").get_text()
     data = page_data(soup)
+    assert len(data["q"]) == 10_000 and data["server_rows"] == 1000
+    assert len(data["x"]) == 9_000 and data["x"][0]["id"] == "L01000"
+    assert data["x"][0]["q"] == run["questions"][1000]["question"]
+    assert all(len(q["e"]) == 3 for q in data["q"])  # top 3 evidence items fit in the page
     assert all(len(p["txt"]) <= report_html.PASSAGE_CHARS + 2 for p in data["p"].values())
     # results.json keeps every evidence item with its full text.
     results = json.loads((tmp_path / "results.json").read_text(encoding="utf-8"))

@@ -29,11 +29,16 @@ from .exports import best_evidence, document_owner, question_owner
 
 HERE = Path(__file__).parent
 PAGE_EVIDENCE = 3  # evidence items per question in the page (results.json keeps all)
+# Rows written as HTML. Past this the page script builds rows from the data block, a page of rows
+# at a time: parsing 10,000 rows of markup alone takes the browser over a second, and readers
+# without JavaScript have gaps.csv, the owner pages and results.json for the complete list.
+SERVER_ROWS = 1000
 PASSAGE_CHARS = 600  # longest passage text in the page
 MIN_PASSAGE_CHARS = 160
 PAGE_TEXT_BUDGET = 5_000_000  # characters of passage text in one page, shared by all passages
 LIST_LIMIT = 50  # rows per document inventory list
 VERDICTS = ("covered", "stale", "gap")
+STALE_REASONS = ("too_old", "expired", "overtaken")
 ACTIONS = ("write", "refresh", "retire")
 _WORD = re.compile(r"\w{2,}")
 _ASTRAL = re.compile("[\U00010000-\U0010FFFF]")
@@ -189,6 +194,29 @@ def verdict_sentence(q: dict, thresholds: dict) -> str:
     return f"Verdict: {verdict}."
 
 
+def best_line(q: dict, best: dict) -> str | None:
+    """Which passage supports a covered question (stale and gap rows name it in their action)."""
+    if q.get("verdict") != "covered" or not best.get("document"):
+        return None
+    line = "Supported by " + str(best["document"])
+    if best.get("section"):
+        line += " › " + str(best["section"])
+    if best.get("as_of"):
+        line += ", as of " + str(best["as_of"])
+    return line
+
+
+def _script_row(row: dict) -> dict:
+    """What the script needs to build a row that is not written as HTML (see SERVER_ROWS)."""
+    q = row["q"]
+    out = {"id": q.get("id"), "q": q.get("question"), "a": q.get("action"), "y": row["why"]}
+    for key, value in (("ac", row["action_text"]), ("m", q.get("missing_terms")),
+                       ("f", [list(f) for f in row["flags"]]), ("b", row["best_line"])):
+        if value:
+            out[key] = value
+    return out
+
+
 def action_sentence(q: dict) -> str | None:
     action = q.get("action")
     best = best_evidence(q) or {}
@@ -287,16 +315,20 @@ def _page_data(questions, owners_of, owner_index, topic_index, horizon, *,
     """What the page script needs: filter keys per row and short evidence; passages deduplicated.
 
     Per question: {"v": verdict, "o": owner index, "t": topic index (-1: none), "w": weight,
-    "s": support, "h": horizon days, "k": the terms scored in its evidence, "e": evidence}; each
-    evidence item is the array [passage key, rank, BM25 score, support, supporting 0/1, fresh 0/1,
-    reasons, contribution of each term of "k", highlights, value of each support signal named in
-    "sk", answer type found 1/0/null]; "at" is the kind of answer the question asks for (date,
-    amount, ...) or null. Highlights are delta-coded
-    [gap, length, gap, length, ...] in UTF-16 code units, a gap counted from the previous end.
-    Passages ("p") are keyed by passage id. The shape keeps a 10,000-question page small.
+    "s": support, "k": the terms scored in its evidence, "e": evidence, and only when they differ
+    from the page-wide value: "h" horizon days, "sk" support signal names, "at" the kind of answer
+    asked for}. Each evidence item is the array [passage key, rank, BM25 score, support,
+    supporting 0/1, fresh 0/1, reasons (indexes into "R"), contribution of each term of "k",
+    highlights, value of each support signal of "sk", answer type found 1/0/null]. Highlights
+    are delta-coded [gap, length, gap, length, ...] in UTF-16 code units, each gap counted from
+    the previous end. Passages ("p") are keyed by passage id. The shape keeps a 10,000-question
+    page small.
     """
     hl = highlighter
     passages: dict[str, dict] = {}
+    reason_codes: dict[str, int] = {r: k for k, r in enumerate(STALE_REASONS)}
+    all_signals = sorted({k for q in questions for e in (q.get("evidence") or [])[:page_evidence]
+                          for k in (e.get("signals") or {})})
     rows = []
     keyed = []  # (evidence item, passage key, matched terms): highlight once the text is cut
     for i, q in enumerate(questions):
@@ -319,18 +351,25 @@ def _page_data(questions, owners_of, owner_index, topic_index, horizon, *,
             contrib = [round(float(terms.get(t) or 0), 2) for t in qterms]
             item = [key, e.get("rank", j + 1), round(float(e.get("score") or 0), 2),
                     round(float(e.get("support") or 0), 3), int(bool(e.get("supporting"))),
-                    int(bool(e.get("fresh"))), list(e.get("reasons") or []), contrib]
+                    int(bool(e.get("fresh"))),
+                    [reason_codes.setdefault(str(r), len(reason_codes)) for r in e.get("reasons") or []],
+                    contrib]
             signals = e.get("signals") or {}
             found = e.get("answer_type_found")
             keyed.append((item, key, [t for t in qterms if float(terms.get(t) or 0) > 0],
-                          [round(float(signals.get(k) or 0), 3) for k in snames],
+                          [round(float(signals.get(k) or 0), 2) for k in snames],
                           None if found is None else int(bool(found))))
             ev_out.append(item)
-        rows.append({"v": q.get("verdict"), "o": owner_index[owners_of[i]],
-                     "t": topic_index.get(q.get("topic"), -1),
-                     "w": q.get("weight", 1.0), "s": q.get("support"),
-                     "h": q.get("horizon_days") or horizon, "k": qterms, "sk": snames,
-                     "at": answer_type, "e": ev_out})
+        row = {"v": q.get("verdict"), "o": owner_index[owners_of[i]],
+               "t": topic_index.get(q.get("topic"), -1),
+               "w": q.get("weight", 1.0), "s": q.get("support"), "k": qterms, "e": ev_out}
+        if q.get("horizon_days") and q.get("horizon_days") != horizon:
+            row["h"] = q["horizon_days"]
+        if snames != all_signals:
+            row["sk"] = snames
+        if answer_type:
+            row["at"] = answer_type
+        rows.append(row)
     limit = PASSAGE_CHARS
     if passages:
         limit = max(MIN_PASSAGE_CHARS, min(PASSAGE_CHARS, text_budget // len(passages)))
@@ -343,7 +382,8 @@ def _page_data(questions, owners_of, owner_index, topic_index, horizon, *,
             coded += [flat[k] - end, flat[k + 1] - flat[k]]
             end = flat[k + 1]
         item += [coded, signal_values, found]
-    return {"q": rows, "p": passages}
+    return {"q": rows, "p": passages, "h": horizon, "sk": all_signals,
+            "R": sorted(reason_codes, key=reason_codes.get)}
 
 
 def build_view(run: dict, *, questions: list[dict], documents: list[dict], summary: dict,
@@ -372,7 +412,7 @@ def build_view(run: dict, *, questions: list[dict], documents: list[dict], summa
             "i": i, "q": q, "owner": own, "verdict": q.get("verdict"),
             "why": verdict_sentence(q, thresholds), "action_text": action_sentence(q),
             "flags": [(f, FLAG_TEXT.get(f, "")) for f in q.get("flags") or []],
-            "best": best, "best_fresh": best.get("fresh"),
+            "best": best, "best_line": best_line(q, best),
         })
 
     ages, undated = _evidence_ages(questions, audit)
@@ -400,7 +440,8 @@ def build_view(run: dict, *, questions: list[dict], documents: list[dict], summa
         "diff": diff_view(run.get("diff")) if owner is None else None,
         "gate": gate_view(run.get("gate")) if owner is None else None,
         "briefs": briefs,
-        "rows": rows,
+        "rows": rows[:SERVER_ROWS],
+        "row_count": len(rows),
         "owner_names": owner_names, "topics": topics,
         "inventory": inventory(documents, run.get("ingest_errors") if owner is None else [], audit),
         "caution": CAUTION,
@@ -408,7 +449,8 @@ def build_view(run: dict, *, questions: list[dict], documents: list[dict], summa
         "data": dict(_page_data(questions, owners_of, owner_index, topic_index, horizon,
                                 page_evidence=page_evidence, text_budget=text_budget,
                                 highlighter=highlighter or Highlighter()),
-                     audit=meta.get("as_of")),
+                     audit=meta.get("as_of"), server_rows=min(SERVER_ROWS, len(rows)),
+                     x=[_script_row(r) for r in rows[SERVER_ROWS:]]),
         "audit_date": meta.get("as_of"),
         "horizon": horizon,
         "reason_text": REASON_TEXT, "source_text": SOURCE_TEXT,
@@ -510,7 +552,8 @@ def gate_view(gate: dict | None) -> dict | None:
     facts = [(_humanize(k), _scalar_text(v)) for k, v in sorted(gate.items())
              if k not in ("passed", "ok", "checks", "message")]
     return {"passed": bool(passed), "message": gate.get("message"), "headers": headers,
-            "rows": rows, "facts": facts}
+            "rows": rows[:SERVER_ROWS],
+        "row_count": len(rows), "facts": facts}
 
 
 def inventory(documents: list[dict], ingest_errors, audit: date | None) -> dict:

@@ -1,25 +1,34 @@
-/* Corpus Auditor report: filters, search, sort and evidence panels over the server-rendered table.
+/* Corpus Auditor report: filters, search, sort and evidence panels over the question table.
    Safety rule: text from the run only ever reaches the page through textContent / createTextNode;
-   nothing here assigns innerHTML. Data comes from the JSON block, parsed with JSON.parse. */
+   nothing here assigns innerHTML. Data comes from the JSON block, parsed with JSON.parse.
+
+   The table shows the rows that match the filters in the chosen order, PAGE rows at a time. Rows
+   0 .. data.server_rows-1 are written as HTML by the server (readable without JavaScript); the
+   others are built here from data.x when first shown. */
 (function () {
   "use strict";
+  var PAGE = 500;
   var dataEl = document.getElementById("report-data");
   var table = document.getElementById("questions");
   if (!dataEl || !table) { return; }
   var data = JSON.parse(dataEl.textContent);
+  var n = data.q.length, serverRows = data.server_rows;
   var tbody = table.tBodies[0];
-  var rows = Array.prototype.slice.call(tbody.rows); // rows[i] belongs to data.q[i]
+  var rows = Array.prototype.slice.call(tbody.rows); // rows[i] belongs to data.q[i], once it exists
+  var detailRows = []; // detailRows[i]: the evidence row under rows[i], once built
   var form = document.getElementById("filters");
   var fVerdict = document.getElementById("f-verdict");
   var fOwner = document.getElementById("f-owner");
   var fTopic = document.getElementById("f-topic");
   var fText = document.getElementById("f-text");
   var shown = document.getElementById("shown");
+  var more = document.getElementById("more");
   var owners = [], topics = [];
   Array.prototype.forEach.call(fOwner.options, function (o) { if (o.value !== "") { owners[+o.value] = o.text; } });
   Array.prototype.forEach.call(fTopic.options, function (o) { if (+o.value >= 0 && o.value !== "") { topics[+o.value] = o.text; } });
-  var hay = null;
-  var detailRows = []; // detailRows[i]: the evidence row under rows[i], once built
+  var order = [];  // every question index, in the chosen sort order
+  for (var k = 0; k < n; k++) { order.push(k); }
+  var matches = order, limit = PAGE, hay = null;
 
   function el(tag, cls, text) {
     var e = document.createElement(tag);
@@ -27,13 +36,80 @@
     if (text !== undefined && text !== null) { e.textContent = String(text); }
     return e;
   }
+  function extra(i) { return data.x[i - serverRows]; }
+  function questionText(i) {
+    return i < serverRows ? rows[i].cells[0].querySelector("summary").textContent : extra(i).id + " " + extra(i).q;
+  }
+  function actionOf(i) { return i < serverRows ? rows[i].cells[6].textContent : (extra(i).a || ""); }
+  function num(x, digits) {
+    if (x === null || x === undefined) { return "–"; }
+    return x === Math.round(x) ? String(x) : (+x).toFixed(digits);
+  }
+
+  // A row the server did not write, built like the template's rows.
+  function buildRow(i) {
+    var q = data.q[i], x = extra(i);
+    var verdict = ({ covered: 1, stale: 1, gap: 1 })[q.v] ? q.v : "other";
+    var tr = el("tr", "r-" + verdict);
+    tr.id = "q" + i;
+    tr.setAttribute("role", "row");
+    function cell() { var td = tr.insertCell(); td.setAttribute("role", "cell"); return td; }
+    var details = el("details"), summary = el("summary"), why = el("div", "why");
+    summary.appendChild(el("span", "qid", x.id));
+    summary.appendChild(document.createTextNode(" " + x.q));
+    details.appendChild(summary);
+    why.appendChild(el("p", null, x.y));
+    if (x.ac) { why.appendChild(el("p", "act", x.ac)); }
+    if (x.m) {
+      var miss = el("p", null, "Never used in the corpus: ");
+      x.m.forEach(function (t) { miss.appendChild(el("span", "chip miss", t)); });
+      why.appendChild(miss);
+    }
+    if (x.f) {
+      var ul = el("ul", "flags");
+      x.f.forEach(function (f) {
+        var li = el("li"); li.appendChild(el("span", "chip", f[0]));
+        li.appendChild(document.createTextNode(" " + f[1])); ul.appendChild(li);
+      });
+      why.appendChild(ul);
+    }
+    if (x.b) { why.appendChild(el("p", "best", x.b)); }
+    details.appendChild(why);
+    cell().appendChild(details);
+    cell().textContent = owners[q.o];
+    cell().textContent = q.t >= 0 ? topics[q.t] : "";
+    cell().textContent = num(q.w, 2);
+    var vc = cell();
+    vc.appendChild(el("span", "v v-" + verdict, q.v));
+    (x.f || []).forEach(function (f) { vc.appendChild(document.createTextNode(" ")); vc.appendChild(el("span", "flag", f[0])); });
+    cell().textContent = num(q.s, 3);
+    var ac = cell();
+    if (x.a) { ac.appendChild(el("span", "a a-" + (({ write: 1, refresh: 1, retire: 1 })[x.a] ? x.a : "other"), x.a)); }
+    return tr;
+  }
+  function rowOf(i) { return rows[i] || (rows[i] = buildRow(i)); }
+
+  function render() {
+    var frag = document.createDocumentFragment();
+    var count = Math.min(limit, matches.length);
+    for (var j = 0; j < count; j++) {
+      var i = matches[j];
+      frag.appendChild(rowOf(i));
+      if (detailRows[i] && rows[i].classList.contains("open")) { frag.appendChild(detailRows[i]); }
+    }
+    tbody.replaceChildren(frag);
+    shown.textContent = matches.length + " of " + n + " questions shown" +
+      (count < matches.length ? " (the first " + count + " listed)" : "");
+    more.hidden = count >= matches.length;
+  }
 
   function haystack() {
     if (hay === null) {
-      hay = rows.map(function (r) {
-        return (r.cells[0].querySelector("summary").textContent + " " + r.cells[1].textContent + " " +
-                r.cells[2].textContent).toLowerCase();
-      });
+      hay = [];
+      for (var i = 0; i < n; i++) {
+        var q = data.q[i];
+        hay.push((questionText(i) + " " + owners[q.o] + " " + (q.t >= 0 ? topics[q.t] : "")).toLowerCase());
+      }
     }
     return hay;
   }
@@ -43,18 +119,13 @@
     var s = fText.value.trim().toLowerCase();
     var words = s ? haystack() : null;
     var oi = o === "" ? null : +o, ti = t === "" ? null : +t;
-    var n = 0;
-    for (var i = 0; i < rows.length; i++) {
+    matches = order.filter(function (i) {
       var q = data.q[i];
-      var show = (!v || q.v === v) && (oi === null || q.o === oi) && (ti === null || q.t === ti) &&
-                 (!s || words[i].indexOf(s) !== -1);
-      if (rows[i].hidden === show) {
-        rows[i].hidden = !show;
-        if (detailRows[i]) { detailRows[i].hidden = !show || !rows[i].classList.contains("open"); }
-      }
-      if (show) { n++; }
-    }
-    shown.textContent = n + " of " + rows.length + " questions shown";
+      return (!v || q.v === v) && (oi === null || q.o === oi) && (ti === null || q.t === ti) &&
+             (!s || words[i].indexOf(s) !== -1);
+    });
+    limit = PAGE;
+    render();
   }
 
   // --- sort ---------------------------------------------------------------------------------
@@ -69,8 +140,8 @@
       case "verdict": return verdictRank.hasOwnProperty(q.v) ? verdictRank[q.v] : 9;
       case "owner": return owners[q.o] || "";
       case "topic": return q.t >= 0 ? topics[q.t] : "";
-      case "action": var a = rows[i].cells[6].textContent; return actionRank.hasOwnProperty(a) ? actionRank[a] : 9;
-      default: return rows[i].cells[0].querySelector("summary").textContent;
+      case "action": var a = actionOf(i); return actionRank.hasOwnProperty(a) ? actionRank[a] : 9;
+      default: return questionText(i).replace(/^\S+\s+/, "");  // without the id
     }
   }
   var sortState = { col: null, dir: 1 };
@@ -78,23 +149,18 @@
     var col = th.getAttribute("data-sort");
     var dir = sortState.col === col ? -sortState.dir : (col === "weight" ? -1 : 1);
     sortState = { col: col, dir: dir };
-    var idx = rows.map(function (_, i) { return i; });
-    var keys = idx.map(function (i) { return keyOf(col, i); });
-    idx.sort(function (a, b) {
+    var keys = [];
+    for (var i = 0; i < n; i++) { keys.push(keyOf(col, i)); }
+    order = order.slice().sort(function (a, b) {
       var ka = keys[a], kb = keys[b];
       var c = typeof ka === "number" ? ka - kb : collator.compare(ka, kb);
       return c !== 0 ? c * dir : a - b;
     });
-    var frag = document.createDocumentFragment();
-    idx.forEach(function (i) {
-      frag.appendChild(rows[i]);
-      if (detailRows[i]) { frag.appendChild(detailRows[i]); }
-    });
-    tbody.appendChild(frag);
     Array.prototype.forEach.call(table.tHead.rows[0].cells, function (c) {
       if (c === th) { c.setAttribute("aria-sort", dir > 0 ? "ascending" : "descending"); }
       else if (c.hasAttribute("data-sort")) { c.setAttribute("aria-sort", "none"); }
     });
+    apply();
   }
   Array.prototype.forEach.call(table.tHead.rows[0].cells, function (th) {
     if (!th.hasAttribute("data-sort")) { return; }
@@ -137,7 +203,8 @@
   }
 
   function freshnessWhy(p, e, horizon) {
-    var fresh = e[5] === 1, reasons = e[6], parts = [];
+    var fresh = e[5] === 1, parts = [];
+    var reasons = e[6].map(function (k) { return data.R[k]; });
     if (p.ao) {
       var s = "As of " + p.ao + " (from " + (SOURCES[p.src] || p.src || "an unknown source") + ")";
       var age = ageDays(p.ao);
@@ -156,7 +223,7 @@
   }
 
   function evidenceItem(e, q) {
-    var p = data.p[e[0]] || {}, horizon = q.h;
+    var p = data.p[e[0]] || {}, horizon = q.h || data.h, signalNames = q.sk || data.sk || [];
     var ok = e[4] === 1, fresh = e[5] === 1, ranges = e[8] || [];
     var terms = q.k.map(function (t, k) { return [t, e[7][k]]; })
       .filter(function (x) { return x[1] > 0; })
@@ -191,10 +258,10 @@
     if (!terms.length) { tb.insertRow().insertCell().textContent = "no question term in this passage"; }
     left.appendChild(t);
     var sig = e[9] || [];
-    if (q.sk && q.sk.length && sig.length) {
+    if (signalNames.length && sig.length) {
       var sl = el("p", "signals");
       sl.appendChild(el("span", "sr", "Support signals: "));
-      q.sk.forEach(function (name, k) {
+      signalNames.forEach(function (name, k) {
         var chip = el("span", "sig");
         chip.appendChild(el("b", null, name));
         chip.appendChild(document.createTextNode(" " + (+sig[k]).toFixed(2)));
@@ -242,14 +309,16 @@
     if (!tr) {
       var q = data.q[i];
       tr = detailRows[i] = el("tr", "ev-row");
+      tr.setAttribute("role", "row");
       var td = tr.insertCell();
       td.colSpan = ncols;
+      td.setAttribute("role", "cell");
       td.appendChild(el("h3", "sr", "Evidence"));
       if (!q.e.length) { td.appendChild(el("p", "hint", "No passage was retrieved for this question.")); }
       q.e.forEach(function (e) { td.appendChild(evidenceItem(e, q)); });
-      rows[i].parentNode.insertBefore(tr, rows[i].nextSibling);
     }
-    tr.hidden = rows[i].hidden;
+    if (rows[i].nextSibling !== tr) { rows[i].parentNode.insertBefore(tr, rows[i].nextSibling); }
+    tr.hidden = false;
     rows[i].classList.add("open");
   }
   function closeEvidence(details) {
@@ -265,6 +334,11 @@
   [fVerdict, fOwner, fTopic].forEach(function (s) { s.addEventListener("change", apply); });
   fText.addEventListener("input", apply);
   form.addEventListener("submit", function (ev) { ev.preventDefault(); });
+  document.getElementById("show-more").addEventListener("click", function () { limit += PAGE; render(); });
+  document.getElementById("show-all").addEventListener("click", function () { limit = matches.length; render(); });
+  var note = document.getElementById("rows-note");
+  if (note) { note.hidden = true; }
   form.hidden = false;
+  if (n > PAGE) { render(); }
   document.documentElement.setAttribute("data-ready", "1");
 })();
