@@ -182,6 +182,7 @@ def test_screenshot(sample):
     p.wait_for_selector("html[data-ready]", state="attached")
     p.click("#q0 summary")
     p.locator("#q0 + tr.ev-row").wait_for(timeout=2000)
+    p.evaluate("window.scrollTo(0, 0)")  # the sticky table header then sits on the table
     ARTIFACTS.mkdir(exist_ok=True)
     path = ARTIFACTS / "report.png"
     p.screenshot(path=str(path), full_page=True)

@@ -184,8 +184,13 @@ def trend(points: list[dict], width: int = 1160) -> Markup:
                         f'<title>{escape(name)}: {v * 100:.1f}%</title></circle>')
     label_every = max(1, int(math.ceil(n / 8)))
     for i in range(0, n, label_every):
-        body.append(f'<text x="{_fmt(xs[i])}" y="{top + plot_h + 16}" text-anchor="middle" class="axis">'
+        # The outermost labels hang inwards so that they are not cut at the edges.
+        anchor = "start" if i == 0 and n > 1 else ("end" if i == n - 1 and n > 1 else "middle")
+        body.append(f'<text x="{_fmt(xs[i])}" y="{top + plot_h + 16}" text-anchor="{anchor}" class="axis">'
                     f'{escape(points[i]["label"])}</text>')
+    if n > 1 and (n - 1) % label_every:
+        body.append(f'<text x="{_fmt(xs[-1])}" y="{top + plot_h + 16}" text-anchor="end" class="axis">'
+                    f'{escape(points[-1]["label"])}</text>')
     lx = left
     for _, name, cls in TREND_SERIES:
         body.append(f'<line x1="{lx}" y1="{height - 12}" x2="{lx + 18}" y2="{height - 12}" class="{cls}"/>'

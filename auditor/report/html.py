@@ -8,7 +8,8 @@
 * A Content-Security-Policy meta tag allows only the page's own inline script and style (by
   sha256 hash): nothing is fetched, and an injected script would not run even if escaping failed.
 * The page keeps evidence short (top PAGE_EVIDENCE items, passage text cut to a budget) so a run of
-  10,000 questions stays under 15 MB; results.json keeps everything.
+  10,000 questions stays under 15 MB; results.json keeps everything. Only the first SERVER_ROWS
+  rows are written as HTML; the script builds the others from the data block when shown.
 """
 
 from __future__ import annotations
@@ -39,7 +40,6 @@ PAGE_TEXT_BUDGET = 5_000_000  # characters of passage text in one page, shared b
 LIST_LIMIT = 50  # rows per document inventory list
 VERDICTS = ("covered", "stale", "gap")
 STALE_REASONS = ("too_old", "expired", "overtaken")
-ACTIONS = ("write", "refresh", "retire")
 _WORD = re.compile(r"\w{2,}")
 _ASTRAL = re.compile("[\U00010000-\U0010FFFF]")
 
@@ -59,8 +59,6 @@ FLAG_TEXT = {
     "no_answer_type": ("the best passage lacks the asked-for kind of answer (a date, amount, "
                        "duration, name or place), so its support was lowered"),
 }
-SOURCE_TEXT = {"statement": "a dated statement", "metadata": "document metadata",
-               "file": "the file time", "none": "no date"}
 
 
 # --- small helpers --------------------------------------------------------------------------------
@@ -412,7 +410,7 @@ def build_view(run: dict, *, questions: list[dict], documents: list[dict], summa
             "i": i, "q": q, "owner": own, "verdict": q.get("verdict"),
             "why": verdict_sentence(q, thresholds), "action_text": action_sentence(q),
             "flags": [(f, FLAG_TEXT.get(f, "")) for f in q.get("flags") or []],
-            "best": best, "best_line": best_line(q, best),
+            "best_line": best_line(q, best),
         })
 
     ages, undated = _evidence_ages(questions, audit)
@@ -453,7 +451,6 @@ def build_view(run: dict, *, questions: list[dict], documents: list[dict], summa
                      x=[_script_row(r) for r in rows[SERVER_ROWS:]]),
         "audit_date": meta.get("as_of"),
         "horizon": horizon,
-        "reason_text": REASON_TEXT, "source_text": SOURCE_TEXT,
     }
 
 

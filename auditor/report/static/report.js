@@ -245,7 +245,8 @@
     var t = el("table");
     t.appendChild(el("caption", "sr", "Score breakdown by term"));
     var head = t.createTHead().insertRow();
-    ["term", "BM25", "share"].forEach(function (h) { head.appendChild(el("th", null, h)); });
+    ["term", "BM25"].forEach(function (h) { head.appendChild(el("th", null, h)); });
+    head.appendChild(el("th", "bar-h")).appendChild(el("span", "sr", "share of the best term"));
     var tb = t.createTBody();
     var top = terms.length ? Math.max.apply(null, terms.map(function (x) { return x[1]; })) : 0;
     terms.forEach(function (x) {
