@@ -129,6 +129,8 @@ def extract(text: str, reference_date: date | None = None, *, day_first: bool = 
     """
     if hemisphere not in ("north", "south"):
         raise ValueError(f"hemisphere must be 'north' or 'south', not {hemisphere!r}")
+    if not (isinstance(fiscal_year_start, int) and 1 <= fiscal_year_start <= 12):
+        raise ValueError(f"fiscal_year_start must be a month number 1-12, not {fiscal_year_start!r}")
     ctx = {"text": text, "reference": reference_date, "fys": fiscal_year_start, "day_first": day_first,
            "hemisphere": hemisphere, "previous_end": None}
     atoms: list[Atom] = []

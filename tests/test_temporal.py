@@ -99,6 +99,12 @@ def test_hemisphere_option():
         extract("Winter 2025", REF, hemisphere="east")
 
 
+@pytest.mark.parametrize("month", [0, 13, "7"])
+def test_fiscal_year_start_must_be_a_month(month):
+    with pytest.raises(ValueError, match="fiscal_year_start must be a month number 1-12"):
+        extract("FY2025 budget", REF, fiscal_year_start=month)
+
+
 def test_this_winter_in_january_is_the_winter_under_way():
     (e,) = extract("Frozen pipes are common this winter.", date(2025, 1, 15))
     assert (e.start, e.end) == (date(2024, 12, 1), date(2025, 2, 28))
