@@ -469,20 +469,23 @@ class SparseIndex:
         for row in rows[rows >= 0].tolist():
             scratch += self.dense[row]
         n_touched = sum(len(p) for p in touched)
+        # Relative float32 error of a sum of n positive weights stays below n·2^-23 (rounding of each
+        # weight and each addition); the margin keeps every passage that exact scores could rank in.
+        slack = 1 - (1e-5 + len(terms) * 2.4e-7)
         if len(sparse) < len(terms) or n_touched > self.n_docs // 16:
             held, values = _sample(scratch, touched)
             theta = _kth_distinct(held, values, scratch, k, len(touched) + 1)
-            seen = np.flatnonzero(scratch >= theta * (1 - 1e-5)) if theta > 0 else np.flatnonzero(scratch)
+            seen = np.flatnonzero(scratch >= theta * slack) if theta > 0 else np.flatnonzero(scratch)
             values = scratch[seen]
             scratch.fill(0)
         else:
             held = np.concatenate(touched)
             values = scratch[held]
             theta = _kth_distinct(held, values, scratch, k, len(touched))
-            seen = self._distinct(held[values >= theta * (1 - 1e-5)] if theta > 0 else held)
+            seen = self._distinct(held[values >= theta * slack] if theta > 0 else held)
             values = scratch[seen]
             scratch[held] = 0
-        return _near_top(seen, values, k)
+        return _near_top(seen, values, k, slack)
 
     def _distinct(self, docs: np.ndarray) -> np.ndarray:
         """Sorted distinct ordinals of `docs`: a flag array for large inputs (np.unique sorts or
@@ -528,12 +531,12 @@ def _kth_distinct(held: np.ndarray, values: np.ndarray, scratch: np.ndarray, k: 
     return float(np.partition(distinct, len(distinct) - k)[len(distinct) - k])
 
 
-def _near_top(docs: np.ndarray, values: np.ndarray, k: int) -> np.ndarray:
-    """Docs whose float32 score reaches the k-th best within float32 rounding, so that exact
-    rescoring in float64 decides the order and near-ties at the cut."""
+def _near_top(docs: np.ndarray, values: np.ndarray, k: int, slack: float) -> np.ndarray:
+    """Docs whose float32 score reaches the k-th best within float32 rounding (`slack`), so that
+    exact rescoring in float64 decides the order and near-ties at the cut."""
     if len(docs) > k:
         theta = np.partition(values, len(values) - k)[len(values) - k]
-        keep = values >= theta * (1 - 1e-5) if theta > 0 else values > 0
+        keep = values >= theta * slack if theta > 0 else values > 0
         docs = docs[keep]
         values = values[keep]
     return docs[values > 0] if len(docs) else docs

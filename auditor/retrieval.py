@@ -42,7 +42,7 @@ class Hit:
 class SearchResult:
     """What a question retrieves, with what the judge needs to normalise support."""
 
-    terms: list[str]  # the question's distinct terms, in question order
+    terms: list[str]  # the question's distinct terms, in question order (a repeat adds nothing)
     idf: dict[str, float]  # every term; one the corpus never uses gets the highest IDF
     missing_terms: list[str]  # terms the corpus never uses
     max_score: float  # Σ idf_t · (k1 + 1) (+ δ for BM25+): the most any passage could score
@@ -57,11 +57,13 @@ def index_folder(store: Store) -> Path:
 
 def corpus_fingerprint(store: Store) -> str:
     """Changes whenever the searchable corpus may have changed: the active documents with their
-    content hashes, and the identity and size of their passages. Cheap: SQL aggregates only."""
+    content hashes (a changed file gets new passages), the ids of their passages and the
+    tokenizer. Cheap: aggregates over p.id and p.document_id only, which SQLite reads from the
+    covering index passages_document instead of scanning the passage texts."""
     digest = hashlib.sha256()
     row = store.db.execute(
         "SELECT count(*), coalesce(sum(p.id), 0), coalesce(min(p.id), 0), coalesce(max(p.id), 0), "
-        f"coalesce(sum(length(p.token_ids)), 0), coalesce(sum(p.document_id * p.ordinal), 0) {_ACTIVE}"
+        f"coalesce(sum(p.id % 7919 * p.document_id), 0) {_ACTIVE}"
     ).fetchone()
     digest.update(repr(tuple(row)).encode())
     for doc_id, sha in store.db.execute("SELECT id, sha256 FROM documents WHERE status = 'active' ORDER BY id"):
@@ -141,7 +143,7 @@ class PassageIndex:
             idf_values = self.index.term_idf(ids)
             present = [t for t, i in zip(terms, ids) if i is not None and i < self.index.n_terms
                        and self.index.df[i] > 0]
-            missing = [t for t in terms if t not in set(present)]
+            missing = [t for t in terms if t not in present]
             result = SearchResult(terms=terms, idf=dict(zip(terms, idf_values)), missing_terms=missing,
                                   max_score=float(sum(idf_values) * saturation))
             if not terms:
@@ -151,7 +153,7 @@ class PassageIndex:
             elif not present:
                 result.message = ALL_MISSING
             else:
-                present_ids = [i for t, i in zip(terms, ids) if t in set(present)]
+                present_ids = [i for t, i in zip(terms, ids) if t in present]
                 ordinals, scores, parts = self.index.top_k(present_ids, k)
                 keys = self.index.keys
                 for column, (ordinal, score) in enumerate(zip(ordinals, scores)):

@@ -150,3 +150,19 @@ def test_count_terms_counts_and_tf_dtype():
     assert counts.tf.tolist() == [1, 2, 70000] and counts.tf.dtype == np.int32
     assert counts.doc_len.tolist() == [3, 0, 70000]
     assert count_terms([np.array([3, 3])]).tf.dtype == np.uint16
+
+
+@pytest.mark.parametrize("variant", list(VARIANTS))
+def test_top_k_equals_brute_force_on_a_zipf_corpus(variant):
+    # Larger than the property test: dense rows, long posting lists, k from 1 to 20, questions of
+    # up to 40 terms (float32 slack grows with the number of terms).
+    rng = np.random.default_rng(5)
+    docs = [list((rng.zipf(1.2, size=int(rng.integers(5, 80))) - 1) % 2000) for _ in range(4000)]
+    index = build(docs, Params(variant))
+    assert index.dense.shape[0] > 0
+    for _ in range(60):
+        query = list(np.unique(rng.integers(0, 2100, size=int(rng.integers(1, 40)))))
+        k = int(rng.integers(1, 21))
+        got, scores, _ = index.top_k(query, k)
+        expected, exact = brute_top(index, query, k)
+        assert list(got) == expected
