@@ -329,6 +329,28 @@ def sample_run() -> dict:
     }
 
 
+def bare_run() -> dict:
+    """Only the keys of DESIGN.md §4.3, as an older stored run has them."""
+    return {
+        "format": 1,
+        "run": {"id": 3, "as_of": "2026-12-01", "horizon_days": 365, "started": "2026-12-01T06:00:00Z",
+                "corpus": {"documents": 2, "passages": 5, "failed": 1}},
+        "summary": {"questions": 2, "covered": 1, "stale": 0, "gap": 1, "weight": 3.0,
+                    "fallback_exposure": 2 / 3, "stale_exposure": 0.0},
+        "questions": [
+            {"id": "a", "question": "Can I pay by phone?", "owner": None, "topic": None, "weight": 1.0,
+             "verdict": "covered", "reasons": [], "support": 0.7, "missing_terms": [],
+             "evidence": [{"document": "pay.md", "page": None, "section": "Pay", "passage": 1,
+                           "score": 3.0, "support": 0.7, "supporting": True, "as_of": "2026-10-01",
+                           "as_of_source": "metadata", "expires": None, "fresh": True, "reasons": [],
+                           "text": "Pay by phone."}]},
+            {"id": "b", "question": "Autopay?", "owner": "Billing", "topic": "payments", "weight": 2.0,
+             "verdict": "gap", "reasons": [], "support": 0.1, "missing_terms": ["autopay"], "evidence": []},
+        ],
+        "ingest_errors": [{"document": "scan.pdf", "error": "encrypted PDF, no password given"}],
+    }
+
+
 WORDS = ("bill pay phone meter leak rate deposit service start stop water main street rebate toilet "
          "boil advisory lead quality pressure hydrant sewer account portal autopay late fee refund "
          "outage repair crew schedule permit backflow irrigation drought tier usage reading").split()

@@ -205,6 +205,21 @@ def test_page_works_without_javascript(tmp_path, browser):
     context.close()
 
 
+def test_a_bare_format1_run_works_in_the_browser(tmp_path, browser):
+    page = Page(browser, write_report(samples.bare_run(), tmp_path).as_uri())
+    p = page.page
+    p.click("#q0 summary")
+    evidence = p.locator("#q0 + tr.ev-row")
+    evidence.wait_for(timeout=2000)
+    assert "no question term in this passage" in shown_text(evidence.locator("table.bd"))
+    assert "no dated statements" in shown_text(evidence.locator("table.st"))
+    assert "61 days before the audit date" in shown_text(evidence.locator(".fw"))
+    p.click("#q1 summary")
+    assert "No passage was retrieved" in shown_text(p.locator("#q1 + tr.ev-row"))
+    assert page.console_errors() == []
+    p.close()
+
+
 def metrics(cdp) -> dict:
     return {m["name"]: m["value"] for m in cdp.send("Performance.getMetrics")["metrics"]}
 

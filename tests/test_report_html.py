@@ -360,3 +360,23 @@ def test_large_run_stays_under_the_page_limit(tmp_path):
     # results.json keeps every evidence item with its full text.
     results = json.loads((tmp_path / "results.json").read_text(encoding="utf-8"))
     assert results["questions"][0]["evidence"][0]["text"] == run["questions"][0]["evidence"][0]["text"]
+
+
+def test_a_bare_format1_run_renders(tmp_path):
+    """Only the keys of DESIGN.md §4.3 (an older stored run): no documents, briefs, history, diff,
+    gate, flags, terms or statements. The page still renders, with the figures of the summary."""
+    run = samples.bare_run()
+    index = write_report(run, tmp_path)
+    soup = BeautifulSoup(index.read_text(encoding="utf-8"), "lxml")
+    assert float(figure(soup, "fallback_exposure")) == pytest.approx(2 / 3)
+    assert figure(soup, "freshness") == ""  # not in this run: shown as a dash, no value
+    assert soup.select_one('[data-figure="freshness"] data').get_text() == "–"
+    assert len(soup.select("svg.chart")) == 2  # no history, no trend
+    assert soup.select_one("section.gate") is None and soup.select_one("#diff-h") is None
+    assert [li.contents[0].strip().rstrip(":") for li in soup.select("#inv-failed li")] == ["scan.pdf"]
+    assert soup.h1.get_text() == "Knowledge base"  # no title in the run
+    assert soup.select_one("#rows-note") is None  # every row is in the HTML
+    assert sorted(p.name for p in (tmp_path / "owners").iterdir()) == [
+        "billing.csv", "billing.html", "unassigned.csv", "unassigned.html"]
+    data = page_data(soup)
+    assert data["q"][0]["e"][0][7] == [] and data["sk"] == []  # no terms, no signals

@@ -242,7 +242,7 @@
     if (p.cut) { text.appendChild(el("p", "hint", "Text shortened here; results.json has the full passage.")); }
     grid.appendChild(text);
     var left = el("div");
-    var t = el("table");
+    var t = el("table", "bd");
     t.appendChild(el("caption", "sr", "Score breakdown by term"));
     var head = t.createTHead().insertRow();
     ["term", "BM25"].forEach(function (h) { head.appendChild(el("th", null, h)); });
