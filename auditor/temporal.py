@@ -171,7 +171,7 @@ def extract(text: str, reference_date: date | None = None, *, day_first: bool = 
         role = role_for(text[left_from:atom.start], text[atom.end:s_end], sentence, start=atom.first,
                         reference_date=reference_date, granularity=atom.granularity,
                         future_relative=atom.future, past_relative=atom.past,
-                        bounded=atom.bounded)
+                        bounded=atom.bounded, expression=text[atom.start:atom.end])
         previous_in_sentence[index] = atom.end
         found.append(TemporalExpression(sentence, text[atom.start:atom.end], atom.first, atom.last,
                                         atom.granularity, role, atom.start, atom.end))

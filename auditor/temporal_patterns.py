@@ -161,12 +161,13 @@ _YEAR_BLOCK_LEFT = re.compile(
     r"[Vv]ersion|[Vv]er\.?|v|[Rr]oom|[Ss]uite|[Uu]nit|[Aa]pt\.?|[Bb]ox|[Ee]xt\.?|[Ee]xtension|[Cc]ode|"
     r"[Mm]odel|[Ee]rror|[Tt]icket|[Aa]ccount|[Oo]rder|[Ii]nvoice|[Rr]ef\.?|[Rr]eference|[Ll]ine|"
     r"[Ii]tem|[Rr]oute|[Hh]ighway|[Bb]uilding|[Ff]orm|[Ss]ection|[Pp]art|[Ss]erver|[Oo]ffice|[Ww]indows)"
-    r"\s*[/:#-]?\s*|[$€£#]\s*)$")
+    r"\s*[/:#-]?\s*|[$€£#]\s*|\b(?:[Aa]\s+)?[Tt]otal\s+of\s+)$")
 _YEAR_BLOCK_RIGHT = re.compile(
     r"(?i:\s*(?:gallons?|gal|litres?|liters?|kwh|kw|customers?|homes?|households?|accounts?|meters?|"
     r"metres?|feet|ft|km|kilometres?|kilometers?|miles?|units?|people|residents|connections|samples?|"
     r"tests|calls|tickets|pages?|words|items|mb|gb|hours?|hrs|minutes?|mins|mg|ppm|ppb|m3|cubic|"
-    r"dollars|usd|cents|users|devices|laptops|emails|requests|properties|sq|square)\b)")
+    r"dollars|usd|cents|users|devices|laptops|emails|requests|properties|sq|square|men|women|children|"
+    r"patients|participants|subjects|adults|staff|employees|students|cases|members|respondents)\b)")
 _YEAR_AFTER_YEAR = re.compile(r"(?i:\s*(?:,|and|or|to|through|-|–)\s*)$")
 
 

@@ -43,7 +43,7 @@ import re
 from datetime import date
 
 _OTHER_LEFT = re.compile(r"(?i:(?:©|\(c\)|\bcopyright)\s*(?:©\s*)?$|\bet\s+al\.?,?\s*$|"
-                         r"\([A-Z][A-Za-z.&' -]{1,60},\s*$|\(\s*$)")  # the last: "(2016)", a publication year
+                         r"\([A-Z][A-Za-z.&' -]{1,60},\s*$)")
 _STRONG = [
     ("as_of", r"as\s+of|as\s+at|(?:last[\s_]+)?updated(?:\s+on)?|(?:last[\s_]+)?reviewed(?:\s+on)?|revised(?:\s+on)?|"
               r"(?:last[\s_]+)?modified(?:\s+on)?|date[\s_]+modified|"
@@ -156,11 +156,13 @@ def _tense(sentence: str) -> tuple[bool, bool]:
 
 def role_for(left: str, right: str, sentence: str, *, start: date, reference_date: date | None,
              granularity: str = "day", future_relative: bool = False, past_relative: bool = False,
-             bounded: bool = False) -> str:
+             bounded: bool = False, expression: str = "") -> str:
     """The role of an expression, given the sentence text to its `left` and `right` (see module doc)."""
     left, right = left[-_WINDOW:], right[:_WINDOW]
     if _OTHER_LEFT.search(left) or _RECURRING.match(right):
         return "other"
+    if expression.isdigit() and left.endswith("(") and right.startswith(")"):
+        return "other"  # "4th edition (2016)": a publication year
     strong = _nearest(_STRONG_CUES, left, _STRONG_REACH) or _nearest(_ADJACENT_CUES, left, 5)
     if strong:
         return strong

@@ -216,3 +216,15 @@ def test_weak_cues_in_context():
     assert roles("Laptops bought before 2020 will be replaced next spring.") == ["event", "planned"]
     # present perfect with "since" is a lasting state
     assert roles("Single sign-on has been required since last year.") == ["effective"]
+
+
+def test_counts_of_people_are_not_years():
+    assert extract("A total of 1968 men and 1737 women took part.", REF) == []
+    assert extract("We surveyed 2010 customers in 2011.", REF)[0].expression == "2011"
+
+
+def test_parenthesized_rolling_period_is_not_a_citation():
+    (e,) = extract("Tests were counted (past 5 years) for each account.", REF)
+    assert (e.expression, e.role) == ("past 5 years", "event")
+    (e,) = extract("Data from the first visit (1987-1989) are used.", REF)
+    assert e.role != "other"
