@@ -2,9 +2,10 @@
 
 Candidates come from our own compiled patterns (`temporal_patterns`), never from scanning a passage
 with dateparser: that is slow and reads "We", "May I" or "sun" as dates. Absolute forms are
-normalized from the pattern's groups by `temporal_patterns.parse_candidate` (the standard library's calendar is the
-authority there); the relative spans that need calendar arithmetic ("two weeks ago", "in 3 months",
-"yesterday") go to dateparser, one short span at a time, cached, anchored to the reference date.
+normalized from the pattern's groups by `temporal_patterns.parse_candidate` (the standard library's
+calendar is the authority there); the relative spans that need calendar arithmetic ("two weeks ago",
+"in 3 months", "yesterday") go to dateparser, one short span at a time, cached, anchored to the
+reference date. Roles come from `temporal_roles`.
 
 Every expression is an interval [start, end] with a granularity; conventions:
 * quarters and halves are calendar ones unless written with a fiscal year (Q1 FY2025);
@@ -26,8 +27,8 @@ import re
 from datetime import date
 
 from .models import TemporalExpression
-from .temporal_patterns import (DIGIT_CANDIDATES, MODIFIER_BEFORE, WORD_CANDIDATES, MODIFIERS, RANGE_JOIN, RANGE_OPEN, STARTS, Atom,
-                                month_end, month_span, narrow, parse_candidate)
+from .temporal_patterns import (DIGIT_CANDIDATES, MODIFIER_BEFORE, MODIFIERS, RANGE_JOIN, RANGE_OPEN, STARTS,
+                                WORD_CANDIDATES, Atom, month_end, month_span, narrow, parse_candidate)
 from .temporal_roles import role_for
 
 __all__ = ["extract", "timex3"]
@@ -80,6 +81,8 @@ def _merge_ranges(text: str, atoms: list[Atom], reference: date | None) -> list[
 
 
 def _join(a: Atom, b: Atom, reference: date | None) -> Atom | None:
+    """The range from `a` to `b`, a year passed from the one that has it to the one that lacks it
+    ("December 24 to January 2, 2025" starts in 2024), or None when `b` does not follow `a`."""
     if a.first is None and b.first is None and reference is not None:
         point = date(reference.year, a.month, a.day)
         a = Atom(a.start, a.end, a.granularity, point, point)

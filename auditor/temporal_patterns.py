@@ -161,7 +161,7 @@ _YEAR_BLOCK_LEFT = re.compile(
     r"[Vv]ersion|[Vv]er\.?|v|[Rr]oom|[Ss]uite|[Uu]nit|[Aa]pt\.?|[Bb]ox|[Ee]xt\.?|[Ee]xtension|[Cc]ode|"
     r"[Mm]odel|[Ee]rror|[Tt]icket|[Aa]ccount|[Oo]rder|[Ii]nvoice|[Rr]ef\.?|[Rr]eference|[Ll]ine|"
     r"[Ii]tem|[Rr]oute|[Hh]ighway|[Bb]uilding|[Ff]orm|[Ss]ection|[Pp]art|[Ss]erver|[Oo]ffice|[Ww]indows)"
-    r"\s*[/:#-]?\s*|[$€£#]\s*|\b(?:[Aa]\s+)?[Tt]otal\s+of\s+)$")
+    r"\s*[/:#-]?\s*|[$€£#]\s*|\b(?:[Aa]\s+)?[Tt]otal\s+of\s+|\b[Oo]ut\s+of\s+)$")
 _YEAR_BLOCK_RIGHT = re.compile(
     r"(?i:\s*(?:gallons?|gal|litres?|liters?|kwh|kw|customers?|homes?|households?|accounts?|meters?|"
     r"metres?|feet|ft|km|kilometres?|kilometers?|miles?|units?|people|residents|connections|samples?|"
@@ -169,7 +169,6 @@ _YEAR_BLOCK_RIGHT = re.compile(
     r"dollars|usd|cents|users|devices|laptops|emails|requests|properties|sq|square|men|women|children|"
     r"patients|participants|subjects|adults|staff|employees|students|cases|members|respondents)\b)")
 _YEAR_AFTER_YEAR = re.compile(r"(?i:\s*(?:,|and|or|to|through|-|–)\s*)$")
-
 
 # an identifier before digits that look like a date: "Version 2.10.2024", "build 2024-10-02"
 IDENTIFIER_BEFORE = re.compile(r"(?i:\b(?:version|ver\.?|v|build|release|firmware|model|part|serial|"
@@ -191,7 +190,7 @@ def year_in_context(text: str, start: int, end: int, previous_end: int | None) -
         return True
     if previous_end is not None and start - previous_end < 12:
         gap = text[previous_end:start]
-        if _YEAR_AFTER_YEAR.fullmatch(gap) or _YEAR_AFTER_YEAR.search(gap):
+        if _YEAR_AFTER_YEAR.search(gap):
             return True
     if _YEAR_DETERMINER.search(text, left_from, start):
         following = re.match(r"\s+([A-Za-z]+)", text[end:end + 30])
@@ -224,9 +223,12 @@ def _iso_week(year: int, week: int) -> date:
 
 
 def _full_year(text: str) -> int:
+    """A written year in full; two digits pivot as POSIX strptime's %y does (69–99 -> 19xx, else 20xx)."""
     digits = re.sub(r"\D", "", text)
     value = int(digits)
-    return value + 2000 if len(digits) == 2 else value
+    if len(digits) == 2:
+        return value + (1900 if value >= 69 else 2000)
+    return value
 
 
 def _fiscal_year(label: int, fys: int, explicit_start: int | None = None) -> tuple[date, date]:
@@ -272,7 +274,7 @@ _SETTINGS = {"PREFER_DAY_OF_MONTH": "first", "PREFER_DATES_FROM": "current_perio
 @functools.lru_cache(maxsize=4096)
 def dateparser_span(span: str, reference: date) -> date | None:
     """Parse one short relative span such as "2 weeks ago" with dateparser, deterministically."""
-    import dateparser  # imported late: it takes a second and many commands never need it
+    import dateparser  # imported on first use: most passages have no relative span
 
     settings = dict(_SETTINGS, RELATIVE_BASE=datetime(reference.year, reference.month, reference.day))
     parsed = dateparser.parse(span, languages=["en"], settings=settings)
@@ -316,6 +318,8 @@ def _unit_interval(point: date, unit: str) -> tuple[date, date, str]:
 
 @dataclass
 class Atom:
+    """One candidate span read into an interval (offsets into the scanned text)."""
+
     start: int
     end: int
     granularity: str

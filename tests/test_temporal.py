@@ -228,3 +228,10 @@ def test_parenthesized_rolling_period_is_not_a_citation():
     assert (e.expression, e.role) == ("past 5 years", "event")
     (e,) = extract("Data from the first visit (1987-1989) are used.", REF)
     assert e.role != "other"
+
+
+def test_two_digit_years_pivot_like_posix_strptime():
+    # POSIX strptime %y: 69–99 are 1969–1999, 00–68 are 2000–2068
+    assert extract("Bills dated 3/4/99 were archived.", REF)[0].start == date(1999, 3, 4)
+    assert extract("Bills dated 3/4/25 are due.", REF)[0].start == date(2025, 3, 4)
+    assert extract("The FY99 audit", REF)[0].start == date(1999, 1, 1)
