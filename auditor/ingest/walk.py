@@ -172,7 +172,9 @@ def discover(paths, corpus) -> tuple[list[SourceFile], list[SkippedFile]]:
                 if entry.is_symlink():
                     target = os.path.realpath(path)
                     if not corpus.follow_symlinks:
-                        if _wanted(path, root, corpus):
+                        # Record links to folders and to files we would parse; a link to an image
+                        # is no more news than the image itself.
+                        if (os.path.isdir(path) or path.suffix.lower() in EXTENSIONS) and _wanted(path, root, corpus):
                             skip(path, root, "symlink", "symbolic link not followed (corpus.follow_symlinks is false)")
                         continue
                     try:
