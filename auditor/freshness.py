@@ -16,10 +16,12 @@ The rules, for audit date T and horizon H days:
 * reasons:
   * `too_old`  T − as_of > H;
   * `expired`  an `expires` statement (or the end of an effective range, or the document's own
-    expiry date) lies before T — unless the passage states an as-of after it: "the old rate applied
-    until June 30; effective July 1 the rate is ..." is history, not an expired passage;
-  * `overtaken` a `planned` event whose interval ended before T, unless the passage's stated as-of
-    is after that end (it was reviewed after the event).
+    expiry date) lies before T — unless something in the passage took effect after it: "the old
+    rate applied until June 30; effective July 1 the rate is ..." is history, not an expired
+    passage. A review date after the expiry does not excuse it: the reviewer left a closed window
+    advertised;
+  * `overtaken` a `planned` event whose interval ended before T: the passage still announces as
+    coming what has happened, whenever it was last reviewed.
   An expiry after T is fine; so is an event that has happened (role `event`).
 * An undated passage (no dated statement, no document date, no file time) is not stale for age:
   fresh, with as_of None and as_of_source "none", so that the judge can flag it. It can still be
@@ -62,6 +64,7 @@ def passage_freshness(statements: list[TemporalExpression], *, audit_date: date,
     """
     today = audit_date
     stated: list[date] = []  # as_of / effective evidence
+    effective_starts: list[date] = []
     periods: list[date] = []
     expiries: list[date] = []
     planned_ends: list[date] = []
@@ -69,6 +72,8 @@ def passage_freshness(statements: list[TemporalExpression], *, audit_date: date,
         if s.role == "as_of" and s.start <= today:
             stated.append(min(s.end, today))
         elif s.role == "effective":
+            if s.start <= today:
+                effective_starts.append(s.start)
             if is_range(s):
                 expiries.append(s.end)
                 if s.start <= today:
@@ -81,12 +86,9 @@ def passage_freshness(statements: list[TemporalExpression], *, audit_date: date,
             expiries.append(s.end)
         elif s.role == "planned":
             planned_ends.append(s.end)
-    if doc_expires is not None:
-        expiries.append(doc_expires)
 
-    stated_as_of = max(stated) if stated else None
-    if stated_as_of is not None:
-        as_of, source = stated_as_of, "statement"
+    if stated:
+        as_of, source = max(stated), "statement"
     elif periods:
         as_of, source = max(periods), "statement"
     elif doc_date is not None:
@@ -95,17 +97,21 @@ def passage_freshness(statements: list[TemporalExpression], *, audit_date: date,
     else:
         as_of, source = None, "none"
 
-    # History the passage itself has moved past does not count against it.
-    live_expiries = sorted(d for d in expiries if stated_as_of is None or d >= stated_as_of)
+    # An expiry followed by something that took effect after it is history the passage has moved
+    # past ("... in force until February 28; effective March 1 ..."); a later review date is not.
+    live = [d for d in expiries if not any(start > d for start in effective_starts)]
+    if doc_expires is not None:
+        live.append(doc_expires)
+    live.sort()
     reasons = []
     age = (today - as_of).days if as_of is not None else None
     if age is not None and age > horizon_days:
         reasons.append("too_old")
-    if any(d < today for d in live_expiries):
+    if any(d < today for d in live):
         reasons.append("expired")
-    if any(d < today and (stated_as_of is None or d >= stated_as_of) for d in planned_ends):
+    if any(d < today for d in planned_ends):
         reasons.append("overtaken")
-    return Freshness(as_of=as_of, as_of_source=source, expires=live_expiries[0] if live_expiries else None,
+    return Freshness(as_of=as_of, as_of_source=source, expires=live[0] if live else None,
                      fresh=not reasons, reasons=tuple(reasons), age_days=age)
 
 

@@ -195,3 +195,14 @@ def test_corpus_freshness_and_age_by_hand():
 
 def test_corpus_freshness_empty():
     assert corpus_freshness([]) == (1.0, 0.0)
+
+
+def test_review_after_an_expiry_does_not_excuse_it():
+    text = "Reviewed 2026-06-01. Rebate applications are accepted until March 31, 2026."
+    f = fresh_of(text)
+    assert f.as_of == date(2026, 6, 1) and f.reasons == ("expired",) and f.expires == date(2026, 3, 31)
+
+
+def test_review_after_a_planned_event_does_not_excuse_it():
+    text = "Reviewed 2026-07-01. Crews will replace the Alder Street main in spring 2026."
+    assert fresh_of(text).reasons == ("overtaken",)
