@@ -2,9 +2,9 @@
 
 One alternation holds every candidate form; the alternatives come longest-first because Python's
 `re` takes the first alternative that matches at a position, not the longest, and it is tried only
-where a candidate can start (`STARTS`). Month names are case-sensitive on purpose: "may" and
-"march" in lower case are a verb, not a month, and a capital "May" counts only when a day or a year
-follows it ("May I ..." never matches). Bare years are kept only next to a cue (`year_in_context`).
+where a candidate can start (`STARTS`). Month names match capitalized, in capitals, or in lower
+case except "may", "march" and "mar", which in lower case are verbs; a month counts only when a day
+or a year follows it ("May I ..." never matches). Bare years are kept only next to a cue (`year_in_context`).
 
 `parse_candidate` reads a match's named groups into an `Atom` (an interval with a granularity);
 it lives beside the patterns because it depends on their group names, which is why this module
@@ -28,8 +28,10 @@ for _i, _name in enumerate(("January February March April May June July August S
 MONTH_NUMBERS["sept"] = 9
 
 
+# Lower case too, except "may", "march" and "mar", which are verbs far more often than months.
 MONTH_NAMES = "|".join(variant for name in sorted(MONTH_NUMBERS, key=len, reverse=True)
-                       for variant in (name.capitalize(), name.upper()))
+                       for variant in (name.capitalize(), name.upper())
+                       + (() if name in ("may", "march", "mar") else (name,)))
 # an abbreviation may carry a dot ("Mar."); a full name never does, but "May." ends sentences
 MONTH = rf"(?:{MONTH_NAMES})\b\.?"
 _WEEKDAYS = ("Monday|Tuesday|Wednesday|Thursday|Friday|Saturday|Sunday|"

@@ -235,3 +235,9 @@ def test_two_digit_years_pivot_like_posix_strptime():
     assert extract("Bills dated 3/4/99 were archived.", REF)[0].start == date(1999, 3, 4)
     assert extract("Bills dated 3/4/25 are due.", REF)[0].start == date(2025, 3, 4)
     assert extract("The FY99 audit", REF)[0].start == date(1999, 1, 1)
+
+
+def test_lower_case_month_names_except_the_verbs():
+    assert [e.start for e in extract("updated january 5, 2024 and june 2024.", REF)] == [date(2024, 1, 5),
+                                                                                         date(2024, 6, 1)]
+    assert extract("Crews may 5 times a day march 12 blocks and mar 2 walls.", REF) == []
