@@ -143,3 +143,21 @@ def test_question_owner_rule():
     assert question_owner({"owner": "C", "evidence": q["evidence"]}) == "C"
     assert question_owner({"evidence": []}) == "unassigned"
     assert question_owner({"owner": "  ", "evidence": q["evidence"]}) == "A"  # blank is no owner
+
+
+def test_owner_files_of_a_former_owner_are_removed(tmp_path):
+    run = samples.sample_run()
+    write_report(run, tmp_path)
+    (tmp_path / "owners" / "notes.txt").write_text("kept")  # not an owner file
+    for q in run["questions"]:
+        if q["owner"] == "Customer Care":
+            q["owner"] = "Billing"
+    run["documents"] = [d for d in run["documents"] if d["owner"] != "Customer Care"]
+    for q in run["questions"]:
+        for e in q["evidence"]:
+            if e["owner"] == "Customer Care":
+                e["owner"] = "Billing"
+    write_report(run, tmp_path)
+    names = sorted(p.name for p in (tmp_path / "owners").iterdir())
+    assert "customer-care.csv" not in names and "customer-care.html" not in names
+    assert "notes.txt" in names and "billing.csv" in names

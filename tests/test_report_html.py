@@ -380,3 +380,33 @@ def test_a_bare_format1_run_renders(tmp_path):
         "billing.csv", "billing.html", "unassigned.csv", "unassigned.html"]
     data = page_data(soup)
     assert data["q"][0]["e"][0][7] == [] and data["sk"] == []  # no terms, no signals
+
+
+def _luminance(hex_colour: str) -> float:
+    # WCAG 2.1, "relative luminance" (https://www.w3.org/TR/WCAG21/#dfn-relative-luminance).
+    rgb = [int(hex_colour[i:i + 2], 16) / 255 for i in (1, 3, 5)]
+    lin = [c / 12.92 if c <= 0.04045 else ((c + 0.055) / 1.055) ** 2.4 for c in rgb]
+    return 0.2126 * lin[0] + 0.7152 * lin[1] + 0.0722 * lin[2]
+
+
+def _contrast(a: str, b: str) -> float:
+    # WCAG 2.1, "contrast ratio" (https://www.w3.org/TR/WCAG21/#dfn-contrast-ratio).
+    la, lb = sorted((_luminance(a), _luminance(b)), reverse=True)
+    return (la + 0.05) / (lb + 0.05)
+
+
+def test_text_colours_meet_wcag_aa_contrast():
+    css = report_html._static()[0]
+    root = css[css.index(":root {"):css.index("}", css.index(":root {"))]
+    var = dict(re.findall(r"--([\w-]+):\s*(#[0-9a-fA-F]{6})", root))
+    white = "#ffffff"
+    pairs = [  # (text, background) as the stylesheet uses them
+        (white, var["covered"]), (white, var["stale"]), (white, var["gap"]), (white, var["ink-2"]),
+        (var["text"], var["paper"]), (var["muted"], var["paper"]), (var["muted"], white),
+        (var["gap"], var["gap-bg"]), (var["stale"], var["stale-bg"]), (var["covered"], var["covered-bg"]),
+        (var["accent"], white), (var["ink"], var["mark"]), ("#9fd6d2", var["ink"]), ("#b9c8cc", var["ink"]),
+    ]
+    # WCAG 2.1 success criterion 1.4.3: at least 4.5:1 for normal text.
+    low = [(t, b, round(_contrast(t, b), 2)) for t, b in pairs if _contrast(t, b) < 4.5]
+    assert low == []
+    assert _contrast("#000000", "#ffffff") == pytest.approx(21.0)  # the formula's known maximum

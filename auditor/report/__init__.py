@@ -2,10 +2,12 @@
 
 `write_report(run, out_dir)` reads only the run object (DESIGN.md §4.3 plus the extensions listed in
 the project notes), so a stored run can be reported again at any time with the same bytes out.
+Who owns a question, and the CSV columns, are documented in `auditor.report.exports`.
 """
 
 from __future__ import annotations
 
+import re
 from pathlib import Path
 
 from .exports import (all_owners, document_owner, owner_questions, owner_slugs, write_atomic,
@@ -26,15 +28,27 @@ def _render_within_limit(run: dict, **view_args) -> str:
             break
     return page
 
+
 __all__ = ["write_report"]
+_OWNER_FILE = re.compile(r"^[a-z0-9-]+\.(csv|html)$")
+
+
+def _remove_stale_owner_files(owners_dir: Path, written: set[str]) -> None:
+    """Owner files of an earlier report in the same folder whose owner is gone would mislead."""
+    if not owners_dir.is_dir():
+        return
+    for path in owners_dir.iterdir():
+        if _OWNER_FILE.match(path.name) and path.name not in written and path.is_file():
+            path.unlink()
 
 
 def write_report(run: dict, out_dir: Path) -> Path:
     """Write every file of the report into `out_dir` and return the path of index.html.
 
     Each file goes to a temporary name and is renamed into place; index.html is renamed last so
-    that a reader who finds it also finds the files it links to. Output is deterministic: the same
-    run object gives the same bytes (no clock is read; every date comes from the run).
+    that a reader who finds it also finds the files it links to. Owner files left in owners/ by an
+    earlier report for owners this run no longer has are removed. Output is deterministic: the
+    same run object gives the same bytes (no clock is read; every date comes from the run).
     """
     out_dir = Path(out_dir)
     out_dir.mkdir(parents=True, exist_ok=True)
@@ -62,6 +76,8 @@ def write_report(run: dict, out_dir: Path) -> Path:
                             "at_risk": sum(float(q.get("weight") or 0) for q in own_q
                                            if q.get("verdict") in ("gap", "stale"))})
 
+    _remove_stale_owner_files(out_dir / "owners",
+                              {f"{slug}.{ext}" for slug in slugs.values() for ext in ("csv", "html")})
     links = {"files": [("results.json", "results.json"), ("gaps.csv", "gaps.csv")],
              "owners": owner_links}
     page = _render_within_limit(run, questions=questions, documents=documents,
