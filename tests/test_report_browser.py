@@ -120,6 +120,11 @@ def test_sort_by_weight_and_back(sample):
     p.focus("#questions th[data-sort=weight]")
     p.keyboard.press("Enter")  # keyboard works too: now ascending
     assert p.locator("#questions > tbody > tr[id] .qid").all_text_contents() == by_weight[::-1]
+    # By question text (not by id), within one owner's questions.
+    p.select_option("#f-owner", label="Billing")
+    p.click("#questions th[data-sort=question]")
+    assert p.locator(f"{VISIBLE_ROWS} .qid").all_text_contents() == ["q-013", "q-001", "q-002"]
+    p.select_option("#f-owner", "")
 
 
 def test_expanding_a_row_shows_its_evidence(sample):

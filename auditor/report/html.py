@@ -359,7 +359,7 @@ def _page_data(questions, owners_of, owner_index, topic_index, horizon, *,
                           None if found is None else int(bool(found))))
             ev_out.append(item)
         row = {"v": q.get("verdict"), "o": owner_index[owners_of[i]],
-               "t": topic_index.get(q.get("topic"), -1),
+               "t": topic_index.get(str(q.get("topic")), -1),
                "w": q.get("weight", 1.0), "s": q.get("support"), "k": qterms, "e": ev_out}
         if q.get("horizon_days") and q.get("horizon_days") != horizon:
             row["h"] = q["horizon_days"]
@@ -400,7 +400,7 @@ def build_view(run: dict, *, questions: list[dict], documents: list[dict], summa
     owners_of = [question_owner(q) for q in questions]
     owner_names = sorted(set(owners_of))
     owner_index = {name: k for k, name in enumerate(owner_names)}
-    topics = sorted({q.get("topic") for q in questions if q.get("topic")})
+    topics = sorted({str(q["topic"]) for q in questions if q.get("topic") not in (None, "")})
     topic_index = {t: k for k, t in enumerate(topics)}
 
     rows = []

@@ -40,6 +40,9 @@
   function questionText(i) {
     return i < serverRows ? rows[i].cells[0].querySelector("summary").textContent : extra(i).id + " " + extra(i).q;
   }
+  function questionOnly(i) {  // the question without its id, for sorting
+    return i < serverRows ? rows[i].cells[0].querySelector("summary").lastChild.textContent.trim() : extra(i).q;
+  }
   function actionOf(i) { return i < serverRows ? rows[i].cells[6].textContent : (extra(i).a || ""); }
   function num(x, digits) {
     if (x === null || x === undefined) { return "–"; }
@@ -141,7 +144,7 @@
       case "owner": return owners[q.o] || "";
       case "topic": return q.t >= 0 ? topics[q.t] : "";
       case "action": var a = actionOf(i); return actionRank.hasOwnProperty(a) ? actionRank[a] : 9;
-      default: return questionText(i).replace(/^\S+\s+/, "");  // without the id
+      default: return questionOnly(i);
     }
   }
   var sortState = { col: null, dir: 1 };
@@ -337,6 +340,10 @@
   form.addEventListener("submit", function (ev) { ev.preventDefault(); });
   document.getElementById("show-more").addEventListener("click", function () { limit += PAGE; render(); });
   document.getElementById("show-all").addEventListener("click", function () { limit = matches.length; render(); });
+  // Print what the filters select, not only the first page of it.
+  window.addEventListener("beforeprint", function () {
+    if (limit < matches.length) { limit = matches.length; render(); }
+  });
   var note = document.getElementById("rows-note");
   if (note) { note.hidden = true; }
   form.hidden = false;
