@@ -11,6 +11,8 @@ from __future__ import annotations
 import json
 import math
 
+import numpy as np
+
 import pytest
 import rank_bm25
 
@@ -211,3 +213,17 @@ def test_unwritable_index_folder_still_searches(tmp_path):
     index_folder(store).write_text("a file where the folder should be")
     index = PassageIndex.load_or_build(store, RetrievalConfig())
     assert index.search("meter").hits
+
+
+def test_vocabulary_ids_lookup_and_a_second_writer(tmp_path):
+    store = Store(tmp_path / "v.db")
+    first, second = Vocabulary(store), Vocabulary(store)
+    with store.transaction():
+        ids = first.ids(["meter", "leak", "meter"])
+    assert ids.dtype == np.dtype("<i4") and ids[0] == ids[2] != ids[1]
+    with store.transaction():  # another writer that has not seen "leak" adds it again: same id
+        again = second.ids(["leak", "valve"])
+    assert again[0] == ids[1]
+    assert first.lookup(["valve", "hydrant"]) == [again[1], None]
+    assert Vocabulary(store).terms() == {int(ids[0]): "meter", int(ids[1]): "leak", int(again[1]): "valve"}
+    assert len(first) == 3
