@@ -248,8 +248,7 @@
     var t = el("table", "bd");
     t.appendChild(el("caption", "sr", "Score breakdown by term"));
     var head = t.createTHead().insertRow();
-    ["term", "BM25"].forEach(function (h) { head.appendChild(el("th", null, h)); });
-    head.appendChild(el("th", "bar-h")).appendChild(el("span", "sr", "share of the best term"));
+    ["term", "BM25", "relative"].forEach(function (h) { head.appendChild(el("th", null, h)); });
     var tb = t.createTBody();
     var top = terms.length ? Math.max.apply(null, terms.map(function (x) { return x[1]; })) : 0;
     terms.forEach(function (x) {
