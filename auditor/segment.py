@@ -1,4 +1,5 @@
-"""Blocks -> passages of about 100–250 words (DESIGN.md §3.1).
+"""Blocks -> passages of about 100–250 words (DESIGN.md §3.1); a passage is shorter only where
+its section is.
 
 Rules, in order:
 * a heading starts a new passage (parsers emit a heading as a block whose text is the last
@@ -18,7 +19,6 @@ import re
 
 from .models import Block, Passage
 
-MIN_WORDS = 100
 TARGET_WORDS = 200
 MAX_WORDS = 250
 SEPARATOR = "\n\n"

@@ -20,7 +20,7 @@ PAGE = html_page(
     <header><a href="/">Fernhollow</a><nav><a href="/billing">Billing</a><a href="/help">Help</a></nav></header>
     <main>
       <h1>Paying your bill</h1>
-      <p>You can pay in several ways.</p>
+      <p>You can pay in several ways.</p><p style="display: none">Old offer</p><p hidden>Draft note</p>
       <div class="modal consent-popup">Your privacy choices</div>
       <h2>By phone<a class="headerlink" href="#by-phone">¶</a></h2>
       <p>Call   the payment line,
@@ -42,7 +42,7 @@ def test_main_content_only_with_heading_path():
     texts = [b.text for b in doc.blocks]
     joined = "\n".join(texts)
     for chrome in ("cookies", "Accept", "Billing", "Help", "Related", "©", "Search", "tracking", "color",
-                   "privacy", "¶"):
+                   "privacy", "¶", "Old offer", "Draft note"):
         assert chrome not in joined
     assert doc.title == "Paying your bill | Fernhollow"
     by_text = {b.text: b.heading_path for b in doc.blocks}
@@ -179,3 +179,13 @@ def test_deep_nesting_is_refused_quickly():
     # 400 levels is still a page.
     page = "<html><body>" + "<div>" * 400 + "<p>fine</p>" + "</div>" * 400 + "</body></html>"
     assert [b.text for b in parse_html(page.encode(), "ok.html").blocks] == ["fine"]
+
+
+def test_pages_about_cookies_are_content():
+    # Found on the Python 3.11 manual (Debian python3.11-doc): <section id="module-http.cookiejar">.
+    page = html_page('<div class="cookie-notice">We use cookies</div><main><section id="module-http.cookiejar">'
+                     '<h1>http.cookiejar</h1><p>Cookie handling for HTTP clients.</p></section>'
+                     '<div id="cookies">Cookie objects are described here.</div></main>')
+    doc = parse_html(page.encode(), "cookiejar.html")
+    assert [b.text for b in doc.blocks] == ["http.cookiejar", "Cookie handling for HTTP clients.",
+                                            "Cookie objects are described here."]

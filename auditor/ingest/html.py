@@ -33,7 +33,11 @@ MAX_DEPTH = 512
 _DROP = {"nav", "aside", "script", "style", "noscript", "template", "form", "button", "select",
          "textarea", "iframe", "svg", "canvas", "dialog", "object", "embed", "head", "input"}
 _CHROME = {"header", "footer"}
-_BANNER = re.compile(r"cookie|consent|gdpr|newsletter-signup|skip-link", re.I)
+# Cookie/consent banners by their usual id or class words ("cookie-banner", "consent-popup",
+# "cookieconsent"...), not any name holding "cookie": a page about http.cookiejar is content.
+_BANNER = re.compile(r"(?<![\w.])(?:cookies?|consent|gdpr|privacy)[-_]?(?:banner|bar|notice|popup|modal|dialog|"
+                     r"overlay|wall|message|consent|container|prompt)(?![\w.])|(?<![\w.])(?:cookieconsent|"
+                     r"cookie-?law|onetrust[-\w]*|cc-(?:banner|window)|skip-link|newsletter-signup)(?![\w.])", re.I)
 _HEADINGS = {"h1": 1, "h2": 2, "h3": 3, "h4": 4, "h5": 5, "h6": 6}
 _BLOCKS = {"p", "div", "section", "article", "main", "blockquote", "pre", "ul", "ol", "dl", "table",
            "figure", "figcaption", "address", "details", "summary", "fieldset", "hr", "body",
@@ -157,6 +161,9 @@ def _dropped(tag: Tag, inside_root: bool) -> bool:
     if tag.name == "a" and (tag.get("href") or "").startswith("#") and tag.get_text().strip() in _PERMALINK:
         return True
     if tag.get("hidden") is not None or tag.get("aria-hidden") == "true" or tag.get("role") in ("navigation", "banner", "contentinfo"):
+        return True
+    style = tag.get("style")
+    if style and "display:none" in style.replace(" ", "").lower():
         return True
     marker = f"{tag.get('id') or ''} {tag.get('class') or ''}".strip()
     return bool(marker and _BANNER.search(marker))
