@@ -11,6 +11,9 @@ The index is term-major (CSC over passages): per term, the sorted passage ordina
 precomputed float32 weight idf·tf-part, and the raw term frequency. Ranking uses the float32 weights;
 the scores handed out are recomputed in float64 from the term frequencies, so they equal the
 reference libraries' to rounding while the index stays small (DESIGN.md §3.4).
+
+The project's interface puts the pure scoring functions and the sparse index in this one module; it
+is longer than most for that reason, in four sections that do not reach into each other.
 """
 
 from __future__ import annotations
@@ -158,6 +161,7 @@ class Params:
 
     @property
     def scorer(self) -> Variant:
+        """The registered variant these parameters name."""
         return VARIANTS[self.variant]
 
 
@@ -232,6 +236,7 @@ class CorpusStats:
 
     @classmethod
     def of(cls, counts: TermCounts) -> "CorpusStats":
+        """The statistics of one shard's term counts."""
         return cls(counts.n_docs, int(counts.doc_len.sum()),
                    np.bincount(counts.terms, minlength=counts.n_terms).astype(np.int64))
 

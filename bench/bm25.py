@@ -14,7 +14,9 @@ same law. Every engine gets the same token ids:
 Each engine runs in its own child process so that its peak resident memory (ru_maxrss) is its own;
 the corpus generation is part of every child, so "base" is printed next to "peak". With --million a
 1,000,000-passage index is built, saved, and then memory-mapped by a fresh process that answers the
-questions: its peak RSS is the index's resident cost.
+questions: its peak RSS is the index's resident cost. The same is then done through the real path
+(token ids in a SQLite store, PassageIndex.load_or_build cold, then warm), each step in its own
+process, as it is at 50k.
 
     python bench/bm25.py                 # 50k and 500k
     python bench/bm25.py --million       # also the 1M memory check
@@ -180,17 +182,18 @@ def work_rank(n: int, questions: int) -> dict:
             "qps_wall": len(qs) / search.wall, "base_mb": base, "peak_mb": rss_mb(), "top": top}
 
 
-def work_store(n: int, questions: int) -> dict:
-    """The real path: token ids in a SQLite store, PassageIndex built, saved, then memory-mapped."""
+def work_store(n: int, questions: int, db: str, phase: str) -> dict:
+    """The real path, one phase per process: "fill" writes token ids into a SQLite store, "cold"
+    runs PassageIndex.load_or_build (reads the blobs, builds, saves beside the database), "warm"
+    runs it again (memory-maps the saved index) and answers the questions with search_many."""
     from auditor.config import RetrievalConfig
     from auditor.retrieval import PassageIndex
     from auditor.store import Store
 
-    flat, offsets = make_corpus(n)
-    texts = [" ".join(f"w{t}" for t in q) for q in make_questions(questions)]
-    out = {}
-    with tempfile.TemporaryDirectory() as tmp:
-        store = Store(Path(tmp) / "bench.db")
+    config = RetrievalConfig(k1=K1, b=B, stopwords="none", language="none")
+    store = Store(db)
+    if phase == "fill":
+        flat, offsets = make_corpus(n)
         with Timer() as fill, store.transaction():
             store.db.conn.executemany("INSERT INTO terms(id, term) VALUES (?, ?)",
                                       ((i, f"w{i}") for i in range(VOCAB)))
@@ -201,17 +204,35 @@ def work_store(n: int, questions: int) -> dict:
                 "VALUES (1, ?, '', 0, 0, ?, ?)",
                 ((i, flat[offsets[i]:offsets[i + 1]].astype("<i4").tobytes(), int(offsets[i + 1] - offsets[i]))
                  for i in range(n)))
-        config = RetrievalConfig(k1=K1, b=B, stopwords="none", language="none")
-        with Timer() as cold:
-            PassageIndex.load_or_build(store, config)
-        with Timer() as warm:
-            index = PassageIndex.load_or_build(store, config)
+        return {"fill_s": fill.wall}
+    base = current_rss_mb()
+    with Timer() as load:
+        index = PassageIndex.load_or_build(store, config)
+    out = {"load_s": load.wall, "rebuilt": index.rebuilt, "base_mb": base}
+    if phase == "warm":
+        texts = [" ".join(f"w{t}" for t in q) for q in make_questions(questions)]
         with Timer() as search:
             index.search_many(texts, k=K)
-        out.update(fill_s=fill.wall, cold_s=cold.wall, warm_s=warm.wall, rebuilt=index.rebuilt,
-                   qps=len(texts) / search.cpu, qps_wall=len(texts) / search.wall)
-        store.close()
+        out.update(qps=len(texts) / search.cpu, qps_wall=len(texts) / search.wall)
+    out["peak_mb"] = rss_mb()
+    store.close()
     return out
+
+
+def store_path(n: int, questions: int, tmp: str) -> dict:
+    db = str(Path(tmp) / f"bench-{n}.db")
+    fill = child("store", str(n), str(questions), db, "fill")
+    cold = child("store", str(n), str(questions), db, "cold")
+    warm = child("store", str(n), str(questions), db, "warm")
+    return {"fill": fill, "cold": cold, "warm": warm}
+
+
+def print_store(n: int, r: dict) -> None:
+    cold, warm = r["cold"], r["warm"]
+    print(f"store     {n:,} passages in SQLite (fill {r['fill']['fill_s']:.1f}s); PassageIndex.load_or_build cold "
+          f"{cold['load_s']:.2f}s (read token ids, build, save; peak RSS {cold['peak_mb']:.0f} MB, "
+          f"rebuilt={cold['rebuilt']}), warm {warm['load_s'] * 1000:.0f} ms (memory-mapped, rebuilt={warm['rebuilt']}); "
+          f"search_many {warm['qps']:.0f} q/s [{warm['qps_wall']:.0f}] with tokenizing, peak RSS {warm['peak_mb']:.0f} MB")
 
 
 def child(*args: str) -> dict:
@@ -242,7 +263,7 @@ def main(argv=None) -> int:
         elif kind == "load":
             result = work_load(rest[0], int(rest[1]))
         elif kind == "store":
-            result = work_store(int(rest[0]), int(rest[1]))
+            result = work_store(int(rest[0]), int(rest[1]), rest[2], rest[3])
         elif kind == "bm25s":
             result = work_bm25s(int(rest[0]), int(rest[1]))
         else:
@@ -275,10 +296,8 @@ def main(argv=None) -> int:
             agree = same_sets(ours["okapi_top"][:args.rank_questions], rank["top"])
             print(f"  ours(okapi)/rank-bm25 (BM25Okapi): {ours['okapi_qps'] / rank['qps']:.0f}x queries/s "
                   f"(ours okapi {ours['okapi_qps']:.1f} q/s); top-{K} sets equal for {agree}/{args.rank_questions}")
-            real = child("store", str(n), str(args.questions))
-            print(f"store     SQLite fill {real['fill_s']:.1f}s; PassageIndex.load_or_build cold {real['cold_s']:.2f}s "
-                  f"(read token ids, build, save), warm {real['warm_s'] * 1000:.0f} ms (memory-mapped, "
-                  f"rebuilt={real['rebuilt']}); search_many {real['qps']:.0f} q/s [{real['qps_wall']:.0f}] with tokenizing")
+            with tempfile.TemporaryDirectory() as tmp:
+                print_store(n, store_path(n, args.questions, tmp))
     if args.million:
         n = 1_000_000
         print(f"\n== {n:,} passages: build, save, then memory-map in a fresh process")
@@ -294,6 +313,7 @@ def main(argv=None) -> int:
             print(f"loaded (mmap) in {loaded['load_s'] * 1000:.0f} ms, {loaded['qps']:.1f} q/s [{loaded['qps_wall']:.1f}] "
                   f"over {loaded['n_docs']:,}; "
                   f"peak RSS {loaded['peak_mb']:.0f} MB: {verdict} the 2 GB target")
+            print_store(n, store_path(n, args.questions, tmp))
     return 0
 
 
