@@ -10,6 +10,8 @@ import re
 from pathlib import Path
 
 import pytest
+from hypothesis import HealthCheck, given, settings
+from hypothesis import strategies as st
 from bs4 import BeautifulSoup
 
 import report_samples as samples
@@ -410,3 +412,25 @@ def test_text_colours_meet_wcag_aa_contrast():
     low = [(t, b, round(_contrast(t, b), 2)) for t, b in pairs if _contrast(t, b) < 4.5]
     assert low == []
     assert _contrast("#000000", "#ffffff") == pytest.approx(21.0)  # the formula's known maximum
+
+
+# Any text, including markup, template syntax, quotes and line separators (not NUL or CR, which
+# the HTML parser itself rewrites: WHATWG HTML §13.2.3.5 "preprocessing the input stream").
+_TEXT = st.text(st.characters(blacklist_categories=("Cs",), blacklist_characters="\x00\r"), max_size=60)
+
+
+@settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.function_scoped_fixture])
+@given(question=_TEXT, owner=_TEXT, passage=_TEXT)
+def test_any_text_shows_literally(tmp_path, question, owner, passage):
+    run = samples.bare_run()
+    run["questions"][0]["question"] = question
+    run["questions"][0]["owner"] = owner
+    run["questions"][0]["evidence"][0]["text"] = passage
+    index = write_report(run, tmp_path)
+    soup = BeautifulSoup(index.read_text(encoding="utf-8"), "lxml")
+    assert soup.select_one("#q0 summary").contents[-1] == " " + question
+    expected_owner = owner.strip() if owner.strip() and owner.strip() != "unassigned" else "unassigned"
+    assert soup.select_one("#q0").find_all("td", recursive=False)[1].get_text() == expected_owner
+    assert [s.get("type") for s in soup.find_all("script")] == ["application/json", None]
+    data = page_data(soup)
+    assert data["p"]["1"]["txt"] == " ".join(passage.split())

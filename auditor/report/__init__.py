@@ -53,7 +53,10 @@ def write_report(run: dict, out_dir: Path) -> Path:
     out_dir = Path(out_dir)
     out_dir.mkdir(parents=True, exist_ok=True)
     owners = all_owners(run)
-    highlighter = Highlighter()  # one word cache for every page
+    tokenizer = (run.get("run") or {}).get("tokenizer")
+    tokenizer = tokenizer if isinstance(tokenizer, dict) else {}
+    highlighter = Highlighter(tokenizer.get("language", "english"),
+                              tokenizer.get("stopwords", "english"))  # one word cache for every page
     slugs = owner_slugs(owners)
     write_exports(run, out_dir, slugs)
 

@@ -124,12 +124,16 @@ def _environment() -> Environment:
 
 
 class Highlighter:
-    """Finds the words of a text whose token (per the run's tokenizer) is one of the matched terms."""
+    """Finds the words of a text whose token (per the run's tokenizer) is one of the matched terms.
 
-    def __init__(self):
+    `language` and `stopwords` are the tokenizer settings of the run (`run.tokenizer` when the run
+    object carries it, else the defaults, which are the project's defaults too).
+    """
+
+    def __init__(self, language: str = "english", stopwords: str = "english"):
         try:
             from auditor.tokenize import Tokenizer
-            self._tok = Tokenizer()
+            self._tok = Tokenizer(language, stopwords)
         except Exception:  # the page still renders, matching words as written
             self._tok = None
         self._cache: dict[str, str] = {}
