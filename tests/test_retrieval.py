@@ -18,7 +18,7 @@ import rank_bm25
 
 from auditor.config import RetrievalConfig
 from auditor.errors import ConfigError, StoreError
-from auditor.retrieval import (NO_PASSAGES, NO_TERMS, PassageIndex, corpus_fingerprint, describe_hits,
+from auditor.retrieval import (ALL_MISSING, NO_PASSAGES, NO_TERMS, PassageIndex, corpus_fingerprint, describe_hits,
                                index_folder)
 from auditor.store import Store
 from auditor.tokenize import Tokenizer
@@ -106,6 +106,9 @@ def test_missing_terms_get_highest_idf_and_count_in_max_score(tmp_path):
     assert result.max_score == pytest.approx(sum(result.idf.values()) * (1.2 + 1))
     assert all(set(h.term_scores) <= {"water", "bill"} for h in result.hits)
     assert 0 < result.hits[0].score < result.max_score
+    nothing = index.search("autopay paperless")
+    assert nothing.hits == [] and nothing.message == ALL_MISSING
+    assert nothing.missing_terms == ["autopay", "paperless"] and nothing.max_score > 0
 
 
 def test_index_saved_beside_database_reused_and_rebuilt_on_change(tmp_path):
@@ -227,3 +230,21 @@ def test_vocabulary_ids_lookup_and_a_second_writer(tmp_path):
     assert first.lookup(["valve", "hydrant"]) == [again[1], None]
     assert Vocabulary(store).terms() == {int(ids[0]): "meter", int(ids[1]): "leak", int(again[1]): "valve"}
     assert len(first) == 3
+
+
+def test_damaged_saved_index_is_rebuilt(tmp_path):
+    store = make_store(tmp_path)
+    PassageIndex.load_or_build(store, RetrievalConfig())
+    (index_folder(store) / "weights.npy").write_bytes(b"not an array")
+    index = PassageIndex.load_or_build(store, RetrievalConfig())
+    assert index.rebuilt and index.search("meter lid").hits
+
+
+def test_retokenized_store_rebuilds_the_index(tmp_path):
+    # Ingest re-tokenizes every passage (new term ids, same passage ids) when the tokenizer
+    # fingerprint in meta changes; the index must notice although no passage id changed.
+    store = make_store(tmp_path)
+    PassageIndex.load_or_build(store, RetrievalConfig())
+    store.set_meta("tokenizer", Tokenizer().fingerprint())
+    assert PassageIndex.load_or_build(store, RetrievalConfig()).rebuilt
+    assert not PassageIndex.load_or_build(store, RetrievalConfig()).rebuilt
