@@ -180,6 +180,19 @@ def test_hostile_strings_show_literally_and_never_run(sample):
     assert page.console_errors() == []  # a script blocked by the CSP would have logged an error
 
 
+def test_a_brief_link_opens_its_question_even_when_filtered_out(sample):
+    page, _ = sample
+    p = page.page
+    p.select_option("#f-verdict", "covered")  # q-002 (a gap) is not listed
+    assert p.locator("#q1").count() == 0
+    p.click(".brief a[href='#q1']")
+    assert p.locator("#q1").count() == 1
+    assert p.get_attribute("#q1 details", "open") is not None
+    p.locator("#q1 + tr.ev-row").wait_for(timeout=2000)
+    assert p.input_value("#f-verdict") == ""
+    assert p.evaluate("document.activeElement.closest('tr').id") == "q1"
+
+
 def test_screenshot(sample):
     page, _ = sample
     p = page.page

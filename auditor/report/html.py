@@ -598,7 +598,7 @@ def inventory(documents: list[dict], ingest_errors, audit: date | None) -> dict:
 def render_page(view: dict) -> str:
     """Render one page of the report from a view built by `build_view`."""
     css, js = _static()
-    csp = ("default-src 'none'; img-src data:; base-uri 'none'; form-action 'none'; "
+    csp = ("default-src 'none'; base-uri 'none'; form-action 'none'; "
            f"style-src {csp_hash(css)}; script-src {csp_hash(js)}")
     return _environment().get_template("report.html.j2").render(
         v=view, css=Markup(css), js=Markup(js), csp=csp, data_json=script_json(view["data"]))

@@ -339,6 +339,27 @@
   form.addEventListener("submit", function (ev) { ev.preventDefault(); });
   document.getElementById("show-more").addEventListener("click", function () { limit += PAGE; render(); });
   document.getElementById("show-all").addEventListener("click", function () { limit = matches.length; render(); });
+  // A link to a question (from a content brief) shows its row even when filters or paging hide it.
+  function reveal(i) {
+    if (matches.indexOf(i) === -1) {
+      fVerdict.value = fOwner.value = fTopic.value = fText.value = "";
+      apply();
+    }
+    var at = matches.indexOf(i);
+    if (at >= limit) { limit = at + 1; render(); }
+    var details = rows[i].querySelector("details");
+    if (details && !details.open) { details.open = true; }
+    rows[i].scrollIntoView({ block: "start" });
+    rows[i].querySelector("summary").focus({ preventScroll: true });
+  }
+  document.addEventListener("click", function (ev) {
+    var a = ev.target.closest && ev.target.closest("a[href^='#q']");
+    var m = a && /^#q(\d+)$/.exec(a.getAttribute("href"));
+    if (!m || +m[1] >= n) { return; }
+    ev.preventDefault();
+    reveal(+m[1]);
+  });
+
   // Print what the filters select, not only the first page of it.
   window.addEventListener("beforeprint", function () {
     if (limit < matches.length) { limit = matches.length; render(); }
