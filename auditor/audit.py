@@ -90,6 +90,8 @@ def run_audit(store: Store, config: Config, questions: list[Question], *, as_of:
             "started": started,
             "finished": None,
             "title": config.report.title,
+            # The report highlights matched words with the same tokenizer settings.
+            "tokenizer": {"language": config.retrieval.language, "stopwords": config.retrieval.stopwords},
             "corpus": corpus,
             "thresholds": thresholds,
             "config_fingerprint": _config_fingerprint(config, fresh_config),
@@ -372,7 +374,8 @@ def _store_run(store: Store, run: dict) -> None:
             "UPDATE runs SET status = 'done', finished = ?, corpus = ?, summary = ?, ingest_errors = ?, "
             "extras = ? WHERE id = ?",
             [head["finished"], dumps(head["corpus"]), dumps(run["summary"]), dumps(run["ingest_errors"]),
-             dumps({"documents": run["documents"], "briefs": run["briefs"], "title": head.get("title")}),
+             dumps({"documents": run["documents"], "briefs": run["briefs"], "title": head.get("title"),
+                    "tokenizer": head.get("tokenizer")}),
              head["id"]])
 
 

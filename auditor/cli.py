@@ -245,12 +245,12 @@ def search(query, config_path, db, k, as_json):
         hits = describe_hits(store, result)
     if as_json:
         click.echo(json.dumps({"query": query, "terms": result.terms, "missing_terms": result.missing_terms,
-                               "hits": hits}, ensure_ascii=False, indent=2))
+                               "message": result.message, "hits": hits}, ensure_ascii=False, indent=2))
         return
     if result.missing_terms:
         click.echo(f"never in the corpus: {', '.join(result.missing_terms)}")
     if not hits:
-        click.echo("no passage matches")
+        click.echo(result.message or "no passage matches")
     for rank, hit in enumerate(hits, 1):
         breakdown = ", ".join(f"{t} {s:.2f}" for t, s in sorted(hit["term_scores"].items(), key=lambda x: -x[1]))
         where = hit["document"] + (f" p.{hit['page']}" if hit.get("page") else "")

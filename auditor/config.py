@@ -210,9 +210,22 @@ def _build(raw: dict, base: Path, source: Path | None, where: str, warn) -> Conf
         if value is not None and (value < 0 or (limit.name != "max_new_gaps" and value > 1)):
             bound = "a whole number of at least 0" if limit.name == "max_new_gaps" else "a share between 0 and 1"
             raise ConfigError(f"{where}: gate.{limit.name} must be {bound}, not {value!r}")
+    _check_retrieval(config.retrieval, where)
     if config.retrieval.top_k < 1:
         raise ConfigError(f"{where}: retrieval.top_k must be at least 1")
     return config
+
+
+def _check_retrieval(retrieval: RetrievalConfig, where: str) -> None:
+    """Let the BM25 and tokenizer registries judge their settings now, so the message names the file."""
+    from .bm25 import Params
+    from .tokenize import Tokenizer
+
+    try:
+        Params(retrieval.variant, retrieval.k1, retrieval.b, retrieval.delta)
+        Tokenizer(retrieval.language, retrieval.stopwords)
+    except ConfigError as exc:
+        raise ConfigError(f"{where}: {exc}") from None
 
 
 class _Reader:

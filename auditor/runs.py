@@ -109,6 +109,7 @@ def _run_object(store: Store, row: dict) -> dict:
             "started": row["started"],
             "finished": row["finished"],
             "title": extras.get("title"),
+            "tokenizer": extras.get("tokenizer"),
             "corpus": _json(store, run_id, "corpus", row["corpus"], {}),
             "thresholds": _json(store, run_id, "thresholds", row["thresholds"], {}),
             "config_fingerprint": row["config_fingerprint"],

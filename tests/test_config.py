@@ -76,6 +76,8 @@ def test_unknown_key_warns_and_is_ignored(tmp_path):
     ("[[freshness.rules]]\nhorizon_days = 3\n", "freshness.rules[0]"),
     ("questions = 3\n", "questions"),
     ("[gate]\nmax_gap_share = 1.5\n", "gate.max_gap_share"),
+    ("[retrieval]\nvariant = \"bm99\"\n", "lucene"),  # the message lists the valid variants
+    ("[retrieval]\nlanguage = \"klingon\"\n", "klingon"),
     ("[gate]\nmax_new_gaps = -1\n", "gate.max_new_gaps"),
 ])
 def test_bad_value_names_key_and_file(tmp_path, text, key):

@@ -44,6 +44,7 @@ def make_run(as_of: str, questions: list[dict]) -> dict:
         "format": 1,
         "run": {"id": None, "as_of": as_of, "horizon_days": 365, "started": f"{as_of}T06:00:00Z",
                 "finished": f"{as_of}T06:01:00Z", "title": "Fernhollow help centre",
+                "tokenizer": {"language": "english", "stopwords": "english"},
                 "corpus": {"documents": 25, "passages": 310, "failed": 1, "freshness": 0.8,
                            "mean_age_days": 40.0},
                 "thresholds": {"support": 0.45, "weak_margin": 0.05, "source": "default"},
@@ -75,7 +76,8 @@ def store_run(store, run: dict, status: str = "done", gate: dict | None = None) 
              head["config_fingerprint"], head["corpus_fingerprint"], dumps(head["thresholds"]),
              dumps(head["corpus"]), dumps(run["summary"]), dumps(gate) if gate else None,
              dumps(run["ingest_errors"]),
-             dumps({"documents": run["documents"], "briefs": run["briefs"], "title": head["title"]})])
+             dumps({"documents": run["documents"], "briefs": run["briefs"], "title": head["title"],
+                    "tokenizer": head["tokenizer"]})])
         head["id"] = cursor.lastrowid
         for i, q in enumerate(run["questions"]):
             store.db.execute("INSERT INTO results (run_id, position, qid, verdict, weight, result) "
