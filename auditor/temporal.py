@@ -41,7 +41,10 @@ _ABBREVIATIONS = {"jan", "feb", "mar", "apr", "jun", "jul", "aug", "sep", "sept"
                   "mon", "tue", "tues", "wed", "thu", "thur", "thurs", "fri", "sat", "sun", "e.g", "i.e",
                   "etc", "no", "st", "dr", "mr", "mrs", "ms", "approx", "vs", "inc", "ltd", "co", "a.m",
                   "p.m", "u.s", "fig", "ext", "dept", "est", "f.y", "c", "ca", "al", "pp", "p"}
-_BOUNDARY = re.compile(r"[.!?]+[\"'”’)\]]*\s+(?=[\"'“‘(\[]?[A-Z0-9•*-])|\n[ \t]*\n\s*|\n(?=[ \t]*(?:[-*•]|\d+[.)])\s)")
+# Linear on any input: a run of "!!!" is tried once, at its first mark (the lookbehind), and a
+# blank line ends at its second newline, so no quantifier restarts inside a run it already read.
+_BOUNDARY = re.compile(r"(?<![.!?])[.!?]+[\"'”’)\]]*\s+(?=[\"'“‘(\[]?[A-Z0-9•*-])|\n[ \t]*\n"
+                       r"|\n(?=[ \t]*(?:[-*•]|\d+[.)])\s)")
 _WORD_BEFORE = re.compile(r"([A-Za-z][A-Za-z.]*)\.$")
 
 
@@ -67,9 +70,9 @@ def _merge_ranges(text: str, atoms: list[Atom], reference: date | None) -> list[
     merged: list[Atom] = []
     for atom in atoms:
         prev = merged[-1] if merged else None
-        if prev is not None and not prev.relative and not atom.relative and \
-                RANGE_JOIN.fullmatch(text, prev.end, atom.start):
-            joiner = text[prev.end:atom.start].strip().lower()
+        joiner = text[prev.end:atom.start].strip().lower() if prev is not None else ""
+        if prev is not None and not prev.relative and not atom.relative and atom.start - prev.end <= 30 and \
+                RANGE_JOIN.fullmatch(joiner):
             opens = RANGE_OPEN.search(text, max(0, prev.start - 12), prev.start)
             if joiner != "and" or (opens and opens.group().lower().startswith("between")):
                 joined = _join(prev, atom, reference)

@@ -140,7 +140,7 @@ MODIFIER_BEFORE = re.compile(
 MODIFIERS = {"early": "early", "earlier": "early", "beginning": "start", "start": "start",
              "mid": "mid", "middle": "mid", "late": "late", "later": "late", "end": "end", "close": "end"}
 # text allowed between two expressions that form one range
-RANGE_JOIN = re.compile(r"(?i:\s*(?:-|–|—|to|through|thru|until|till|and|to\s+and\s+including)\s*)")
+RANGE_JOIN = re.compile(r"(?i:-|–|—|to|through|thru|until|till|and|to\s+and\s+including)")  # stripped gap
 RANGE_OPEN = re.compile(r"(?i:\b(?:from|between)\s+(?:the\s+)?)$")
 
 # Bare years: accepted after a preposition or time word, or before a noun that a year qualifies.
@@ -153,7 +153,7 @@ _YEAR_LEFT = re.compile(
     r"|[©]\s*|\(c\)\s*|\([A-Z][A-Za-z.&' -]{1,60},\s*)$")  # the last: a citation "(Rivera, 2019)"
 _YEAR_DETERMINER = re.compile(r"(?i:\b(?:the|our|this|each|your|its|a|an|their)\s+)$")
 _YEAR_RIGHT = re.compile(
-    r"(?i:\s*(?:-|–)?\s*(?:rates?|rate\s+schedule|tariffs?|fees?|charges?|prices?|pricing|budget|"
+    r"(?i:\s*(?:[-–]\s*)?(?:rates?|rate\s+schedule|tariffs?|fees?|charges?|prices?|pricing|budget|"
     r"reports?|annual|water\s+quality|consumer\s+confidence|season|schedule|programs?|programmes?|"
     r"plans?|figures|results|data|levels|survey|edition|update|review|audit|calendar|"
     r"billing|assessment|statement|summary|holiday|holidays)\b)")

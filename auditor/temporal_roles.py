@@ -89,7 +89,7 @@ _PERIOD_NOUN = (r"(?:water\s+)?rates?|rate\s+schedules?|tariffs?|fees?|charges?|
                 r"summary|holidays?|schedules?|plans?|allowances?|quotas?|tiers?|cycle|rebates?|campaigns?|"
                 r"restrictions|projects|statistics|targets|goals|capital|newsletters?|bulletins?|issues?|audits?|reviews?")
 # the noun may follow directly ("2023 rates") or after one word ("2024 property assessment")
-_PERIOD_RIGHT = re.compile(rf"(?i:\s*(?:-|–)?\s*(?:(?!(?:to|for|and|or|the|a|an|of|in|on|at|by|is|are|was|will)\b)"
+_PERIOD_RIGHT = re.compile(rf"(?i:\s*(?:[-–]\s*)?(?:(?!(?:to|for|and|or|the|a|an|of|in|on|at|by|is|are|was|will)\b)"
                            rf"[A-Za-z]+\s+)?(?:{_PERIOD_NOUN})\b)")
 _PERIOD_LEFT_NOUN = re.compile(r"(?i:\b(?:report|statistics|results|targets|budget|rates|schedule|edition|"
                                r"plan|review|summary|figures)\s*:?\s*$)")
