@@ -3,7 +3,8 @@ its section is.
 
 Rules, in order:
 * a heading starts a new passage (parsers emit a heading as a block whose text is the last
-  element of its heading path), so a passage never spans two sections and starts with its heading;
+  element of its heading path) once the current one holds MIN_WORDS words: sections shorter than
+  that join the next, and the passage's heading path is what their paths share;
 * a page change starts a new passage (a passage has one page);
 * blocks are joined until the next one would push the passage past MAX_WORDS;
 * a block longer than MAX_WORDS is cut at sentence ends (at word boundaries when one sentence
@@ -19,6 +20,7 @@ import re
 
 from .models import Block, Passage
 
+MIN_WORDS = 100
 TARGET_WORDS = 200
 MAX_WORDS = 250
 SEPARATOR = "\n\n"
@@ -81,6 +83,16 @@ def _pieces(text: str, first_budget: int = TARGET_WORDS) -> list[tuple[int, int]
     return out
 
 
+def _common_prefix(paths: list[tuple[str, ...]]) -> tuple[str, ...]:
+    prefix = paths[0]
+    for path in paths[1:]:
+        n = 0
+        while n < min(len(prefix), len(path)) and prefix[n] == path[n]:
+            n += 1
+        prefix = prefix[:n]
+    return prefix
+
+
 def segment(blocks: list[Block]) -> list[Passage]:
     """Cut `blocks` (one document's, in reading order) into passages."""
     passages: list[Passage] = []
@@ -94,11 +106,11 @@ def segment(blocks: list[Block]) -> list[Passage]:
         nonlocal words, content
         if current:
             first = current[0][0]
-            # The section a passage belongs to is that of its first content block (a passage may
-            # open with a chapter heading followed by its first sub-heading).
-            body = next((b for b, _, _ in current if not is_heading(b)), current[-1][0])
+            # The section of a passage is what its content blocks share: a passage may open with a
+            # chapter heading and its first sub-heading, or hold two short sibling sections.
+            paths = [b.heading_path for b, _, _ in current if not is_heading(b)] or [current[-1][0].heading_path]
             start, end = current[0][1], current[-1][2]
-            passages.append(Passage(len(passages), text[start:end], body.heading_path, first.page, start, end))
+            passages.append(Passage(len(passages), text[start:end], _common_prefix(paths), first.page, start, end))
             heading_only.append(not content)
         current.clear()
         words, content = 0, False
@@ -109,7 +121,9 @@ def segment(blocks: list[Block]) -> list[Passage]:
         offset = end + len(SEPARATOR)
         n = _words(block.text)
         heading = is_heading(block)
-        if current and (content and heading or block.page != current[0][0].page):
+        # A heading cuts once the passage has MIN_WORDS of its own; shorter sections join the
+        # next one, so that a run of two-line sections does not become a run of tiny passages.
+        if current and (content and heading and words >= MIN_WORDS or block.page != current[0][0].page):
             flush()
         room = MAX_WORDS - (words if current and not content else 0)  # after a heading
         if not heading and n > room:

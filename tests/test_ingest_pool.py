@@ -28,8 +28,8 @@ def test_one_job_runs_everything_in_order():
 
 
 def test_a_slow_file_times_out_and_the_others_are_ingested(tmp_path):
-    # 120 pages of text: parsing, segmenting and dating it takes seconds, far over 0.5 s.
-    slow = replicate_pages(make_pdf([words(350)]), 120)
+    # 400 pages of text: parsing, segmenting and dating it takes seconds, far over 0.5 s.
+    slow = replicate_pages(make_pdf([words(350)]), 400)
     root = write_tree(tmp_path / "kb", {"slow.pdf": slow, "a.md": "# A\n\nShort.\n", "b.txt": "B\n\nShort too."})
     with Store(tmp_path / "a.db") as store:
         summary = ingest_corpus(store, config_for(root, timeout_s=0.5, jobs=2))

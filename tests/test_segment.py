@@ -18,12 +18,23 @@ def n_words(text: str) -> int:
 
 def test_headings_start_passages_and_keep_their_path():
     blocks = [Block("Billing", ("Billing",)), Block("Late fees", ("Billing", "Late fees")),
-              Block(words(40), ("Billing", "Late fees")), Block("Paying", ("Billing", "Paying")),
+              Block(words(120), ("Billing", "Late fees")), Block("Paying", ("Billing", "Paying")),
               Block(words(30, "pay"), ("Billing", "Paying"))]
     passages = segment(blocks)
     assert [p.heading_path for p in passages] == [("Billing", "Late fees"), ("Billing", "Paying")]
     assert passages[0].text.startswith("Billing\n\nLate fees\n\n")
     assert passages[1].text.startswith("Paying\n\n")
+
+
+def test_short_sections_join_the_next_under_their_shared_path():
+    blocks = [Block("Report", ("Report",)), Block("Sources", ("Report", "Sources")),
+              Block(words(40), ("Report", "Sources")), Block("Lead", ("Report", "Lead")),
+              Block(words(50, "lead"), ("Report", "Lead")), Block("Hardness", ("Report", "Hardness")),
+              Block(words(30, "hard"), ("Report", "Hardness"))]
+    passages = segment(blocks)
+    # 40 + 50 words: below MIN_WORDS when "Hardness" comes, so all three sections share a passage.
+    assert len(passages) == 1 and passages[0].heading_path == ("Report",)
+    assert "Lead\n\nlead0" in passages[0].text and "Hardness\n\nhard0" in passages[0].text
 
 
 def test_long_sections_are_cut_at_paragraph_ends_within_the_limit():
