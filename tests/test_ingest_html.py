@@ -84,11 +84,14 @@ def test_schema_org_json_ld():
 
 
 def test_json_ld_graph_and_broken_blocks():
-    graph = {"@context": "https://schema.org", "@graph": [{"@type": "WebSite", "name": "x"},
-                                                          {"@type": "WebPage", "dateModified": "2024-06-30"}]}
+    graph = {"@context": "https://schema.org", "@graph": [
+        {"@type": "WebSite", "name": "x"},
+        {"@type": "WebPage", "dateModified": "2024-06-30",
+         "datePublished": {"@value": "2020-01-02", "@type": "Date"}}]}  # JSON-LD 1.1 typed value (section from memory: 4.2.1)
     head = ('<script type="application/ld+json">{not json</script>'
             f'<script type="application/ld+json">{json.dumps(graph)}</script>')
-    assert _dates(head) == [(date(2024, 6, 30), "modified", "jsonld:dateModified")]
+    assert _dates(head) == [(date(2024, 6, 30), "modified", "jsonld:dateModified"),
+                            (date(2020, 1, 2), "published", "jsonld:datePublished")]
 
 
 def test_open_graph_article_times():

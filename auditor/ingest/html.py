@@ -257,6 +257,8 @@ def _dates(scan: _Scan) -> list[MetaDate]:
             continue
         for key, kind in _JSONLD_KEYS:
             value = _jsonld_first(data, key)
+            if isinstance(value, dict):  # an expanded value object: {"@value": "...", "@type": "Date"}
+                value = value.get("@value")
             if isinstance(value, str) and (d := parse_w3c_datetime(value)):
                 found.append(MetaDate(d, kind, f"jsonld:{key}"))
     used = set()
