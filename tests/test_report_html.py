@@ -7,7 +7,6 @@ import hashlib
 import json
 import os
 import re
-from pathlib import Path
 
 import pytest
 from hypothesis import HealthCheck, given, settings
