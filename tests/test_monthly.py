@@ -64,7 +64,7 @@ def test_two_monthly_scans_diff_shows_exactly_the_two_changes(tmp_path):
     assert shown.returncode == 0, shown.stderr
     lines = shown.stdout.splitlines()
     assert lines[0] == ("run 2 (2026-12-01) against run 1 (2026-11-01): 1 newly stale (weight 40), "
-                        f"1 resolved gap (weight 12); fallback exposure 0.15 -> 0.09")
+                        "1 resolved gap (weight 12); fallback exposure 0.15 -> 0.09")
     assert [line.split()[0] for line in lines if line.startswith("  ")] == ["q-leak", "q-barrel"]
     listed = auditor(root, "runs", "-c", "audit.toml")
     assert [line.split()[:3] for line in listed.stdout.splitlines()[1:]] == [["1", "done", "2026-11-01"],
