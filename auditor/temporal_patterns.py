@@ -112,6 +112,7 @@ _ALTERNATIVES = [
     ("year", rf"(?<![\w.,:/$€£#+])(?<!\d-)(?P<by>{YEAR_CORE})(?![\w%]|[.,:/-]\d|\s*(?:%|percent\b))"),
 ]
 
+# Every candidate form in one alternation; extract() uses its two halves below.
 CANDIDATES = re.compile("|".join(f"(?P<{name}>{body})" for name, body in _ALTERNATIVES))
 # The same alternation split by what a candidate starts with, so that a position tries only the
 # forms that can begin there (the order within each stays that of _ALTERNATIVES).

@@ -8,7 +8,7 @@ from unittest import mock
 import pytest
 from hypothesis import given, settings, strategies as st
 
-from auditor import temporal, temporal_patterns
+from auditor import temporal_patterns
 from auditor.models import GRANULARITIES, ROLES
 from auditor.temporal import extract
 
