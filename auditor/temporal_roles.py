@@ -5,28 +5,32 @@ the same sentence, after any earlier expression), then the words just after it, 
 sentence's tense; the first rule that applies wins:
 
 1. `other`     a copyright line (©, "Copyright", "(c)"), a citation ("(Rivera, 2019)", "et al.,
-               2019", "4th edition (2016)"), or a recurring date ("June 1 through September 30 each year", "annually").
+               2019", a bare year in parentheses: "4th edition (2016)"), or a recurring date
+               ("June 1 through September 30 each year", "annually").
 2. a strong cue, the nearest one, at most 40 characters of the same clause before the expression
    (no "and", "or", "but", "once", "when", "if" ... in between; for an as-of cue at most 20 and
    no new verb, so that "updated meters were installed in 2019" is no as-of statement):
    `as_of`     as of, as at, (last) updated, (last) reviewed, revised, (last) modified, date
                modified, current/accurate/correct as of, verified, information current;
+   `expires`   until, till, expires, expiry, expiration, deadline, no later than, valid
+               through/until, ends, will end, end of support/life/service, ending, end date,
+               closes, close on, last day, is/payment due, due on/by, cut-off, up to and including,
+               not after; and through/thru right before the expression (else it may mean "by way of");
    `effective` effective, takes/took effect, in effect, in force, comes into force, applies from,
                starting, starts, beginning, begins, commencing, as from, on and/or after, valid
-               (from), opens/open, becomes, new from;
-   `expires`   until, till, expires, expiry, expiration, deadline, no later than, valid
-               through/until, ends, end of support/life/service, ending, end date, closes, close on,
-               last day, is/payment due, due on/by, cut-off, up to and including, not after; and
-               through/thru right before the expression (else it may mean "by way of").
+               (from), opens/open, becomes/became, new from.
 3. right after the expression: "update"/"revision" -> `as_of` ("MARCH 2024 UPDATE");
    "or later", "onwards" -> `effective`.
-4. a weak cue right before the expression: from/since/after -> `effective`, by/before ->
-   `expires` (only when the sentence states an obligation: must, submit, apply, pay ...). A weak
-   cue yields in a past-tense sentence ("ran from ... to ..." is an event) and when a future-tense
-   sentence gives a bounded range ("will be closed from Dec 24 to Jan 2" is planned).
+4. a weak cue right before the expression: from/since/after -> `effective`; by/before ->
+   `expires` only after an obligation in the same sentence (must, submit, apply, pay ...);
+   "after" in a sentence that refuses ("cannot be considered") -> `expires`. A weak effective cue
+   yields in a past-tense sentence ("ran from ... to ..." is an event; a participle right before
+   the cue, "accounts opened from", does not count as past) and when a future-tense sentence gives
+   a bounded range ("will be closed from Dec 24 to Jan 2" is planned). A weak cue that yields
+   leaves a reference point: `event`, unless the date lies after the reference date.
 5. `planned`   "scheduled/planned/slated/expected for|in|on" right before it.
-6. `period`    for, during, throughout, covering, over, applies to ... right before it, or a noun the date
-               qualifies right after it ("2023 rates", "2024 property assessment", "FY2025
+6. `period`    for, during, throughout, covering, over, applies to ... right before it, or a noun
+               the date qualifies right after it ("2023 rates", "2024 property assessment", "FY2025
                budget"), or for a year/quarter/half/season a noun right before it ("Annual Report 2023").
 7. `planned`   a future-tense sentence (will, shall, scheduled, planned, upcoming, expected (to),
                is set to, going to, intends/aims to, proposed ...) or a relative expression that
