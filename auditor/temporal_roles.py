@@ -66,12 +66,13 @@ _STRONG = [
                   r"begins(?:\s+on)?|commencing(?:\s+on)?|as\s+from|on\s+(?:and|or)\s+after|"
                   r"from\s+and\s+after|valid\s+from|valid|opens?(?:\s+(?:on|from))?|becomes?|became|new\s+from"),
 ]
-_WEAK = [
-    ("effective", r"from|since|after"),
-    ("expires", r"by|before"),
+# Cues that count only right before the expression. "through" is also "by way of" ("pay through
+# the portal on ..."), so it is a strong expiry cue only there; the weak ones are weighed below.
+_NEAR = [
+    ("through", r"through|thru"),
+    ("weak_effective", r"from|since|after"),
+    ("weak_expires", r"by|before"),
 ]
-# "through" is also "by way of" ("pay through the portal on ..."): a cue only right before the date
-_ADJACENT = [("expires", r"through|thru")]
 _PERIOD_LEFT = (r"for|during|throughout|covering|covers|cover|over|for\s+the|appl(?:y|ies)\s+to|"
                 r"in\s+the\s+(?:calendar|fiscal)\s+year")
 
@@ -83,8 +84,7 @@ def _compile(pairs):
 
 
 _STRONG_CUES = _compile(_STRONG)
-_WEAK_CUES = _compile(_WEAK)
-_ADJACENT_CUES = _compile(_ADJACENT)
+_NEAR_CUES = _compile(_NEAR)
 _PERIOD_CUE = re.compile(rf"(?i:\b(?:{_PERIOD_LEFT})\s+(?:the\s+)?(?:(?:calendar|fiscal|school|tax)\s+year\s+)?)$")
 _PLANNED_LEFT = re.compile(r"(?i:\b(?:scheduled|planned|slated|set|expected|tentatively)\s+(?:for|in|on|to\s+\w+\s+(?:in|on))\s+(?:the\s+)?$)")
 _PERIOD_NOUN = (r"(?:water\s+)?rates?|rate\s+schedules?|tariffs?|fees?|charges?|prices?|pricing|"
@@ -122,6 +122,7 @@ _WORDS = re.compile(r"[a-z']+")
 _PARTICIPLE_BEFORE_CUE = re.compile(r"(?i:\b\w+(?:ed|en)\s+(?:on\s+or\s+)?(?:from|after|since|before|by)\s*$)")
 _NEGATION = re.compile(r"(?i:\b(?:cannot|can't|not|no\s+longer|won't)\b)")
 _STRONG_REACH = 40  # characters a strong cue may stand before its expression ("effective for bills on")
+_TAIL = 70  # the cues anchored at the end of the left context are shorter than this
 _WINDOW = 80
 
 
@@ -163,11 +164,14 @@ def role_for(left: str, right: str, sentence: str, *, start: date, reference_dat
              bounded: bool = False, expression: str = "") -> str:
     """The role of an expression, given the sentence text to its `left` and `right` (see module doc)."""
     left, right = left[-_WINDOW:], right[:_WINDOW]
-    if _OTHER_LEFT.search(left) or _RECURRING.match(right):
+    if _OTHER_LEFT.search(left, max(0, len(left) - _TAIL)) or _RECURRING.match(right):
         return "other"
     if expression.isdigit() and left.endswith("(") and right.startswith(")"):
         return "other"  # "4th edition (2016)": a publication year
-    strong = _nearest(_STRONG_CUES, left, _STRONG_REACH) or _nearest(_ADJACENT_CUES, left, 5)
+    near = _nearest(_NEAR_CUES, left, 5)
+    if near == "through":
+        return "expires"
+    strong = _nearest(_STRONG_CUES, left, _STRONG_REACH)
     if strong:
         return strong
     if _AS_OF_RIGHT.match(right):
@@ -176,7 +180,7 @@ def role_for(left: str, right: str, sentence: str, *, start: date, reference_dat
         return "effective"
     future, past = _tense(sentence)
     future = (future or future_relative) and not past_relative
-    weak = _nearest(_WEAK_CUES, left, 5)
+    weak = {"weak_effective": "effective", "weak_expires": "expires"}.get(near)
     if weak is not None:
         participle = _PARTICIPLE_BEFORE_CUE.search(left)
         if participle:
@@ -196,11 +200,12 @@ def role_for(left: str, right: str, sentence: str, *, start: date, reference_dat
             # a reference point ("laptops bought before 2020"): an event unless it lies ahead
             if reference_date is None or start <= reference_date:
                 return "event"
-    if _PLANNED_LEFT.search(left):
+    if _PLANNED_LEFT.search(left, max(0, len(left) - _TAIL)):
         return "planned"
-    if _PERIOD_CUE.search(left) or _PERIOD_RIGHT.match(right):
+    if _PERIOD_CUE.search(left, max(0, len(left) - _TAIL)) or _PERIOD_RIGHT.match(right):
         return "period"
-    if granularity in ("year", "quarter", "half", "season") and _PERIOD_LEFT_NOUN.search(left):
+    if granularity in ("year", "quarter", "half", "season") and \
+            _PERIOD_LEFT_NOUN.search(left, max(0, len(left) - _TAIL)):
         return "period"  # "Annual Report 2023", "Outage statistics 2024-Q3"
     if future:
         return "planned"
