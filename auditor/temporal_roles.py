@@ -11,7 +11,7 @@ sentence's tense; the first rule that applies wins:
    (no "and", "or", "but", "once", "when", "if" ... in between; for an as-of cue at most 20 and
    no new verb, so that "updated meters were installed in 2019" is no as-of statement):
    `as_of`     as of, as at, (last) updated, (last) reviewed, revised, (last) modified, date
-               modified, current/accurate/correct as of, verified, information current;
+               modified, (last) checked, current/accurate/correct as of, verified, information current;
    `expires`   until, till, expires, expiry, expiration, deadline, no later than, valid
                through/until, ends, will end, end of support/life/service, ending, end date,
                closes, close on, last day, is/payment due, due on/by, cut-off, up to and including,
@@ -50,7 +50,7 @@ _OTHER_LEFT = re.compile(r"(?i:(?:©|\(c\)|\bcopyright)\s*(?:©\s*)?$|\bet\s+al\
                          r"\([A-Z][A-Za-z.&' -]{1,60},\s*$)")
 _STRONG = [
     ("as_of", r"as\s+of|as\s+at|(?:last[\s_]+)?updated(?:\s+on)?|(?:last[\s_]+)?reviewed(?:\s+on)?|revised(?:\s+on)?|"
-              r"(?:last[\s_]+)?modified(?:\s+on)?|date[\s_]+modified|"
+              r"(?:last[\s_]+)?modified(?:\s+on)?|date[\s_]+modified|(?:last\s+)?checked(?:\s+on)?|"
               r"current\s+as\s+of|accurate\s+as\s+of|correct\s+as\s+of|verified(?:\s+on)?|"
               r"information\s+(?:is\s+)?current"),
     ("expires", r"until|till|expires?(?:\s+on)?|expiry(?:\s+date)?|expiration(?:\s+date)?|"
@@ -91,7 +91,7 @@ _PERIOD_NOUN = (r"(?:water\s+)?rates?|rate\s+schedules?|tariffs?|fees?|charges?|
                 r"budgets?|reports?|annual|water\s+quality|consumer\s+confidence|seasons?|programs?|programmes?|"
                 r"figures|results|data|levels|surveys?|editions?|calendar|billing|assessments?|statements?|"
                 r"summary|holidays?|schedules?|plans?|allowances?|quotas?|tiers?|cycle|rebates?|campaigns?|"
-                r"restrictions|projects|statistics|targets|goals|capital|newsletters?|bulletins?|issues?|audits?|reviews?")
+                r"restrictions|projects|statistics|targets|goals|capital|newsletters?|bulletins?|issues?|audits?|reviews?|surcharges?|discounts?|credits?")
 # the noun may follow directly ("2023 rates") or after one word ("2024 property assessment")
 _PERIOD_RIGHT = re.compile(rf"(?i:\s*(?:[-–]\s*)?(?:(?!(?:to|for|and|or|the|a|an|of|in|on|at|by|is|are|was|will)\b)"
                            rf"[A-Za-z]+\s+)?(?:{_PERIOD_NOUN})\b)")
