@@ -210,12 +210,21 @@ def diff(base, head, config_path, db):
 
 @cli.command()
 @click.argument("files", nargs=-1, type=click.Path(allow_dash=True, dir_okay=False))
+@config_option
 @click.option("--reference-date", type=ISO_DATE, help="Anchor for relative expressions (default: today).")
-@click.option("--day-first", is_flag=True, help="Read 03/04/2025 as 3 April.")
-def dates(files, reference_date, day_first):
+@click.option("--day-first/--month-first", default=None, help="Read 03/04/2025 as 3 April (default: the config's).")
+@click.option("--fiscal-year-start", type=click.IntRange(1, 12), help="Month the fiscal year starts (default: the config's).")
+@click.option("--hemisphere", type=click.Choice(["north", "south"]), help="For seasons (default: the config's).")
+def dates(files, config_path, reference_date, day_first, fiscal_year_start, hemisphere):
     """Temporal expressions in FILE... (or standard input) as JSON lines."""
     from .temporal import extract
 
+    corpus = _config(config_path).corpus
+    settings = {
+        "day_first": corpus.day_first if day_first is None else day_first,
+        "fiscal_year_start": fiscal_year_start or corpus.fiscal_year_start,
+        "hemisphere": hemisphere or corpus.hemisphere,
+    }
     for name in files or ("-",):
         if name == "-":
             text = sys.stdin.read()
@@ -224,7 +233,7 @@ def dates(files, reference_date, day_first):
                 text = Path(name).read_text(encoding="utf-8", errors="replace")
             except OSError as exc:
                 raise InputError(f"{name!r}: cannot read ({exc.strerror})") from None
-        for expression in extract(text, reference_date or date.today(), day_first=day_first):
+        for expression in extract(text, reference_date or date.today(), **settings):
             click.echo(json.dumps(expression.as_json(), ensure_ascii=False))
 
 

@@ -179,7 +179,7 @@ class Judged:
     support: float
     fresh: bool
     reasons: tuple[str, ...] = ()  # stale reasons of the passage (too_old, expired, overtaken)
-    as_of_source: str = "none"
+    as_of_source: str = "statement"
     answer_type_found: bool = True
 
 
@@ -201,7 +201,8 @@ def judge(evidence: Sequence[Judged], *, threshold: float, weak_margin: float) -
 
     covered — some supporting passage is fresh; flags `stale_competitor` (a stale passage supports
               it too), `weak` (best fresh support < threshold + weak_margin), `file_dated` (the
-              fresh support rests on file times only).
+              fresh support rests on file times only), `undated` (it rests on passages with no
+              date at all, which count as fresh for want of evidence).
     stale   — supporting passages exist, none fresh; reasons are their stale reasons; action
               `retire` when every one has ended (expired or overtaken), else `refresh`.
     gap     — nothing supports it; action `write`. Reasons are freshness reasons (DESIGN.md §3.3),
@@ -227,6 +228,8 @@ def judge(evidence: Sequence[Judged], *, threshold: float, weak_margin: float) -
             flags.append("weak")
         if all(e.as_of_source == "file" for e in fresh):
             flags.append("file_dated")
+        elif all(e.as_of_source == "none" for e in fresh):
+            flags.append("undated")
         return Verdict("covered", [], _ordered(flags), None, top, supporting)
     if stale:
         reasons = sorted({r for e in stale for r in e.reasons}, key=_reason_key)
@@ -240,7 +243,7 @@ def _reason_key(reason: str) -> int:
     return _STALE_ORDER.index(reason) if reason in _STALE_ORDER else len(_STALE_ORDER)
 
 
-_FLAG_ORDER = ("stale_competitor", "weak", "file_dated", "no_answer_type")
+_FLAG_ORDER = ("stale_competitor", "weak", "file_dated", "undated", "no_answer_type")
 
 
 def _ordered(flags: list[str]) -> list[str]:

@@ -101,3 +101,21 @@ def test_console_script_entry_point(tmp_path):
                              str(tmp_path / "none.toml")], capture_output=True, text=True)
     assert result.returncode == 1
     assert result.stderr.strip().count("\n") == 0 and "none.toml" in result.stderr
+
+
+def test_dates_takes_calendar_settings_from_config_and_flags(runner, tmp_path):
+    # A July fiscal year: FY2025 runs 2024-07-01..2025-06-30 (the US federal convention names a
+    # fiscal year by the calendar year it ends in; from memory).
+    config = tmp_path / "audit.toml"
+    config.write_text("[corpus]\nfiscal_year_start = 7\nday_first = true\n", encoding="utf-8")
+    text = "The FY2025 budget applies. The notice of 03/04/2025 stands.\n"
+    rows = [json.loads(line) for line in runner.invoke(
+        cli, ["dates", "-c", str(config), "--reference-date", "2026-12-01", "-"], input=text).output.splitlines()]
+    fiscal = next(r for r in rows if "FY2025" in r["expression"])
+    assert (fiscal["start"], fiscal["end"]) == ("2024-07-01", "2025-06-30")
+    numeric = next(r for r in rows if "03/04/2025" in r["expression"])
+    assert numeric["start"] == "2025-04-03"
+    flipped = [json.loads(line) for line in runner.invoke(
+        cli, ["dates", "-c", str(config), "--month-first", "--reference-date", "2026-12-01", "-"],
+        input=text).output.splitlines()]
+    assert next(r for r in flipped if "03/04/2025" in r["expression"])["start"] == "2025-03-04"

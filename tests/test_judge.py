@@ -191,6 +191,14 @@ def test_a_fresh_supporting_passage_covers_and_flags_competitors():
     assert v.support == 0.47 and v.supporting == [True, True]
 
 
+def test_support_resting_on_undated_passages_is_flagged():
+    # Undated passages count as fresh for want of evidence (freshness.py); the flag says so.
+    v = judge([Judged(0.90, True, (), "none")], threshold=T, weak_margin=M)
+    assert (v.verdict, v.flags) == ("covered", ["undated"])
+    mixed = judge([Judged(0.90, True, (), "none"), Judged(0.60, True, (), "statement")], threshold=T, weak_margin=M)
+    assert mixed.flags == []
+
+
 def test_covered_without_flags():
     v = judge([Judged(0.90, True, (), "statement"), Judged(0.10, False, ("expired",))], threshold=T, weak_margin=M)
     assert (v.verdict, v.flags) == ("covered", [])

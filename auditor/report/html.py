@@ -56,6 +56,7 @@ FLAG_TEXT = {
     "stale_competitor": "a stale passage supports it too; the assistant may pick that one",
     "weak": "support is just above the threshold",
     "file_dated": "freshness rests on a file time only",
+    "undated": "the supporting passages carry no date at all; check them by hand",
     "no_answer_type": ("the best passage lacks the asked-for kind of answer (a date, amount, "
                        "duration, name or place), so its support was lowered"),
 }
