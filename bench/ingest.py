@@ -86,6 +86,31 @@ class PeakMemory:
         self._thread.join()
 
 
+def _burn(n: int) -> float:
+    x = 0
+    for i in range(n):
+        x += i * i
+    return float(x % 7)
+
+
+def parallel_capacity(n: int = 6_000_000) -> float:
+    """How many cores this session gets right now: the same CPU loop in one process, then in two
+    at once (spawned like the ingest workers); 2.0 on two free cores. With Linux autogroup
+    scheduling, other busy sessions hold this one to its share however many processes it runs."""
+    import multiprocessing as mp
+
+    ctx = mp.get_context("spawn")
+    with ctx.Pool(2) as pool:
+        pool.map(_burn, [1000, 1000])  # start-up outside the timing
+        started = time.perf_counter()
+        pool.map(_burn, [n], chunksize=1)
+        one = time.perf_counter() - started
+        started = time.perf_counter()
+        pool.map(_burn, [n, n], chunksize=1)
+        two = time.perf_counter() - started
+    return 2 * one / two
+
+
 def files_of(folder: Path, include: tuple[str, ...], limit: int | None) -> list[Path]:
     files = sorted(p for pattern in include for p in folder.glob(pattern) if p.is_file())
     return files[:limit] if limit else files
@@ -177,7 +202,8 @@ def main() -> None:
                   f"errors by kind {r['errors'] or '{}'}, peak memory {r['peak'] / 1e6:.0f} MB "
                   f"(main + workers); CPU main {r['cpu_main']:.1f} s + workers {r['cpu_workers']:.1f} s; "
                   f"unchanged re-run {r['rerun']:.2f} s, parsed {r['rerun_parsed']}")
-        print(f"load average after: {os.getloadavg()[0]:.2f} (other processes share the cores: figures are noisy)")
+        print(f"load average after: {os.getloadavg()[0]:.2f}; cores this session gets now (two CPU loops "
+              f"vs one): {parallel_capacity():.2f} of {os.cpu_count()} (other sessions share them: figures are noisy)")
         print(f"speed-up jobs 2 / jobs 1 (wall clock): {runs[1]['seconds'] / runs[2]['seconds']:.2f}x "
               f"(target >= 1.6x on 2 cores)")
         # With other sessions busy, Linux autogroup scheduling gives this session one share of
