@@ -140,3 +140,14 @@ def test_missing_corpus_path_is_an_input_error_and_changes_nothing(tmp_path):
         with pytest.raises(InputError, match="corpus path not found"):
             ingest_corpus(store, config_for(root), paths=[tmp_path / "unmounted"])
         assert store.query("SELECT status FROM documents") == [{"status": "active"}]
+
+
+def test_a_linked_folder_is_ingested_once_under_its_own_path(tmp_path):
+    root = write_tree(tmp_path / "kb", {"docs/guide.md": "# Guide\n\nText.\n", "docs/sub/more.md": "# More\n\nText.\n"})
+    os.symlink("docs", root / "alias")            # sorts before "docs"
+    os.symlink("..", root / "docs" / "sub" / "up")  # a link to an ancestor: a loop
+    with Store(tmp_path / "a.db") as store:
+        summary = ingest_corpus(store, config_for(root, follow_symlinks=True))
+        assert sorted(r["path"] for r in store.query("SELECT path FROM documents")) == ["docs/guide.md", "docs/sub/more.md"]
+        assert summary.failures == [{"path": "docs/sub/up", "kind": "unreadable",
+                                     "error": f"{str(root / 'docs/sub/up')!r}: symbolic link loop, not followed"}]

@@ -156,9 +156,17 @@ def discover(paths, corpus) -> tuple[list[SourceFile], list[SkippedFile]]:
         real_root = os.path.realpath(root)
         candidates = [single] if single else None
         stack = [root] if single is None else []
-        visited_dirs = {os.path.realpath(root)}
-        files: list[Path] = list(candidates or [])
-        while stack:
+        linked: list[Path] = []  # folders reached through a link: walked after the real tree
+        visited_dirs = {real_root}
+        files: list[tuple[bool, Path]] = [(False, single)] if single else []  # (via a link, path)
+        via_link = False
+        while stack or linked:
+            if not stack:
+                folder, via_link = linked.pop(0), True
+                if os.path.realpath(folder) in visited_dirs:
+                    continue  # the same folder, already walked under its own path
+                visited_dirs.add(os.path.realpath(folder))
+                stack.append(folder)
             folder = stack.pop()
             try:
                 entries = sorted(os.scandir(folder), key=lambda e: e.name)
@@ -188,20 +196,20 @@ def discover(paths, corpus) -> tuple[list[SourceFile], list[SkippedFile]]:
                         skip(path, root, "symlink", "symbolic link points outside the source root; not followed")
                         continue
                     if os.path.isdir(target):
-                        if target in visited_dirs:
+                        here = os.path.realpath(folder)
+                        if os.path.commonpath([target, here]) == target:  # points at itself or above
                             skip(path, root, "unreadable", "symbolic link loop, not followed")
                         else:
-                            visited_dirs.add(target)
-                            stack.append(path)
+                            linked.append(path)
                         continue
-                    files.append(path)
+                    files.append((True, path))
                 elif entry.is_dir(follow_symlinks=False):
                     visited_dirs.add(os.path.realpath(path))
                     stack.append(path)
                 else:
-                    files.append(path)
-        # Real files before links, so a file reached both ways keeps its own path.
-        files.sort(key=lambda p: (p.is_symlink(), str(p)))
+                    files.append((via_link, path))
+        # Files reached without links first, so a file reached both ways keeps its own path.
+        files = [p for _, p in sorted(files, key=lambda item: (item[0], str(item[1])))]
         for file in files:
             if single is None and not _wanted(file, root, corpus):
                 continue
