@@ -2,7 +2,7 @@
 verdict (covered / stale / gap) of a question from its evidence.
 
 Scoring is a handful of small pure functions over plain values, so each signal can be tested and
-measured on its own (bench/holdout_scifact.py prints what each one contributes):
+measured on its own (bench/holdout.py prints what each one contributes):
 
 * `bm25_share`      — the BM25 score over the question's maximum achievable score Σ idf_t·(k1+1)
                       (the bound holds because a BM25 term weight tf·(k1+1)/(tf + k1·norm) < k1+1).

@@ -106,7 +106,7 @@ def demo_corpus(tmp: Path) -> dict:
 
 
 def scifact_corpus(tmp: Path, seeds: int, k: int) -> dict | None:
-    import holdout_scifact as bench
+    import holdout as bench
     from auditor.retrieval import PassageIndex
     from auditor.tokenize import Tokenizer
 

@@ -2,7 +2,7 @@
 claims whose cited abstracts were hidden from claims whose evidence is present.
 
 Skipped when the dataset is absent. One seeded split of the README's protocol through our own store,
-retrieval and judge (bench/holdout_scifact.py prints the figures over ten splits).
+retrieval and judge (bench/holdout.py prints the figures over ten splits).
 """
 
 import importlib.util
@@ -20,7 +20,7 @@ pytestmark = pytest.mark.skipif(not SCIFACT.is_file(), reason="SciFact not in ..
 
 
 def _bench():
-    spec = importlib.util.spec_from_file_location("holdout_scifact", REPO / "bench" / "holdout_scifact.py")
+    spec = importlib.util.spec_from_file_location("holdout", REPO / "bench" / "holdout.py")
     module = importlib.util.module_from_spec(spec)
     spec.loader.exec_module(module)
     return module

@@ -13,7 +13,7 @@ signal alone), the combined support, the combination without each signal (what i
 the plain top-1 BM25 score the issue's 0.63-0.66 refers to. Reference point from the issue: a dense
 sentence-embedding model (all-MiniLM-L6-v2, max cosine over passages) reaches 0.68.
 
-    python bench/holdout_scifact.py [--seeds 10] [--top-k 5]
+    python bench/holdout.py [--seeds 10] [--top-k 5]
 """
 
 from __future__ import annotations

@@ -9,8 +9,8 @@ import pytest
 
 sys.path.insert(0, str(Path(__file__).resolve().parent.parent / "bench"))
 
-from scifact_data import load_scifact, parse_sentences  # noqa: E402
-from scifact_ndcg import bm25s_ndcg, evaluate, ndcg_at_k  # noqa: E402
+from claims_data import load_scifact, parse_sentences  # noqa: E402
+from ndcg import bm25s_ndcg, evaluate, ndcg_at_k  # noqa: E402
 
 from auditor.config import RetrievalConfig  # noqa: E402
 from auditor.tokenize import Tokenizer  # noqa: E402
@@ -49,7 +49,7 @@ def test_scifact_counts_as_documented(scifact):
 
 
 @pytest.mark.slow
-def test_scifact_ndcg_at_10_default_tokenizer(scifact):
+def test_ndcg_at_10_default_tokenizer(scifact):
     # Issue target: ≥ 0.67 with the default tokenizer and settings (published: 0.665 BEIR,
     # Thakur et al. 2021; 0.687 bm25s tables).
     corpus, claims = scifact
@@ -58,7 +58,7 @@ def test_scifact_ndcg_at_10_default_tokenizer(scifact):
 
 
 @pytest.mark.slow
-def test_scifact_ndcg_matches_bm25s_on_same_tokens(scifact):
+def test_ndcg_matches_bm25s_on_same_tokens(scifact):
     # bm25s "lucene" ranks by idf·tf/(tf + k1·norm), i.e. ours divided by (k1 + 1): same order, so
     # the same nDCG up to ties broken differently.
     corpus, claims = scifact

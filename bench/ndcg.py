@@ -8,7 +8,7 @@ the 300 claims of claims_validation.csv are the questions, their cited documents
 The corpus goes through the project's own path: Tokenizer + Vocabulary into a SQLite store, then
 PassageIndex.load_or_build and search_many. bm25s is run on the same tokens for comparison.
 
-    python bench/scifact_ndcg.py
+    python bench/ndcg.py
 """
 
 from __future__ import annotations
@@ -26,7 +26,7 @@ from auditor.config import RetrievalConfig  # noqa: E402
 from auditor.retrieval import PassageIndex  # noqa: E402
 from auditor.store import Store  # noqa: E402
 from auditor.tokenize import Tokenizer  # noqa: E402
-from scifact_data import fill_store, load_scifact  # noqa: E402
+from claims_data import fill_store, load_scifact  # noqa: E402
 
 
 def ndcg_at_k(ranked: list, relevance: dict, k: int = 10) -> float:
