@@ -90,3 +90,10 @@ def test_bad_markdown_is_refused_with_the_file_named(content, kind, words):
         parse_markdown(content, "/kb/bad.md")
     assert failure.value.kind == kind
     assert str(failure.value).startswith("'/kb/bad.md': ") and words in str(failure.value)
+
+
+def test_an_impossible_front_matter_date_is_refused():
+    # PyYAML builds a date while loading "2024-13-01" and raises ValueError (found by the parser fuzz).
+    with pytest.raises(IngestFailure) as failure:
+        parse_markdown(b"---\nupdated: 2024-13-01\n---\n# Rates\n\nText.\n", "/kb/rates.md")
+    assert failure.value.kind == "parse_error" and "front matter" in str(failure.value)

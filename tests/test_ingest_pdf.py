@@ -112,3 +112,12 @@ def test_type_comes_from_magic_bytes():
     with pytest.raises(IngestFailure) as png:
         detect_kind(b"\x89PNG\r\n\x1a\n" + b"\x00" * 50, "html", "/kb/image.html")
     assert png.value.kind == "not_a_html" and "PNG" in str(png.value)
+
+
+def test_an_unknown_stream_filter_is_a_parse_error():
+    # "/FlateDecode" -> "/\x00lateDecode": pypdf raises NotImplementedError (found by the parser fuzz).
+    data = make_pdf([RATES])
+    at = data.index(b"/FlateDecode") + 1
+    with pytest.raises(IngestFailure) as failure:
+        parse_pdf(data[:at] + b"\x00" + data[at + 1:], "/kb/filter.pdf")
+    assert failure.value.kind == "parse_error" and "damaged PDF (NotImplementedError" in str(failure.value)

@@ -69,3 +69,13 @@ def test_progress_bar_only_on_a_terminal(tmp_path, capfd):
         sys.stderr = saved
         os.close(master)
     assert "ingest [" in output and "2/2" in output and "parsed 2 files" in output
+
+
+def test_a_file_name_that_is_not_utf8_is_stored_escaped(tmp_path):
+    root = write_tree(tmp_path / "kb", {"good.md": "# A\n\nText.\n"})
+    with open(os.path.join(os.fsencode(root), b"caf\xe9.md"), "wb") as handle:  # Latin-1 name
+        handle.write(b"# Cafe\n\nOpening hours.\n")
+    with Store(tmp_path / "a.db") as store:
+        summary = ingest_corpus(store, config_for(root))
+        assert summary.new == 2
+        assert sorted(r["path"] for r in store.query("SELECT path FROM documents")) == ["caf\\xe9.md", "good.md"]

@@ -46,6 +46,9 @@ def front_matter(text: str, path: str) -> tuple[dict, str]:
         mark = getattr(exc, "problem_mark", None)
         where = f" at line {mark.line + 2}" if mark else ""
         raise IngestFailure("parse_error", path, f"front matter is not valid YAML{where}") from None
+    except (ValueError, OverflowError, TypeError, RecursionError) as exc:
+        # PyYAML builds dates and numbers while loading: "updated: 2024-13-01" raises ValueError.
+        raise IngestFailure("parse_error", path, f"front matter has a value that is not one ({exc})") from None
     if not isinstance(data, dict):
         raise IngestFailure("parse_error", path, "front matter is not a mapping of keys to values")
     # Keep offsets simple: the body replaces front matter by as many newlines (line numbers hold).

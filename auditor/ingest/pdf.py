@@ -27,7 +27,7 @@ _SENTENCE_END = re.compile(r"[.!?:;)\]]$")
 def parse_pdf(data: bytes, path: str) -> ParsedDocument:
     """A PDF file -> ParsedDocument with one or more blocks per page (page numbers from 1)."""
     from pypdf import PdfReader
-    from pypdf.errors import FileNotDecryptedError, PdfReadError
+    from pypdf.errors import FileNotDecryptedError, PdfReadError, PyPdfError
 
     if b"%%EOF" not in data[-2048:]:
         raise IngestFailure("parse_error", path, "truncated or damaged PDF (no %%EOF marker at the end)")
@@ -49,8 +49,11 @@ def parse_pdf(data: bytes, path: str) -> ParsedDocument:
         raise
     except FileNotDecryptedError:
         raise IngestFailure("encrypted", path, "encrypted PDF, no password given") from None
-    except (PdfReadError, ValueError, KeyError, TypeError, AttributeError, IndexError, OSError,
-            RecursionError, AssertionError, ZeroDivisionError) as exc:
+    except (PdfReadError, PyPdfError, ValueError, KeyError, TypeError, AttributeError, IndexError, OSError,
+            RecursionError, AssertionError, ZeroDivisionError, NotImplementedError, LookupError,
+            ArithmeticError, UnicodeError, MemoryError) as exc:
+        # A damaged or hostile file can make pypdf raise nearly anything (an unknown /Filter is
+        # NotImplementedError, a deep page tree LimitReachedError): it is the file's failure.
         raise IngestFailure("parse_error", path, f"damaged PDF ({type(exc).__name__}: {_one_line(exc)})") from None
     if not pages:
         raise IngestFailure("empty", path, "PDF has no pages")

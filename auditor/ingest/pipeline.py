@@ -37,7 +37,7 @@ from pathlib import Path
 
 from ..errors import AuditorError, InputError
 from ..models import MetaDate
-from .walk import IngestFailure, SourceFile, detect_kind, discover, glob_match, read_file, sha256
+from .walk import IngestFailure, SourceFile, detect_kind, discover, glob_match, read_file, sha256, storable
 
 # The code whose output is stored per file: when any of it changes, every file is parsed again
 # (a better date pattern or parser must reach documents that did not change).
@@ -294,6 +294,7 @@ class IngestSummary:
     cpu_by_worker: dict = field(default_factory=dict)  # worker pid -> CPU seconds spent on files
 
     def fail(self, path: str, kind: str, message: str) -> None:
+        message = storable(message)
         self.failed += 1
         self.errors.append(message)
         self.failures.append({"path": path, "kind": kind, "error": message})
@@ -363,7 +364,7 @@ def _ingest(store, config, given: list, jobs, progress) -> IngestSummary:
                 "INSERT INTO ingest_errors(path, source_root, kind, error, recorded_at) VALUES (?,?,?,?,?) "
                 "ON CONFLICT(path) DO UPDATE SET source_root=excluded.source_root, kind=excluded.kind, "
                 "error=excluded.error, recorded_at=excluded.recorded_at",
-                [doc_path, str(root), kind, message, now])
+                [doc_path, storable(str(root)), kind, storable(message), now])
             store.db.execute("UPDATE documents SET status='failed', last_seen=? WHERE path=? AND status != 'removed'",
                              [now, doc_path])
         if sha is not None:
@@ -495,7 +496,7 @@ def _write_document(store, config, vocabulary, f: SourceFile, value: dict, row, 
         owner, owner_source = "unassigned", "default"
     meta_dates = [{"value": d.value.isoformat(), "kind": d.kind, "source": d.source} for d in value["dates"]]
     fields = {
-        "path": f.doc_path, "source_root": str(f.root), "kind": value["kind"], "sha256": value["sha256"],
+        "path": f.doc_path, "source_root": storable(str(f.root)), "kind": value["kind"], "sha256": value["sha256"],
         "size": value["size"],
         "mtime": datetime.fromtimestamp(f.mtime, timezone.utc).isoformat(timespec="seconds"),
         "title": value["title"], "owner": owner, "owner_source": owner_source,

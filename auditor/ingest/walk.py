@@ -145,7 +145,7 @@ def discover(paths, corpus) -> tuple[list[SourceFile], list[SkippedFile]]:
     seen_real: set[str] = set()
 
     def doc_path(file: Path) -> str:
-        return Path(os.path.relpath(file, base)).as_posix()
+        return storable(Path(os.path.relpath(file, base)).as_posix())
 
     def skip(file: Path, root: Path, kind: str, message: str) -> None:
         dp = doc_path(file)
@@ -238,6 +238,16 @@ def discover(paths, corpus) -> tuple[list[SourceFile], list[SkippedFile]]:
             skipped.pop(dp, None)
             found[dp] = SourceFile(file, root, rel, dp, st.st_size, st.st_mtime, kind or "pdf")
     return sorted(found.values(), key=lambda f: f.doc_path), sorted(skipped.values(), key=lambda s: s.doc_path)
+
+
+def storable(path: str) -> str:
+    """`path` as SQLite TEXT can hold it: bytes of a file name that are not UTF-8 (which Python
+    keeps as surrogate escapes) become backslash escapes, "caf\\xe9.md"."""
+    try:
+        path.encode("utf-8")
+        return path
+    except UnicodeEncodeError:
+        return os.fsencode(path).decode("utf-8", "backslashreplace")
 
 
 def _wanted(path: Path, root: Path, corpus) -> bool:
