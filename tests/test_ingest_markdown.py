@@ -97,3 +97,9 @@ def test_an_impossible_front_matter_date_is_refused():
     with pytest.raises(IngestFailure) as failure:
         parse_markdown(b"---\nupdated: 2024-13-01\n---\n# Rates\n\nText.\n", "/kb/rates.md")
     assert failure.value.kind == "parse_error" and "front matter" in str(failure.value)
+
+
+def test_comments_and_stray_brackets():
+    doc = parse_markdown(b"# A\n\nKept <!-- hidden --> text [not a link [x](http://e.org) end.\n\n"
+                         b"Tail <!-- never closed\n\nlost\n", "c.md")
+    assert [b.text for b in doc.blocks] == ["A", "Kept  text [not a link x end.", "Tail"]
