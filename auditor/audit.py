@@ -21,7 +21,8 @@ from pathlib import Path
 from .config import Config, SupportConfig
 from .judge import Judged, judge, passage_support
 from .models import Freshness, Question, TemporalExpression
-from .store import Store, dumps
+from .ingest.pipeline import owner_from_config
+from .store import SEARCHED_STATUSES, Store, dumps
 
 FORMAT = 1
 
@@ -76,7 +77,7 @@ def run_audit(store: Store, config: Config, questions: list[Question], *, as_of:
         results.append(_judge_question(question, result, passages, statements, passage_fresh,
                                        fresh_config, thresholds, tokenizer))
 
-    corpus, documents = _corpus_and_documents(store, fresh_config, as_of)
+    corpus, documents = _corpus_and_documents(store, config, fresh_config, as_of)
     summary = _summary(results)
     errors = [{"document": r["path"], "error": r["error"]}
               for r in store.query("SELECT path, error FROM ingest_errors ORDER BY path")]
@@ -272,12 +273,12 @@ def _chunks(ids: list[int], size: int = 500):
 
 # --- corpus figures and the document inventory ----------------------------------------------------
 
-def _corpus_and_documents(store: Store, fresh_config, as_of: date) -> tuple[dict, list[dict]]:
+def _corpus_and_documents(store: Store, config, fresh_config, as_of: date) -> tuple[dict, list[dict]]:
     """run.corpus (counts, F and A over active passages) and the per-document inventory."""
     docs = store.query("SELECT id, path, title, kind, owner, status, doc_date, doc_date_source, expires, "
                        "mtime FROM documents ORDER BY path")
     rows = store.query("SELECT p.id, p.document_id FROM passages p JOIN documents d ON d.id = p.document_id "
-                       "WHERE d.status = 'active' ORDER BY p.id")
+                       f"WHERE d.status IN {SEARCHED_STATUSES} ORDER BY p.id")
     by_doc: dict[int, list[int]] = defaultdict(list)
     for row in rows:
         by_doc[row["document_id"]].append(row["id"])
@@ -288,7 +289,7 @@ def _corpus_and_documents(store: Store, fresh_config, as_of: date) -> tuple[dict
         entry = {"path": doc["path"], "title": doc["title"], "kind": doc["kind"], "owner": doc["owner"],
                  "status": doc["status"], "doc_date": doc["doc_date"], "doc_date_source": doc["doc_date_source"],
                  "expires": doc["expires"], "passages": 0, "as_of": None, "fresh": None, "reasons": []}
-        if doc["status"] == "active":
+        if doc["status"] in ("active", "failed"):  # store.SEARCHED_STATUSES
             horizon = freshness_rules.horizon_for(fresh_config, path=doc["path"])
             states = [_freshness(doc, statements.get(pid, []), as_of, horizon) for pid in by_doc[doc["id"]]]
             items.extend(states)
@@ -309,7 +310,9 @@ def _corpus_and_documents(store: Store, fresh_config, as_of: date) -> tuple[dict
                     entry["status"] = "failed"
                     entry["reasons"] = [row["kind"]]
             continue
-        inventory.append({"path": row["path"], "title": None, "kind": None, "owner": None, "status": "failed",
+        # Never ingested: the owner map still says whose file it is, so its owner sees the failure.
+        owner = owner_from_config(config, row["path"]) or "unassigned"
+        inventory.append({"path": row["path"], "title": None, "kind": None, "owner": owner, "status": "failed",
                           "doc_date": None, "doc_date_source": None, "expires": None, "passages": 0,
                           "as_of": None, "fresh": None, "reasons": [row["kind"]]})
     inventory.sort(key=lambda e: e["path"])
@@ -351,7 +354,7 @@ def _config_fingerprint(config: Config, fresh_config) -> str:
 
 def _corpus_fingerprint(store: Store) -> str:
     digest = hashlib.sha256()
-    for row in store.db.execute("SELECT path, sha256 FROM documents WHERE status = 'active' ORDER BY path"):
+    for row in store.db.execute(f"SELECT path, sha256 FROM documents WHERE status IN {SEARCHED_STATUSES} ORDER BY path"):
         digest.update(f"{row[0]}\0{row[1]}\n".encode())
     return digest.hexdigest()[:16]
 

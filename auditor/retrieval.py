@@ -18,11 +18,11 @@ import numpy as np
 from .bm25 import CorpusStats, Params, SparseIndex, count_terms
 from .config import RetrievalConfig
 from .errors import StoreError
-from .store import Store
+from .store import SEARCHED_STATUSES, Store
 from .tokenize import Tokenizer
 from .vocabulary import Vocabulary
 
-_ACTIVE = "FROM passages p JOIN documents d ON d.id = p.document_id WHERE d.status = 'active'"
+_ACTIVE = f"FROM passages p JOIN documents d ON d.id = p.document_id WHERE d.status IN {SEARCHED_STATUSES}"
 
 NO_TERMS = "the question has no searchable words (it is empty or only stopwords)"
 NO_PASSAGES = "the knowledge base has no active passages; ingest documents first"
@@ -66,7 +66,7 @@ def corpus_fingerprint(store: Store) -> str:
         f"coalesce(sum(p.id % 7919 * p.document_id), 0) {_ACTIVE}"
     ).fetchone()
     digest.update(repr(tuple(row)).encode())
-    for doc_id, sha in store.db.execute("SELECT id, sha256 FROM documents WHERE status = 'active' ORDER BY id"):
+    for doc_id, sha in store.db.execute(f"SELECT id, sha256 FROM documents WHERE status IN {SEARCHED_STATUSES} ORDER BY id"):
         digest.update(f"{doc_id}:{sha};".encode())
     digest.update((store.get_meta("tokenizer") or "").encode())
     return digest.hexdigest()[:24]

@@ -155,6 +155,10 @@ CREATE TABLE IF NOT EXISTS calibrations (
 );
 """
 
+# Documents whose passages are searched: a file that failed to re-parse keeps its last good version
+# searchable (the assistant's own index most likely still holds it) while the report lists the error.
+SEARCHED_STATUSES = "('active', 'failed')"
+
 # version -> SQL that brings a database of version-1 to that version.
 MIGRATIONS: dict[int, str] = {}
 

@@ -221,3 +221,39 @@ def test_run_object_follows_the_contract_and_reloads_equal(kb, tmp_path):
     assert json.loads(dumps(loaded["questions"])) == json.loads(dumps(run["questions"]))
     assert loaded["summary"] == run["summary"] and loaded["run"]["corpus"] == run["run"]["corpus"]
     assert loaded["documents"] == run["documents"] and loaded["run"]["thresholds"] == run["run"]["thresholds"]
+
+
+def test_a_file_that_breaks_stays_searchable_and_its_owner_sees_the_failure(tmp_path):
+    # Real files through the real ingest: a PDF that later arrives truncated keeps its last good
+    # passages in the search (the assistant's own index still has them), and a broken file that was
+    # never ingested is still attributed through the owner map.
+    from ingest_helpers import make_pdf
+
+    from auditor.config import load_config
+    from auditor.ingest import ingest_corpus
+    from auditor.retrieval import PassageIndex
+    from auditor.store import Store
+
+    kb = tmp_path / "kb" / "quality"
+    kb.mkdir(parents=True)
+    good = make_pdf(["Hydrant flushing notice. Crews flush the hydrants on Birchwood Lane every autumn."])
+    (kb / "flushing.pdf").write_bytes(good)
+    (kb / "scan.pdf").write_bytes(good[:300])
+    (tmp_path / "audit.toml").write_text('[corpus]\npaths = ["kb"]\n[owners]\n"quality/**" = "Water Quality"\n',
+                                         encoding="utf-8")
+    config = load_config(tmp_path / "audit.toml", env={})
+    with Store(tmp_path / "a.db") as store:
+        ingest_corpus(store, config, jobs=1)
+        (kb / "flushing.pdf").write_bytes(good[: len(good) // 3])
+        summary = ingest_corpus(store, config, jobs=1)
+        assert summary.failed == 2
+        status = {r["path"]: r["status"] for r in store.query("SELECT path, status FROM documents")}
+        assert status == {"quality/flushing.pdf": "failed"}
+        hits = PassageIndex.load_or_build(store, config.retrieval).search("hydrant flushing Birchwood", 3).hits
+        assert hits
+        run = run_audit(store, config, [Question("q1", "When are the hydrants on Birchwood Lane flushed?")],
+                        as_of=date(2026, 12, 1))
+    assert run["questions"][0]["evidence"][0]["document"] == "quality/flushing.pdf"
+    inventory = {d["path"]: d for d in run["documents"]}
+    assert inventory["quality/scan.pdf"]["owner"] == "Water Quality"
+    assert inventory["quality/scan.pdf"]["status"] == inventory["quality/flushing.pdf"]["status"] == "failed"

@@ -308,7 +308,8 @@ def _now() -> str:
     return datetime.now(timezone.utc).isoformat(timespec="seconds").replace("+00:00", "Z")
 
 
-def _owner_from_config(config, rel: str) -> str | None:
+def owner_from_config(config, rel: str) -> str | None:
+    """The config's owner for a path relative to its source root (first matching glob), else None."""
     for glob, owner in config.owners:
         if glob_match(glob, rel):
             return owner
@@ -480,7 +481,7 @@ def _touch_unchanged(store, config, unchanged, now: str) -> None:
         for f, row in unchanged:
             owner, source = row["owner"], row["owner_source"]
             if source != "front_matter":
-                mapped = _owner_from_config(config, f.rel)
+                mapped = owner_from_config(config, f.rel)
                 owner, source = (mapped, "config") if mapped else ("unassigned", "default")
             store.db.execute("UPDATE documents SET last_seen=?, owner=?, owner_source=? WHERE id=?",
                              [now, owner, source, row["id"]])
@@ -490,7 +491,7 @@ def _write_document(store, config, vocabulary, f: SourceFile, value: dict, row, 
     """Insert or replace one document with its passages and statements, in one transaction."""
     if value["owner"]:
         owner, owner_source = value["owner"], "front_matter"
-    elif mapped := _owner_from_config(config, f.rel):
+    elif mapped := owner_from_config(config, f.rel):
         owner, owner_source = mapped, "config"
     else:
         owner, owner_source = "unassigned", "default"
