@@ -30,13 +30,10 @@ PATH = "kb/fuzzed.file"
 DATE_KINDS = {"modified", "published", "reviewed", "expires", "created"}
 
 
-# Exceptions that escape a parser today (bugs; the xfail tests at the end hold the minimal inputs).
-# The property tests let these through so that they keep guarding everything else; remove an entry
-# when its xfail test starts passing.
-KNOWN_ESCAPES = {
-    "parse_markdown": (ValueError,),  # PyYAML builds a date from "2024-13-01" and raises ValueError
-    "parse_pdf": (NotImplementedError,),  # pypdf: an unsupported /Filter name
-}
+# Exceptions known to escape a parser (a bug each, with an xfail test holding its minimal input);
+# the property tests let these through so that they keep guarding everything else. Empty: the
+# escapes these tests found (PyYAML's ValueError, pypdf's NotImplementedError) are fixed.
+KNOWN_ESCAPES: dict[str, tuple[type[BaseException], ...]] = {}
 
 
 def parse_or_fail(parser, data: bytes, known: bool = True):
@@ -198,20 +195,14 @@ def test_mutated_pdf(edits, how):
     parse_or_fail(parse_pdf, bytes(data))
 
 
-# --- known escapes, minimal inputs ------------------------------------------------------------------
+# --- escapes found by the fuzzing above, minimal inputs (regression tests) ---------------------------
 
-@pytest.mark.xfail(strict=True, raises=ValueError,
-                   reason="markdown.front_matter catches yaml.YAMLError only; PyYAML raises ValueError "
-                          "for an impossible date such as 'updated: 2024-13-01'")
 def test_front_matter_with_an_impossible_date_is_an_ingest_failure():
     # Refused like any other front matter that is no date ("front matter updated: ... is not a date").
     with pytest.raises(IngestFailure, match="front matter"):
         parse_markdown(b"---\nupdated: 2024-13-01\n---\n# Rates\n\nText.\n", PATH)
 
 
-@pytest.mark.xfail(strict=True, raises=NotImplementedError,
-                   reason="pdf.parse_pdf does not catch NotImplementedError, which pypdf raises for an "
-                          "unknown stream /Filter")
 def test_pdf_with_an_unknown_stream_filter_is_an_ingest_failure():
     # One byte: "/FlateDecode" -> "/\x00lateDecode" (NUL is PDF white space: a filter named "/" then
     # a stray "lateDecode"), the minimal example hypothesis found.

@@ -51,12 +51,6 @@ BOUNDED = {
 # Patterns that fail the budget today: the bug and the fix are in the hardening report; the owner
 # fixes the pattern and removes the entry (strict: a fixed pattern makes its entry fail).
 KNOWN_SLOW = {
-    "auditor.ingest.markdown._LINK": "O(n²) on many '[' without ']': [^\\]]+ runs over later '[' to the end",
-    "auditor.ingest.markdown._REF_LINK": "O(n²) on many '[' without ']': [^\\]]+ runs over later '[' to the end",
-    "auditor.ingest.markdown._IMAGE": "O(n²) on many '![' without ']': [^\\]]* runs over later '![' to the end",
-    "auditor.ingest.markdown._LINK_DEF": "O(n²) on many lines starting '[': [^\\]]+ runs across lines to the end",
-    "auditor.ingest.markdown._COMMENT": "O(n²) on many '<!--' without '-->': each one scans to the end",
-    "auditor.ingest.markdown._AUTOLINK": "O(n²) on many '<http://' without '>': [^>]+ runs over later '<' to the end",
 }
 
 
