@@ -148,14 +148,19 @@ def _phone_end(run: str, groups: list[re.Match], before: str, after: str) -> int
     """
     if _is_phone(run, groups, before, after):
         return len(run)
-    if sum(len(g.group()) for g in groups) <= 15:
+    longest = total = 0  # the longest head of at most 15 digits, found in one pass
+    for g in groups:
+        total += len(g.group())
+        if total > 15:
+            break
+        longest += 1
+    if longest == len(groups):
         return None
-    for n in range(len(groups) - 1, 1, -1):
+    for n in range(min(longest, len(groups) - 1), 1, -1):
         head = groups[:n]
-        if sum(len(g.group()) for g in head) <= 15:
-            cut = head[-1].end() + (1 if run[head[-1].end():head[-1].end() + 1] == ")" else 0)
-            if _is_phone(run[:cut], head, before, run[cut:cut + 16]):
-                return cut
+        cut = head[-1].end() + (1 if run[head[-1].end():head[-1].end() + 1] == ")" else 0)
+        if _is_phone(run[:cut], head, before, run[cut:cut + 16]):
+            return cut
     return None
 
 

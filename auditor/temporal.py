@@ -34,6 +34,7 @@ from .temporal_roles import role_for
 __all__ = ["extract", "timex3"]
 
 _DIGITS = frozenset("0123456789'")
+_PARAGRAPH_BREAK = re.compile(r"\n[ \t]*\n")
 
 # --- sentences -------------------------------------------------------------------------------------
 
@@ -145,7 +146,10 @@ def extract(text: str, reference_date: date | None = None, *, day_first: bool = 
         if start.start() < scanned_to:
             continue
         at = start.start()
-        m = (DIGIT_CANDIDATES if text[at] in _DIGITS else WORD_CANDIDATES).match(text, at)
+        pattern = DIGIT_CANDIDATES if text[at] in _DIGITS else WORD_CANDIDATES
+        m = pattern.match(text, at)
+        if m is not None and (cut := _PARAGRAPH_BREAK.search(text, at, m.end())):
+            m = pattern.match(text, at, cut.start())  # an expression never spans a paragraph break
         if m is None:
             continue
         scanned_to = m.end()
@@ -161,6 +165,7 @@ def extract(text: str, reference_date: date | None = None, *, day_first: bool = 
     starts = [s for s, _ in sentences]
     found: list[TemporalExpression] = []
     previous_in_sentence: dict[int, int] = {}
+    normalized: dict[int, str] = {}  # once per sentence: re-joining it per expression is quadratic
     for atom in atoms:
         if atom.first is None:  # a month-day with no year anywhere
             if reference_date is None:
@@ -173,7 +178,9 @@ def extract(text: str, reference_date: date | None = None, *, day_first: bool = 
         index = max(0, bisect.bisect_right(starts, atom.start) - 1)
         s_start, s_end = sentences[index]
         left_from = max(s_start, previous_in_sentence.get(index, s_start))
-        sentence = " ".join(text[s_start:s_end].split())
+        sentence = normalized.get(index)
+        if sentence is None:
+            sentence = normalized[index] = " ".join(text[s_start:s_end].split())
         role = role_for(text[left_from:atom.start], text[atom.end:s_end], sentence, start=atom.first,
                         reference_date=reference_date, granularity=atom.granularity,
                         future_relative=atom.future, past_relative=atom.past,
