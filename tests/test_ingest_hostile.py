@@ -3,7 +3,6 @@ naming the file, the run finishes with exit code 0, and every other file is inge
 
 from __future__ import annotations
 
-import json
 import os
 import random
 import shutil

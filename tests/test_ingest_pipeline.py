@@ -14,7 +14,7 @@ from auditor.ingest import ingest_corpus
 from auditor.store import Store
 from auditor.tokenize import Tokenizer
 from auditor.vocabulary import Vocabulary
-from ingest_helpers import config_for, html_page, make_pdf, words, write_tree, xmp_packet
+from ingest_helpers import config_for, html_page, make_pdf, write_tree, xmp_packet
 
 FEES_MD = ("---\ntitle: Late fees\nowner: Billing\nupdated: 2024-03-01\nexpires: 2025-01-01\ntags: [fees, billing]\n---\n"
            "# Billing\n\n## Late fees\n\nAs of March 2024 a late fee of 5% applies to unpaid bills. It changed last month.\n\n"

@@ -154,7 +154,6 @@ def discover(paths, corpus) -> tuple[list[SourceFile], list[SkippedFile]]:
 
     for root, single in roots:
         real_root = os.path.realpath(root)
-        candidates = [single] if single else None
         stack = [root] if single is None else []
         linked: list[Path] = []  # folders reached through a link: walked after the real tree
         visited_dirs = {real_root}
