@@ -166,9 +166,11 @@ def test_a_100_kb_query_imports_in_bounded_time(tmp_path, unit):
     assert len(found) == 1 and found[0].weight == 3.0
 
 
-CARD_RESCAN = pytest.mark.xfail(strict=True, raises=_OverBudget, reason=(
-    "redact._redact_digits searches the rest of a run again after each Luhn-valid window it redacts: "
-    "a long run of short space-separated groups is quadratic"))
+# Known bug, not run: the CPU alarm does not always interrupt it, and one case then costs minutes.
+CARD_RESCAN = pytest.mark.xfail(run=False, reason=(
+    "redact._redact_digits searches the rest of a run again after each card or phone it redacts: "
+    "a long run of short groups ('1 1 1 …', '1.2.3.4 1.2.3.4 …') is quadratic; fix: walk the run's "
+    "groups once"))
 
 
 @pytest.mark.parametrize("unit", ["1-", "2024-01-01 ",
