@@ -8,14 +8,13 @@ import csv
 import io
 import json
 import math
-import signal
-import time
 
 import pytest
 
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
+from cpu_budget import cpu_seconds
 from auditor.errors import AuditorError, InputError
 from auditor.questions import load_questions
 from auditor.querylog import import_query_log
@@ -123,27 +122,6 @@ def test_query_logs(tmp_path, rows, header, similarity, redact):
     # Counts become weights and merging keeps the traffic: the weights add up to the log's total.
     assert math.isclose(sum(q.weight for q in questions), summary.total_count)
     assert [q.weight for q in questions] == sorted((q.weight for q in questions), reverse=True)
-
-
-class _OverBudget(Exception):
-    pass
-
-
-def cpu_seconds(fn, budget: float) -> float:
-    """CPU seconds `fn()` takes; raises _OverBudget past `budget` (SIGPROF counts CPU time, so a
-    busy shared machine does not make this flaky)."""
-    def alarm(signum, frame):
-        raise _OverBudget
-
-    previous = signal.signal(signal.SIGPROF, alarm)
-    started = time.process_time()
-    signal.setitimer(signal.ITIMER_PROF, budget)
-    try:
-        fn()
-    finally:
-        signal.setitimer(signal.ITIMER_PROF, 0)
-        signal.signal(signal.SIGPROF, previous)
-    return time.process_time() - started
 
 
 BUDGET_S = 3.0  # generous: the linear cases take a few hundredths of a second

@@ -9,14 +9,13 @@ granularity and role come from the registries in `models`, expressions come in t
 from __future__ import annotations
 
 import re
-import signal
-import time
 from datetime import date
 
 import pytest
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
+from cpu_budget import cpu_seconds
 from auditor.errors import AuditorError
 from auditor.models import GRANULARITIES, ROLES
 from auditor.temporal import extract
@@ -78,27 +77,6 @@ def test_any_text_gives_well_formed_expressions(text, kwargs):
 @given(st.lists(st.sampled_from(TOKENS), min_size=200, max_size=600).map(" ".join), options)
 def test_long_token_soup_is_well_formed_and_fast(text, kwargs):
     check(text, extract(text, **kwargs))
-
-
-class _OverBudget(Exception):
-    pass
-
-
-def cpu_seconds(fn, budget: float) -> float:
-    """CPU seconds `fn()` takes; raises _OverBudget past `budget` (SIGPROF: CPU time, so a busy shared
-    machine does not slow the clock that is measured)."""
-    def alarm(signum, frame):
-        raise _OverBudget
-
-    previous = signal.signal(signal.SIGPROF, alarm)
-    started = time.process_time()
-    signal.setitimer(signal.ITIMER_PROF, budget)
-    try:
-        fn()
-    finally:
-        signal.setitimer(signal.ITIMER_PROF, 0)
-        signal.signal(signal.SIGPROF, previous)
-    return time.process_time() - started
 
 
 SIZE = 100_000  # the issue's adversarial input size
