@@ -33,9 +33,14 @@ def parse_pdf_date(value: str | bytes | None) -> date | None:
     m = _PDF_DATE.match(str(value))
     if not m:
         return None
+    return _calendar_date(m)
+
+
+def _calendar_date(m: re.Match) -> date | None:
+    """The date of a match with groups Y, M, D (M and D may be absent: the first of the period)."""
     try:
         return date(int(m["Y"]), int(m["M"] or 1), int(m["D"] or 1))
-    except ValueError:
+    except ValueError:  # 2024-02-30, month 13: not a date
         return None
 
 
@@ -57,10 +62,7 @@ def parse_w3c_datetime(value: str | None) -> date | None:
     m = _W3C.match(str(value))
     if not m:
         return None
-    try:
-        return date(int(m["Y"]), int(m["M"] or 1), int(m["D"] or 1))
-    except ValueError:
-        return None
+    return _calendar_date(m)
 
 
 _MONTHS = {m: i for i, m in enumerate(
