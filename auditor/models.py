@@ -14,7 +14,6 @@ GRANULARITIES = ("day", "week", "month", "quarter", "half", "season", "year", "d
 ROLES = ("as_of", "effective", "expires", "planned", "event", "period", "other")
 VERDICTS = ("covered", "stale", "gap")
 STALE_REASONS = ("too_old", "expired", "overtaken")
-AS_OF_SOURCES = ("statement", "metadata", "file", "none")
 
 
 # --- ingest ---------------------------------------------------------------------------------------
@@ -100,14 +99,14 @@ class Freshness:
     """Freshness of one passage at audit date T (DESIGN.md §3.3)."""
 
     as_of: date | None
-    as_of_source: str  # one of AS_OF_SOURCES
+    as_of_source: str  # statement | metadata | file | none
     expires: date | None
     fresh: bool
     reasons: tuple[str, ...]  # subset of STALE_REASONS, empty when fresh
     age_days: int | None  # T − as_of, None when undated
 
 
-# --- questions and verdicts -----------------------------------------------------------------------
+# --- questions ----------------------------------------------------------------------------------
 
 @dataclass(frozen=True)
 class Question:
@@ -117,41 +116,3 @@ class Question:
     topic: str | None = None
     weight: float = 1.0
     horizon_days: int | None = None  # per-question override of the freshness horizon
-
-
-@dataclass
-class Evidence:
-    """One retrieved passage and what the judge made of it (results.json `evidence[]`)."""
-
-    document: str
-    page: int | None
-    section: str
-    passage: int  # passage id in the store
-    score: float
-    support: float
-    supporting: bool
-    as_of: date | None
-    as_of_source: str
-    expires: date | None
-    fresh: bool
-    reasons: list[str]
-    text: str
-    owner: str | None = None
-    terms: dict[str, float] = field(default_factory=dict)  # per-term BM25 contribution
-    statements: list[dict] = field(default_factory=list)  # TemporalExpression.as_json() + role
-
-
-@dataclass
-class QuestionResult:
-    id: str
-    question: str
-    owner: str | None
-    topic: str | None
-    weight: float
-    verdict: str  # one of VERDICTS
-    reasons: list[str]
-    support: float
-    missing_terms: list[str]
-    evidence: list[Evidence]
-    flags: list[str] = field(default_factory=list)  # stale_competitor, weak, file_dated, ...
-    action: str | None = None  # write | refresh | retire | None

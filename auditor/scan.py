@@ -5,7 +5,6 @@ The CLI commands are thin wrappers over these; each stage function can also be c
 
 from __future__ import annotations
 
-import sys
 from dataclasses import dataclass
 from datetime import date
 from pathlib import Path
@@ -128,7 +127,3 @@ def summary_lines(run: dict) -> list[str]:
     if run.get("diff"):
         lines.append(f"since run {run['diff'].get('base_run', '?')}: {run['diff'].get('summary', '')}")
     return lines
-
-
-def warn(message: str) -> None:
-    print(f"warning: {message}", file=sys.stderr)

@@ -25,6 +25,7 @@ from pathlib import Path
 from jinja2 import Environment, FileSystemLoader, select_autoescape
 from markupsafe import Markup
 
+from ..models import STALE_REASONS, VERDICTS
 from . import charts
 from .views import _date, _humanize, _num, _pct, _share, diff_view, gate_view, inventory
 from .exports import best_evidence, question_owner
@@ -38,8 +39,6 @@ SERVER_ROWS = 1000
 PASSAGE_CHARS = 600  # longest passage text in the page
 MIN_PASSAGE_CHARS = 160
 PAGE_TEXT_BUDGET = 5_000_000  # characters of passage text in one page, shared by all passages
-VERDICTS = ("covered", "stale", "gap")
-STALE_REASONS = ("too_old", "expired", "overtaken")
 _WORD = re.compile(r"\w{2,}")
 _ASTRAL = re.compile("[\U00010000-\U0010FFFF]")
 
