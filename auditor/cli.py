@@ -15,9 +15,9 @@ from pathlib import Path
 
 import click
 
-from . import __version__
-from .config import Config, load_config
-from .errors import AuditorError, InputError
+from auditor import __version__
+from auditor.config import Config, load_config
+from auditor.errors import AuditorError, InputError
 
 EXIT_GATE_FAILED = 3
 
@@ -93,7 +93,7 @@ def cli():
 @quiet_option
 def scan(config_path, as_of, out, wait, jobs, quiet):
     """The main job: ingest, audit, compare with the last run, gate, report."""
-    from .scan import scan as run_scan, summary_lines
+    from auditor.scan import scan as run_scan, summary_lines
 
     config = _config(config_path, as_of=as_of, out=out)
     outcome = run_scan(config, wait=wait, jobs=jobs, progress=_progress(quiet))
@@ -122,9 +122,9 @@ def _finish(run: dict, out_dir: Path, summary_lines) -> None:
 @quiet_option
 def ingest(paths, config_path, db, jobs, wait, quiet):
     """Ingest documents under PATH... into the database (unchanged files are skipped)."""
-    from .ingest import ingest_corpus
-    from .lock import ScanLock
-    from .store import Store
+    from auditor.ingest import ingest_corpus
+    from auditor.history.lock import ScanLock
+    from auditor.store import Store
 
     config = _config(config_path, db=db)
     with ScanLock(config.database, wait=wait), Store(config.database) as store:
@@ -145,9 +145,9 @@ def ingest(paths, config_path, db, jobs, wait, quiet):
 @wait_option
 def audit(question_files, config_path, db, as_of, horizon, out, wait):
     """Audit the stored corpus against a question set and write the report."""
-    from .lock import ScanLock
-    from .scan import audit_and_report, load_question_files, question_lines, summary_lines
-    from .store import Store
+    from auditor.history.lock import ScanLock
+    from auditor.scan import audit_and_report, load_question_files, question_lines, summary_lines
+    from auditor.store import Store
 
     config = _config(config_path, db=db, as_of=as_of, horizon=horizon, out=out)
     sets = load_question_files(config, [Path(p) for p in question_files] or None)
@@ -165,10 +165,10 @@ def audit(question_files, config_path, db, as_of, horizon, out, wait):
 @click.option("--out", type=click.Path(file_okay=False), help="Report folder (default: reports/<as-of>/).")
 def report(config_path, db, run_id, out):
     """Write the report of a stored run again, without re-auditing."""
-    from .report import write_report
-    from .runs import load_run
-    from .scan import default_out_dir
-    from .store import Store
+    from auditor.report import write_report
+    from auditor.history.runs import load_run
+    from auditor.scan import default_out_dir
+    from auditor.store import Store
 
     config = _config(config_path, db=db, out=out)
     with Store(config.database) as store:
@@ -182,8 +182,8 @@ def report(config_path, db, run_id, out):
 @db_option
 def runs(config_path, db):
     """Run history."""
-    from .runs import format_runs, list_runs
-    from .store import Store
+    from auditor.history.runs import format_runs, list_runs
+    from auditor.store import Store
 
     with Store(_config(config_path, db=db).database) as store:
         click.echo(format_runs(list_runs(store)))
@@ -196,8 +196,8 @@ def runs(config_path, db):
 @db_option
 def diff(base, head, config_path, db):
     """What changed between two runs (default: the newest and the one before it)."""
-    from .runs import diff_runs, format_diff, load_run, previous_run
-    from .store import Store
+    from auditor.history.runs import diff_runs, format_diff, load_run, previous_run
+    from auditor.store import Store
 
     with Store(_config(config_path, db=db).database) as store:
         head_run = load_run(store, head)
@@ -217,7 +217,7 @@ def diff(base, head, config_path, db):
 @click.option("--hemisphere", type=click.Choice(["north", "south"]), help="For seasons (default: the config's).")
 def dates(files, config_path, reference_date, day_first, fiscal_year_start, hemisphere):
     """Temporal expressions in FILE... (or standard input) as JSON lines."""
-    from .temporal import extract
+    from auditor.temporal.extract import extract
 
     corpus = _config(config_path).corpus
     settings = {
@@ -245,8 +245,8 @@ def dates(files, config_path, reference_date, day_first, fiscal_year_start, hemi
 @click.option("--json", "as_json", is_flag=True, help="JSON instead of text.")
 def search(query, config_path, db, k, as_json):
     """Top passages for QUERY with a per-term score breakdown."""
-    from .retrieval import PassageIndex, describe_hits
-    from .store import Store
+    from auditor.retrieval.index import PassageIndex, describe_hits
+    from auditor.store import Store
 
     config = _config(config_path, db=db)
     with Store(config.database) as store:
@@ -274,8 +274,8 @@ def search(query, config_path, db, k, as_json):
 @click.option("--holdout", is_flag=True, help="Also hide each question's expected documents and measure the gap verdict.")
 def calibrate(labels, config_path, db, target_precision, holdout):
     """Choose support thresholds from labelled questions; later audits use them."""
-    from .calibrate import calibrate as run_calibrate, format_calibration
-    from .store import Store
+    from auditor.judgement.calibrate import calibrate as run_calibrate, format_calibration
+    from auditor.store import Store
 
     config = _config(config_path, db=db)
     with Store(config.database) as store:

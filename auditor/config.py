@@ -16,7 +16,7 @@ from datetime import date
 from pathlib import Path
 from typing import Any
 
-from .errors import ConfigError
+from auditor.errors import ConfigError
 
 
 @dataclass(frozen=True)
@@ -218,8 +218,8 @@ def _build(raw: dict, base: Path, source: Path | None, where: str, warn) -> Conf
 
 def _check_retrieval(retrieval: RetrievalConfig, where: str) -> None:
     """Let the BM25 and tokenizer registries judge their settings now, so the message names the file."""
-    from .bm25 import Params
-    from .tokenize import Tokenizer
+    from auditor.retrieval.bm25 import Params
+    from auditor.retrieval.tokenize import Tokenizer
 
     try:
         Params(retrieval.variant, retrieval.k1, retrieval.b, retrieval.delta)

@@ -9,10 +9,10 @@ from dataclasses import dataclass
 from datetime import date
 from pathlib import Path
 
-from .config import Config
-from .errors import InputError
-from .models import Question
-from .store import Store
+from auditor.config import Config
+from auditor.errors import InputError
+from auditor.models import Question
+from auditor.store import Store
 
 
 @dataclass
@@ -38,7 +38,7 @@ class QuestionSet:
 
 def load_question_files(config: Config, paths: list[Path] | None = None) -> list[QuestionSet]:
     """Every configured question file, in order; ids must stay unique across files."""
-    from .questions import read_question_file
+    from auditor.questions.sets import read_question_file
 
     files = list(paths or config.questions)
     if not files:
@@ -60,7 +60,7 @@ def load_question_files(config: Config, paths: list[Path] | None = None) -> list
 def store_question_sets(store: Store, sets: list[QuestionSet]) -> list[Question]:
     """Keep each set in the store (redacted already: query logs are cleaned on import) and return
     all questions in order."""
-    from .questions import store_questions
+    from auditor.questions.sets import store_questions
 
     for qset in sets:
         store_questions(store, qset.questions, qset.path.name)
@@ -71,10 +71,10 @@ def audit_and_report(store: Store, config: Config, sets: list[QuestionSet], *, a
                      horizon_days: int | None = None, out_dir: Path | None = None,
                      gate: bool = True) -> tuple[dict, Path]:
     """Audit, attach the diff against the previous run and the gate outcome, write the report."""
-    from .audit import run_audit
-    from .gate import evaluate_gate
-    from .report import write_report
-    from .runs import apply_retention, diff_runs, load_run, previous_run, record_gate, update_latest
+    from auditor.judgement.audit import run_audit
+    from auditor.history.gate import evaluate_gate
+    from auditor.report import write_report
+    from auditor.history.runs import apply_retention, diff_runs, load_run, previous_run, record_gate, update_latest
 
     questions = store_question_sets(store, sets)
     run = run_audit(store, config, questions, as_of=as_of, horizon_days=horizon_days)
@@ -96,8 +96,8 @@ def audit_and_report(store: Store, config: Config, sets: list[QuestionSet], *, a
 def scan(config: Config, *, as_of: date | None = None, out_dir: Path | None = None,
          wait: float = 0.0, progress: bool = False, jobs: int | None = None) -> ScanOutcome:
     """The whole job under the scan lock: ingest, audit, diff, gate, report."""
-    from .ingest import ingest_corpus
-    from .lock import ScanLock
+    from auditor.ingest import ingest_corpus
+    from auditor.history.lock import ScanLock
 
     as_of = as_of or config.audit_date()
     sets = load_question_files(config)  # fail on a bad question file before any work

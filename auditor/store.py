@@ -15,7 +15,7 @@ from pathlib import Path
 
 import sqlite_utils
 
-from .errors import StoreError
+from auditor.errors import StoreError
 
 SCHEMA_VERSION = 1
 

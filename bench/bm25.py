@@ -4,7 +4,7 @@ Synthetic corpora (invented, reproducible): passages of 50–150 term ids (mean 
 Zipf law (exponent 1.0) over 100,000 terms; 1,000 questions of 5–12 distinct terms drawn from the
 same law. Every engine gets the same token ids:
 
-* ours     — auditor.bm25 count_terms + SparseIndex.build, then top_k per question (k = 10),
+* ours     — auditor.retrieval.bm25 count_terms + SparseIndex.build, then top_k per question (k = 10),
              variant "lucene" (and "okapi" for the rank-bm25 comparison);
 * bm25s    — bm25s.BM25(method="lucene", same k1/b), retrieve(..., n_threads=0) — one thread,
              numpy backend (numba is not installed);
@@ -110,7 +110,7 @@ def current_rss_mb() -> float:
 # --- workers (one per child process) ---------------------------------------------------------------
 
 def work_ours(n: int, questions: int, save: str | None, variants: list[str]) -> dict:
-    from auditor.bm25 import Params, SparseIndex, count_terms
+    from auditor.retrieval.bm25 import Params, SparseIndex, count_terms
 
     flat, offsets = make_corpus(n)
     qs = make_questions(questions)
@@ -135,7 +135,7 @@ def work_ours(n: int, questions: int, save: str | None, variants: list[str]) -> 
 
 
 def work_load(folder: str, questions: int) -> dict:
-    from auditor.bm25 import SparseIndex
+    from auditor.retrieval.bm25 import SparseIndex
 
     qs = make_questions(questions)
     base = current_rss_mb()
@@ -187,7 +187,7 @@ def work_store(n: int, questions: int, db: str, phase: str) -> dict:
     runs PassageIndex.load_or_build (reads the blobs, builds, saves beside the database), "warm"
     runs it again (memory-maps the saved index) and answers the questions with search_many."""
     from auditor.config import RetrievalConfig
-    from auditor.retrieval import PassageIndex
+    from auditor.retrieval.index import PassageIndex
     from auditor.store import Store
 
     config = RetrievalConfig(k1=K1, b=B, stopwords="none", language="none")

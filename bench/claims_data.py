@@ -72,7 +72,7 @@ def fill_store(store, corpus: dict, tokenizer, exclude=()) -> dict[int, int]:
     """Write the corpus into an audit store as ingest would (one text document per abstract, one
     passage of title + abstract, token ids via Vocabulary); documents in `exclude` are left out.
     Returns {doc_id: passage id}."""
-    from auditor.vocabulary import Vocabulary
+    from auditor.retrieval.vocabulary import Vocabulary
 
     vocabulary = Vocabulary(store)
     skip = set(exclude)

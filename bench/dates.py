@@ -30,7 +30,7 @@ from pathlib import Path
 
 sys.path.insert(0, str(Path(__file__).resolve().parent.parent))
 
-from auditor import temporal, temporal_patterns  # noqa: E402
+from auditor.temporal import extract as temporal, patterns as temporal_patterns  # noqa: E402
 
 MONTHS = ["January", "February", "March", "April", "May", "June", "July", "August", "September",
           "October", "November", "December"]

@@ -33,13 +33,13 @@ from pathlib import Path
 REPO = Path(__file__).resolve().parent.parent
 sys.path.insert(0, str(REPO))
 
-from auditor import judge  # noqa: E402
-from auditor.calibrate import roc_auc  # noqa: E402
+from auditor.judgement import support as judge  # noqa: E402
+from auditor.judgement.calibrate import roc_auc  # noqa: E402
 from auditor.config import RetrievalConfig  # noqa: E402
-from auditor.retrieval import PassageIndex  # noqa: E402
+from auditor.retrieval.index import PassageIndex  # noqa: E402
 from auditor.store import Store  # noqa: E402
-from auditor.tokenize import Tokenizer  # noqa: E402
-from auditor.vocabulary import Vocabulary  # noqa: E402
+from auditor.retrieval.tokenize import Tokenizer  # noqa: E402
+from auditor.retrieval.vocabulary import Vocabulary  # noqa: E402
 
 SCIFACT = REPO.parent / "shared" / "data" / "scifact" / "scifact.zip"
 _ITEM = re.compile(r"(['\"])(.*?)\1(?=\s|\]|,)", re.S)

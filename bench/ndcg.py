@@ -23,9 +23,9 @@ REPO = Path(__file__).resolve().parent.parent
 sys.path[:0] = [str(REPO), str(REPO / "bench")]
 
 from auditor.config import RetrievalConfig  # noqa: E402
-from auditor.retrieval import PassageIndex  # noqa: E402
+from auditor.retrieval.index import PassageIndex  # noqa: E402
 from auditor.store import Store  # noqa: E402
-from auditor.tokenize import Tokenizer  # noqa: E402
+from auditor.retrieval.tokenize import Tokenizer  # noqa: E402
 from claims_data import fill_store, load_scifact  # noqa: E402
 
 

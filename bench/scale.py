@@ -195,12 +195,12 @@ def main(argv=None) -> int:
     if args.generate_only:
         return 0
 
-    from auditor.audit import run_audit
+    from auditor.judgement.audit import run_audit
     from auditor.config import load_config
     from auditor.ingest import ingest_corpus
-    from auditor.questions import load_questions
+    from auditor.questions.sets import load_questions
     from auditor.report import write_report
-    from auditor.retrieval import PassageIndex
+    from auditor.retrieval.index import PassageIndex
     from auditor.store import Store
 
     work = folder / "work"

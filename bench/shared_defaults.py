@@ -76,8 +76,8 @@ def ingested_store(config_text: str, folder: Path):
 
 
 def supports_of(store, config, questions: list[str]) -> list[float]:
-    from auditor.audit import question_support
-    from auditor.retrieval import PassageIndex
+    from auditor.judgement.audit import question_support
+    from auditor.retrieval.index import PassageIndex
 
     index = PassageIndex.load_or_build(store, config.retrieval)
     return question_support(store, index, questions, config.retrieval.top_k)
@@ -107,8 +107,8 @@ def demo_corpus(tmp: Path) -> dict:
 
 def scifact_corpus(tmp: Path, seeds: int, k: int) -> dict | None:
     import holdout as bench
-    from auditor.retrieval import PassageIndex
-    from auditor.tokenize import Tokenizer
+    from auditor.retrieval.index import PassageIndex
+    from auditor.retrieval.tokenize import Tokenizer
 
     if not bench.SCIFACT.is_file():
         print("scifact: dataset absent; skipped")
@@ -156,8 +156,8 @@ def python_corpus() -> dict | None:
 # --- report ---------------------------------------------------------------------------------------
 
 def report(corpora: list[dict], threshold: float, show_questions: bool) -> None:
-    from auditor.calibrate import choose_threshold, gap_metrics, roc_auc
-    from auditor.judge import ANSWER_TYPE_PENALTY, SIGNAL_WEIGHTS
+    from auditor.judgement.calibrate import choose_threshold, gap_metrics, roc_auc
+    from auditor.judgement.support import ANSWER_TYPE_PENALTY, SIGNAL_WEIGHTS
 
     print(f"shared defaults: support threshold {threshold}, signal weights {SIGNAL_WEIGHTS}, "
           f"answer-type penalty {ANSWER_TYPE_PENALTY}")

@@ -5,13 +5,13 @@ from datetime import date
 
 import pytest
 
-from auditor import temporal
-from auditor.audit import current_thresholds, run_audit
+from auditor.temporal import extract as temporal
+from auditor.judgement.audit import current_thresholds, run_audit
 from auditor.config import Config, FreshnessConfig, HorizonRule, SupportConfig
 from auditor.models import Question
 from auditor.store import dumps
-from auditor.tokenize import Tokenizer
-from auditor.vocabulary import Vocabulary
+from auditor.retrieval.tokenize import Tokenizer
+from auditor.retrieval.vocabulary import Vocabulary
 
 AS_OF = date(2026, 12, 1)
 
@@ -144,7 +144,7 @@ def test_run_and_results_are_stored(kb):
 
 
 def test_a_failing_audit_stores_nothing(kb, monkeypatch):
-    import auditor.audit as audit
+    import auditor.judgement.audit as audit
 
     def broken(*args, **kwargs):
         raise RuntimeError("disk full")
@@ -193,7 +193,7 @@ def test_empty_question_set_and_empty_store(store):
 
 def test_run_object_follows_the_contract_and_reloads_equal(kb, tmp_path):
     # The keys of the developers' contract (results.json format 1, DESIGN.md §4.3, and extensions).
-    from auditor.runs import load_run
+    from auditor.history.runs import load_run
 
     run = run_audit(kb, Config(), QUESTIONS, as_of=AS_OF, out=tmp_path / "report")
     assert {"format", "run", "summary", "questions", "ingest_errors", "documents", "briefs", "history",
@@ -231,7 +231,7 @@ def test_a_file_that_breaks_stays_searchable_and_its_owner_sees_the_failure(tmp_
 
     from auditor.config import load_config
     from auditor.ingest import ingest_corpus
-    from auditor.retrieval import PassageIndex
+    from auditor.retrieval.index import PassageIndex
     from auditor.store import Store
 
     kb = tmp_path / "kb" / "quality"

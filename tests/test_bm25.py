@@ -9,7 +9,7 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from auditor.bm25 import (VARIANTS, CorpusStats, Params, SparseIndex, count_terms, get_variant, idf_bm25l,
+from auditor.retrieval.bm25 import (VARIANTS, CorpusStats, Params, SparseIndex, count_terms, get_variant, idf_bm25l,
                           idf_bm25plus, idf_lucene, idf_okapi, idf_robertson, tf_bm25l, tf_bm25plus, tf_classic)
 from auditor.errors import ConfigError
 

@@ -20,8 +20,8 @@ import numpy as np
 import pytest
 import rank_bm25
 
-from auditor import bm25
-from auditor.bm25 import CorpusStats, Params, SparseIndex, Variant, count_terms, idf_robertson, tf_classic
+from auditor.retrieval import bm25
+from auditor.retrieval.bm25 import CorpusStats, Params, SparseIndex, Variant, count_terms, idf_robertson, tf_classic
 
 RTOL = 1e-9  # the bound: relative, per passage score
 

@@ -8,7 +8,7 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from auditor.briefs import content_briefs, missing_terms, nearest_topic
+from auditor.judgement.briefs import content_briefs, missing_terms, nearest_topic
 
 
 def q(qid, text, *, verdict="gap", weight=1.0, missing=(), owner=None, topic=None, evidence=()):

@@ -12,8 +12,8 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 from scipy.stats import mannwhitneyu
 
-from auditor.audit import run_audit
-from auditor.calibrate import (candidate_thresholds, calibrate, choose_threshold, format_calibration,
+from auditor.judgement.audit import run_audit
+from auditor.judgement.calibrate import (candidate_thresholds, calibrate, choose_threshold, format_calibration,
                                gap_metrics, load_labels, roc_auc)
 from auditor.cli import cli
 from auditor.config import Config, SupportConfig
@@ -21,7 +21,7 @@ from auditor.errors import InputError
 from auditor.models import Question
 
 try:
-    from .test_audit import small_kb
+    from tests.test_audit import small_kb
 except ImportError:  # tests/ run as top-level modules (pytest's default rootdir-less import mode)
     from test_audit import small_kb
 
@@ -205,7 +205,7 @@ def demo_store(tmp_path_factory):
 
 
 def test_demo_calibration_restores_the_expected_verdicts(demo_store):
-    from auditor.questions import load_questions
+    from auditor.questions.sets import load_questions
 
     store, config, target = demo_store
     with store.transaction():

@@ -159,7 +159,7 @@ KILLER = r"""
 import json, os, signal, sys, threading, time
 sys.path.insert(0, os.environ["AUDITOR_TEST_REPO"])
 mode, target, at, counts_file = sys.argv[1], sys.argv[2], int(sys.argv[3]), sys.argv[4]
-import auditor.ingest, auditor.audit, auditor.report, auditor.runs
+import auditor.ingest, auditor.judgement.audit, auditor.report, auditor.history.runs
 
 stage = [None]
 counts = {}
@@ -179,9 +179,9 @@ def staged(module, name, label):
     setattr(module, name, wrapper)
 
 staged(auditor.ingest, "ingest_corpus", "ingest")
-staged(auditor.audit, "run_audit", "audit")
+staged(auditor.judgement.audit, "run_audit", "audit")
 staged(auditor.report, "write_report", "report")
-staged(auditor.runs, "update_latest", "latest")
+staged(auditor.history.runs, "update_latest", "latest")
 
 def profile(frame, event, arg):
     label = stage[0]
@@ -286,7 +286,7 @@ def folder_bytes(folder: Path) -> dict[str, bytes]:
 
 
 def stored_run(db: Path, run_id: int) -> dict:
-    from auditor.runs import load_run
+    from auditor.history.runs import load_run
     from auditor.store import Store
 
     with Store(db) as store:

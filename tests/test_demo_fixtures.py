@@ -25,7 +25,7 @@ from pypdf.errors import PdfReadError, PdfStreamError
 
 from auditor.config import load_config
 from auditor.models import STALE_REASONS, VERDICTS
-from auditor.tokenize import Tokenizer
+from auditor.retrieval.tokenize import Tokenizer
 
 DEMO = Path(__file__).resolve().parent.parent / "fixtures" / "demo"
 KB = DEMO / "kb"

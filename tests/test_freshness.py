@@ -12,9 +12,9 @@ from datetime import date
 import pytest
 
 from auditor.config import FreshnessConfig, HorizonRule, load_config
-from auditor.freshness import corpus_freshness, horizon_for, is_range, passage_freshness
+from auditor.judgement.freshness import corpus_freshness, horizon_for, is_range, passage_freshness
 from auditor.models import Freshness, TemporalExpression
-from auditor.temporal import extract
+from auditor.temporal.extract import extract
 
 T = date(2026, 12, 1)
 H = 365

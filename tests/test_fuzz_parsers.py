@@ -22,7 +22,7 @@ from auditor.ingest.pdf import parse_pdf
 from auditor.ingest.text import parse_text
 from auditor.ingest.walk import IngestFailure
 from auditor.models import Block, MetaDate, ParsedDocument
-from auditor.segment import document_text, segment
+from auditor.ingest.segment import document_text, segment
 
 FUZZ = settings(max_examples=100, deadline=3000, derandomize=True,
                 suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large])

@@ -16,8 +16,8 @@ from hypothesis import strategies as st
 
 from cpu_budget import cpu_seconds
 from auditor.errors import AuditorError, InputError
-from auditor.questions import load_questions
-from auditor.querylog import import_query_log
+from auditor.questions.sets import load_questions
+from auditor.questions.querylog import import_query_log
 
 FUZZ = settings(max_examples=150, deadline=2000, derandomize=True,
                 suppress_health_check=[HealthCheck.function_scoped_fixture, HealthCheck.too_slow])

@@ -18,7 +18,7 @@ from hypothesis import strategies as st
 from cpu_budget import cpu_seconds
 from auditor.errors import AuditorError
 from auditor.models import GRANULARITIES, ROLES
-from auditor.temporal import extract
+from auditor.temporal.extract import extract
 
 # Tokens that steer the generator into the extractor's patterns: month and weekday names in several
 # cases, numbers that look like days, years, ISO and numeric dates, quarters, fiscal years, seasons,

@@ -9,8 +9,8 @@ from __future__ import annotations
 import pytest
 
 from auditor.config import GateConfig, load_config
-from auditor.gate import evaluate_gate, gate_figures
-from auditor.runs import diff_runs
+from auditor.history.gate import evaluate_gate, gate_figures
+from auditor.history.runs import diff_runs
 
 from test_runs import DECEMBER, NOVEMBER, make_run, question
 

@@ -11,8 +11,8 @@ from pathlib import Path
 
 import pytest
 
-from auditor import judge
-from auditor.tokenize import Tokenizer
+from auditor.judgement import support as judge
+from auditor.retrieval.tokenize import Tokenizer
 
 REPO = Path(__file__).resolve().parent.parent
 SCIFACT = REPO.parent / "shared" / "data" / "scifact" / "scifact.zip"

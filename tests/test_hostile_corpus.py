@@ -72,8 +72,8 @@ def test_every_file_is_accounted_for(ingested):
 def test_every_good_file_is_ingested_with_its_words(ingested):
     corpus, result, db = ingested
     assert result.returncode == 0
-    from auditor.tokenize import Tokenizer
-    from auditor.vocabulary import Vocabulary
+    from auditor.retrieval.tokenize import Tokenizer
+    from auditor.retrieval.vocabulary import Vocabulary
 
     with Store(db) as store:
         terms = Vocabulary(store).terms()

@@ -10,8 +10,8 @@ import numpy as np
 from auditor.config import RetrievalConfig
 from auditor.ingest import ingest_corpus
 from auditor.store import Store
-from auditor.tokenize import Tokenizer
-from auditor.vocabulary import Vocabulary
+from auditor.retrieval.tokenize import Tokenizer
+from auditor.retrieval.vocabulary import Vocabulary
 from ingest_helpers import config_for, write_tree
 
 GUIDE = "# Leaks\n\nReport running leaks on the hotline any time.\n"

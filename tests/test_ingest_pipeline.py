@@ -9,11 +9,11 @@ from datetime import date
 import numpy as np
 import pytest
 
-from auditor import temporal
+from auditor.temporal import extract as temporal
 from auditor.ingest import ingest_corpus
 from auditor.store import Store
-from auditor.tokenize import Tokenizer
-from auditor.vocabulary import Vocabulary
+from auditor.retrieval.tokenize import Tokenizer
+from auditor.retrieval.vocabulary import Vocabulary
 from ingest_helpers import config_for, html_page, make_pdf, write_tree, xmp_packet
 
 FEES_MD = ("---\ntitle: Late fees\nowner: Billing\nupdated: 2024-03-01\nexpires: 2025-01-01\ntags: [fees, billing]\n---\n"

@@ -7,10 +7,10 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 from rank_bm25 import BM25Okapi
 
-from auditor.answer_types import ANSWER_TYPES, expected_answer_type, has_answer_type
-from auditor.judge import (ANSWER_TYPE_PENALTY, SIGNAL_WEIGHTS, Judged, bm25_share, combine, judge,
+from auditor.judgement.answer_types import ANSWER_TYPES, expected_answer_type, has_answer_type
+from auditor.judgement.support import (ANSWER_TYPE_PENALTY, SIGNAL_WEIGHTS, Judged, bm25_share, combine, judge,
                            passage_support, phrase_coverage, split_sentences, term_coverage, window_coverage)
-from auditor.tokenize import Tokenizer
+from auditor.retrieval.tokenize import Tokenizer
 
 TOKENIZE = Tokenizer().tokenize
 

@@ -14,7 +14,7 @@ from pathlib import Path
 import pytest
 
 from auditor.errors import StoreError
-from auditor.lock import ScanLock, read_holder
+from auditor.history.lock import ScanLock, read_holder
 
 REPO = Path(__file__).resolve().parent.parent
 
@@ -22,7 +22,7 @@ REPO = Path(__file__).resolve().parent.parent
 HOLDER = """
 import sys
 sys.path.insert(0, sys.argv[2])
-from auditor.lock import ScanLock
+from auditor.history.lock import ScanLock
 lock = ScanLock(sys.argv[1]).acquire()
 print("locked", flush=True)
 sys.stdin.readline()
@@ -77,7 +77,7 @@ def test_lock_of_a_sigkilled_holder_is_taken_over(tmp_path):
 FORKING_HOLDER = """
 import os, sys, time, multiprocessing
 sys.path.insert(0, sys.argv[2])
-from auditor.lock import ScanLock
+from auditor.history.lock import ScanLock
 lock = ScanLock(sys.argv[1]).acquire()
 worker = os.fork()
 if worker == 0:
@@ -158,7 +158,7 @@ def test_two_locks_in_one_process_exclude_each_other(tmp_path):
 
 def test_racing_processes_only_one_wins(tmp_path):
     db = tmp_path / "audit.db"
-    racer = ("import sys; sys.path.insert(0, sys.argv[2]); from auditor.lock import ScanLock\n"
+    racer = ("import sys; sys.path.insert(0, sys.argv[2]); from auditor.history.lock import ScanLock\n"
              "from auditor.errors import StoreError\n"
              "try:\n    lock = ScanLock(sys.argv[1]).acquire()\nexcept StoreError as e:\n"
              "    print('refused', e); sys.exit(1)\n"

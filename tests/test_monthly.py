@@ -114,7 +114,7 @@ def test_two_scans_at_once_one_runs_the_other_is_refused_or_waits(tmp_path):
     out, err = waiting.communicate(timeout=300)
     assert waiting.returncode == 0, err
 
-    from auditor.runs import list_runs
+    from auditor.history.runs import list_runs
     from auditor.store import Store
 
     with Store(db) as store:
@@ -167,7 +167,7 @@ def test_failed_gate_exits_3_with_the_limit_and_keeps_the_report(tmp_path):
     assert results["gate"]["passed"] is False
     assert results["gate"]["checks"][0]["value"] == pytest.approx(32 / 215)
 
-    from auditor.runs import load_run
+    from auditor.history.runs import load_run
     from auditor.store import Store
 
     with Store(root / "state" / "auditor.db") as store:

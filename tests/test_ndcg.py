@@ -13,7 +13,7 @@ from claims_data import load_scifact, parse_sentences  # noqa: E402
 from ndcg import bm25s_ndcg, evaluate, ndcg_at_k  # noqa: E402
 
 from auditor.config import RetrievalConfig  # noqa: E402
-from auditor.tokenize import Tokenizer  # noqa: E402
+from auditor.retrieval.tokenize import Tokenizer  # noqa: E402
 
 
 def test_ndcg_worked_example():

@@ -14,9 +14,9 @@ from hypothesis import strategies as st
 from scipy.spatial.distance import jaccard as scipy_jaccard_distance
 
 from auditor.errors import InputError
-from auditor.querylog import _prefix, import_query_log, jaccard, tokens
-from auditor.questions import load_questions, store_questions, stored_questions
-from auditor.redact import luhn_valid
+from auditor.questions.querylog import _prefix, import_query_log, jaccard, tokens
+from auditor.questions.sets import load_questions, store_questions, stored_questions
+from auditor.questions.redact import luhn_valid
 from auditor.store import Store
 
 # Invented questions to a fictional water utility (demo data, DESIGN.md §5); each has 6+ distinct

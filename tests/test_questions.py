@@ -10,7 +10,7 @@ import pytest
 
 from auditor.errors import InputError
 from auditor.models import Question
-from auditor.questions import load_questions, read_question_file, store_questions, stored_questions
+from auditor.questions.sets import load_questions, read_question_file, store_questions, stored_questions
 from auditor.store import Store
 
 
@@ -148,7 +148,7 @@ def test_read_question_file_returns_the_log_summary(tmp_path, caplog):
                                        '{"utterance": "call 020 7946 0123", "count": 1}\n')
     questions, summary = read_question_file(log)
     assert summary.line() == "2 log lines -> 2 questions (0 exact and 0 near duplicates merged, 0 empty); redacted 1 phone"
-    with caplog.at_level("INFO", logger="auditor.questions"):
+    with caplog.at_level("INFO", logger="auditor.questions.sets"):
         assert load_questions(log) == questions
     assert "redacted 1 phone" in caplog.text
     plain = write(tmp_path, "set.txt", "Leak on my street?\n")

@@ -8,7 +8,7 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from auditor.redact import luhn_valid, redact
+from auditor.questions.redact import luhn_valid, redact
 
 # --- Luhn (ISO/IEC 7812-1 annex B) ----------------------------------------------------------------
 

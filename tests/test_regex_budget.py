@@ -42,9 +42,9 @@ PACKAGE = Path(auditor.__file__).parent
 
 # Patterns every caller applies to a bounded slice only: tried at that length.
 BOUNDED = {
-    "auditor.temporal._WORD_BEFORE": 13,  # temporal._sentences: search(text, mark - 12, mark + 1)
+    "auditor.temporal.extract._WORD_BEFORE": 13,  # temporal._sentences: search(text, mark - 12, mark + 1)
     "auditor.ingest.html._META_CHARSET": 4096,  # html._charset: search(data[:4096])
-    "auditor.temporal_patterns._YEAR_AFTER_YEAR": 12,  # year_in_context: gap only when start - previous_end < 12
+    "auditor.temporal.patterns._YEAR_AFTER_YEAR": 12,  # year_in_context: gap only when start - previous_end < 12
 }
 
 # Patterns that fail the budget today: the bug and the fix are in the hardening report; the owner
@@ -176,7 +176,7 @@ def run_within_budget(pattern: re.Pattern, text, kinds: set[str], budget: float)
 
 def test_patterns_are_collected():
     # The walk must find the package's main patterns, or the budget test below checks nothing.
-    for name in ("auditor.temporal_patterns.CANDIDATES", "auditor.redact.EMAIL", "auditor.redact.DIGIT_RUN",
+    for name in ("auditor.temporal.patterns.CANDIDATES", "auditor.questions.redact.EMAIL", "auditor.questions.redact.DIGIT_RUN",
                  "auditor.ingest.markdown._ATX", "auditor.ingest.text._CONTROL"):
         assert name in PATTERNS, name
     assert len(PATTERNS) >= 60

@@ -18,11 +18,11 @@ import rank_bm25
 
 from auditor.config import RetrievalConfig
 from auditor.errors import ConfigError, StoreError
-from auditor.retrieval import (ALL_MISSING, NO_PASSAGES, NO_TERMS, PassageIndex, corpus_fingerprint, describe_hits,
+from auditor.retrieval.index import (ALL_MISSING, NO_PASSAGES, NO_TERMS, PassageIndex, corpus_fingerprint, describe_hits,
                                index_folder)
 from auditor.store import Store
-from auditor.tokenize import Tokenizer
-from auditor.vocabulary import Vocabulary
+from auditor.retrieval.tokenize import Tokenizer
+from auditor.retrieval.vocabulary import Vocabulary
 
 DOCS = {
     "billing/payment-options.md": [

@@ -12,7 +12,7 @@ import os
 import pytest
 
 from auditor.errors import AuditorError, StoreError
-from auditor.runs import (apply_retention, diff_runs, format_diff, format_runs, history, list_runs,
+from auditor.history.runs import (apply_retention, diff_runs, format_diff, format_runs, history, list_runs,
                           load_run, previous_run, record_gate, update_latest)
 from auditor.store import dumps
 

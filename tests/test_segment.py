@@ -8,7 +8,7 @@ import re
 from hypothesis import given, settings, strategies as st
 
 from auditor.models import Block
-from auditor.segment import MAX_WORDS, document_text, segment
+from auditor.ingest.segment import MAX_WORDS, document_text, segment
 from ingest_helpers import words
 
 

@@ -8,9 +8,9 @@ from unittest import mock
 import pytest
 from hypothesis import given, settings, strategies as st
 
-from auditor import temporal_patterns
+from auditor.temporal import patterns as temporal_patterns
 from auditor.models import GRANULARITIES, ROLES
-from auditor.temporal import extract
+from auditor.temporal.extract import extract
 
 REF = date(2024, 11, 1)
 

@@ -30,7 +30,7 @@ from pathlib import Path
 
 import pytest
 
-from auditor.temporal import extract
+from auditor.temporal.extract import extract
 
 CASES = Path(__file__).parent / "data" / "temporal_cases.jsonl"
 DEFAULT_REFERENCE = "2024-11-01"

@@ -8,7 +8,7 @@ from datetime import date, datetime, timedelta
 import pytest
 from hypothesis import given, settings, strategies as st
 
-from auditor.temporal import extract, timex3
+from auditor.temporal.extract import extract, timex3
 
 REF = date(2024, 11, 1)
 dates = st.dates(min_value=date(1900, 1, 1), max_value=date(2099, 12, 31))

@@ -5,7 +5,7 @@ from __future__ import annotations
 import pytest
 
 from auditor.errors import ConfigError
-from auditor.tokenize import LUCENE_ENGLISH, Tokenizer
+from auditor.retrieval.tokenize import LUCENE_ENGLISH, Tokenizer
 
 
 def test_snowball_english_examples():

@@ -21,10 +21,10 @@ import re
 
 from bs4 import BeautifulSoup, Comment, Doctype, NavigableString, ProcessingInstruction, Tag
 
-from ..models import Block, MetaDate, ParsedDocument
-from .dates import parse_http_date, parse_time_element, parse_w3c_datetime
-from .text import decode_text, sniff_bom
-from .walk import IngestFailure
+from auditor.models import Block, MetaDate, ParsedDocument
+from auditor.ingest.dates import parse_http_date, parse_time_element, parse_w3c_datetime
+from auditor.ingest.text import decode_text, sniff_bom
+from auditor.ingest.walk import IngestFailure
 
 # Chromium's HTML parser stops nesting at 512 levels (kMaximumHTMLParserDOMTreeDepth, from
 # memory); deeper documents are not real pages, and walking them costs time for nothing.

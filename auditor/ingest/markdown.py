@@ -12,10 +12,10 @@ import re
 
 import yaml
 
-from ..models import Block, MetaDate, ParsedDocument
-from .dates import parse_meta_value
-from .text import decode_text
-from .walk import IngestFailure
+from auditor.models import Block, MetaDate, ParsedDocument
+from auditor.ingest.dates import parse_meta_value
+from auditor.ingest.text import decode_text
+from auditor.ingest.walk import IngestFailure
 
 _FRONT_MATTER = re.compile(r"\A---[ \t]*\n(.*?\n)?(?:---|\.\.\.)[ \t]*(?:\n|\Z)", re.S)
 _ATX = re.compile(r"^ {0,3}(#{1,6})(?:[ \t]+(.*?))?(?:[ \t]+#+)?[ \t]*$")

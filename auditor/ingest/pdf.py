@@ -14,9 +14,9 @@ import io
 import logging
 import re
 
-from ..models import Block, MetaDate, ParsedDocument
-from .dates import parse_pdf_date
-from .walk import IngestFailure
+from auditor.models import Block, MetaDate, ParsedDocument
+from auditor.ingest.dates import parse_pdf_date
+from auditor.ingest.walk import IngestFailure
 
 logging.getLogger("pypdf").setLevel(logging.ERROR)  # its warnings would flood the progress bar
 

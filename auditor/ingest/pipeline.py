@@ -35,9 +35,9 @@ from datetime import datetime, timezone
 from multiprocessing.connection import wait
 from pathlib import Path
 
-from ..errors import AuditorError, InputError
-from ..models import MetaDate
-from .walk import IngestFailure, SourceFile, detect_kind, discover, glob_match, read_file, sha256, storable
+from auditor.errors import AuditorError, InputError
+from auditor.models import MetaDate
+from auditor.ingest.walk import IngestFailure, SourceFile, detect_kind, discover, glob_match, read_file, sha256, storable
 
 # The code whose output is stored per file: when any of it changes, every file is parsed again
 # (a better date pattern or parser must reach documents that did not change).
@@ -191,9 +191,9 @@ _TOKENIZERS: dict = {}
 def warm_up(settings: _Settings) -> None:
     """Import the parsers and run each costly first call once, so that a worker's start-up does
     not count against the per-file timeout."""
-    from .. import temporal
-    from ..tokenize import Tokenizer
-    from . import html, markdown, pdf, text  # noqa: F401
+    from auditor.temporal import extract as temporal
+    from auditor.retrieval.tokenize import Tokenizer
+    from auditor.ingest import html, markdown, pdf, text  # noqa: F401
 
     try:
         key = (settings.language, settings.stopwords)
@@ -220,14 +220,14 @@ def parse_file(task: dict, settings: _Settings) -> dict:
 
     Returns {"ok": True, ...document fields, "passages": [...]} or {"ok": False, "kind", "message"}.
     """
-    from .. import temporal
-    from ..segment import segment
-    from ..tokenize import Tokenizer
-    from .dates import file_time_date
-    from .html import parse_html
-    from .markdown import parse_markdown
-    from .pdf import parse_pdf
-    from .text import parse_text
+    from auditor.temporal import extract as temporal
+    from auditor.ingest.segment import segment
+    from auditor.retrieval.tokenize import Tokenizer
+    from auditor.ingest.dates import file_time_date
+    from auditor.ingest.html import parse_html
+    from auditor.ingest.markdown import parse_markdown
+    from auditor.ingest.pdf import parse_pdf
+    from auditor.ingest.text import parse_text
 
     parsers = {"pdf": parse_pdf, "html": parse_html, "markdown": parse_markdown, "text": parse_text}
     cpu = time.process_time()
@@ -337,10 +337,10 @@ def ingest_corpus(store, config, *, paths=None, jobs=None, progress=False) -> In
 
 
 def _ingest(store, config, given: list, jobs, progress) -> IngestSummary:
-    from ..tokenize import Tokenizer
-    from ..vocabulary import Vocabulary
-    from .sitemap import lastmod_dates
-    from .walk import resolve_roots
+    from auditor.retrieval.tokenize import Tokenizer
+    from auditor.retrieval.vocabulary import Vocabulary
+    from auditor.ingest.sitemap import lastmod_dates
+    from auditor.ingest.walk import resolve_roots
 
     started = time.monotonic()
     corpus = config.corpus
@@ -544,7 +544,7 @@ def _mark_removed(store, known: dict, seen: set[str], now: str) -> int:
 
 def _retokenize_if_needed(store, tokenizer) -> int:
     """Re-tokenize every stored passage when the tokenizer fingerprint changed; returns how many."""
-    from ..vocabulary import Vocabulary
+    from auditor.retrieval.vocabulary import Vocabulary
 
     fingerprint = tokenizer.fingerprint()
     stored = store.get_meta("tokenizer")

@@ -13,9 +13,9 @@ from urllib.parse import unquote, urlsplit
 
 from lxml import etree
 
-from ..errors import InputError
-from ..models import MetaDate
-from .dates import parse_w3c_datetime
+from auditor.errors import InputError
+from auditor.models import MetaDate
+from auditor.ingest.dates import parse_w3c_datetime
 
 _NS = "{http://www.sitemaps.org/schemas/sitemap/0.9}"
 

@@ -11,8 +11,8 @@ from __future__ import annotations
 import codecs
 import re
 
-from ..models import Block, ParsedDocument
-from .walk import IngestFailure
+from auditor.models import Block, ParsedDocument
+from auditor.ingest.walk import IngestFailure
 
 _BOMS = [
     (codecs.BOM_UTF32_LE, "utf-32-le"), (codecs.BOM_UTF32_BE, "utf-32-be"),

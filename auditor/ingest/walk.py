@@ -24,7 +24,7 @@ from dataclasses import dataclass
 from functools import lru_cache
 from pathlib import Path
 
-from ..errors import InputError
+from auditor.errors import InputError
 
 # Extensions we parse; content (magic bytes) has the last word (see detect_kind).
 EXTENSIONS = {
@@ -294,7 +294,7 @@ def detect_kind(data: bytes, declared: str, file: str) -> str:
     for magic, what in _BINARY_MAGIC:
         if data.startswith(magic):
             raise IngestFailure(f"not_a_{declared}", file, f"named as {declared} but the content is {what}")
-    from .text import _utf16_without_bom, sniff_bom
+    from auditor.ingest.text import _utf16_without_bom, sniff_bom
 
     if not sniff_bom(head) and not _utf16_without_bom(data):
         sample = data[:8192]

@@ -10,9 +10,9 @@ from __future__ import annotations
 import re
 from pathlib import Path
 
-from .exports import (all_owners, document_owner, owner_questions, owner_slugs, write_atomic,
+from auditor.report.exports import (all_owners, document_owner, owner_questions, owner_slugs, write_atomic,
                       write_exports)
-from .html import Highlighter, build_view, render_page, summarize
+from auditor.report.html import Highlighter, build_view, render_page, summarize
 
 # The page must stay under 15 MB (the limit) with room to spare; when a run is too big for
 # the full evidence, fewer items and shorter passage text go into the page (results.json keeps all).

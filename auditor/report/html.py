@@ -25,10 +25,10 @@ from pathlib import Path
 from jinja2 import Environment, FileSystemLoader, select_autoescape
 from markupsafe import Markup
 
-from ..models import STALE_REASONS, VERDICTS
-from . import charts
-from .views import _date, _humanize, _num, _pct, _share, diff_view, gate_view, inventory
-from .exports import best_evidence, question_owner
+from auditor.models import STALE_REASONS, VERDICTS
+from auditor.report import charts
+from auditor.report.views import _date, _humanize, _num, _pct, _share, diff_view, gate_view, inventory
+from auditor.report.exports import best_evidence, question_owner
 
 HERE = Path(__file__).parent
 PAGE_EVIDENCE = 3  # evidence items per question in the page (results.json keeps all)
@@ -102,7 +102,7 @@ class Highlighter:
 
     def __init__(self, language: str = "english", stopwords: str = "english"):
         try:
-            from auditor.tokenize import Tokenizer
+            from auditor.retrieval.tokenize import Tokenizer
             self._tok = Tokenizer(language, stopwords)
         except Exception:  # the page still renders, matching words as written
             self._tok = None

@@ -5,7 +5,7 @@ from __future__ import annotations
 
 from datetime import date
 
-from .exports import document_owner
+from auditor.report.exports import document_owner
 
 LIST_LIMIT = 50  # rows per document inventory list
 

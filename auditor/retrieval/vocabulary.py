@@ -9,7 +9,7 @@ from __future__ import annotations
 
 import numpy as np
 
-from .store import Store
+from auditor.store import Store
 
 _CHUNK = 500  # SQLite's default limit on bound parameters is 999 (older builds) or 32766
 

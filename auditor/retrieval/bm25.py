@@ -30,7 +30,7 @@ from pathlib import Path
 import numpy as np
 import scipy.sparse
 
-from .errors import ConfigError
+from auditor.errors import ConfigError
 
 FORMAT = 1  # of the saved index folder
 OKAPI_EPSILON = 0.25  # rank-bm25's BM25Okapi default (rank_bm25.py, BM25Okapi.__init__)

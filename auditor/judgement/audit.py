@@ -18,11 +18,11 @@ from collections import defaultdict
 from datetime import date, datetime, timezone
 from pathlib import Path
 
-from .config import Config, SupportConfig
-from .judge import Judged, judge, passage_support
-from .models import Freshness, Question, TemporalExpression
-from .ingest.pipeline import owner_from_config
-from .store import SEARCHED_STATUSES, Store, dumps
+from auditor.config import Config, SupportConfig
+from auditor.judgement.support import Judged, judge, passage_support
+from auditor.models import Freshness, Question, TemporalExpression
+from auditor.ingest.pipeline import owner_from_config
+from auditor.store import SEARCHED_STATUSES, Store, dumps
 
 FORMAT = 1
 
@@ -49,7 +49,7 @@ def run_audit(store: Store, config: Config, questions: list[Question], *, as_of:
     `horizon_days` replaces the configured default horizon (path and topic rules and per-question
     overrides still apply). Returns the run object; with `out`, also writes the report there.
     """
-    from .retrieval import PassageIndex
+    from auditor.retrieval.index import PassageIndex
 
     _use_freshness()
     started = _now()
@@ -109,7 +109,7 @@ def run_audit(store: Store, config: Config, questions: list[Question], *, as_of:
     }
     _store_run(store, run)
     if out is not None:
-        from .report import write_report
+        from auditor.report import write_report
 
         write_report(run, Path(out))
     return run
@@ -122,7 +122,7 @@ def _use_freshness():
     # Imported on first audit, so that calibrate and the benches (support only) need no freshness rules.
     global freshness_rules
     if freshness_rules is None:
-        from . import freshness
+        from auditor.judgement import freshness
 
         freshness_rules = freshness
 
@@ -333,7 +333,7 @@ def _summary(results: list[dict]) -> dict:
 
 def _briefs(results: list[dict]) -> list[dict]:
     try:
-        from .briefs import content_briefs
+        from auditor.judgement.briefs import content_briefs
     except ImportError:
         return []
     return content_briefs(results)

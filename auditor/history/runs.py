@@ -13,8 +13,8 @@ import json
 import os
 from pathlib import Path
 
-from .errors import AuditorError, StoreError
-from .store import Store, dumps
+from auditor.errors import AuditorError, StoreError
+from auditor.store import Store, dumps
 
 # Diff categories, in the order a reader wants them: what got worse first.
 DIFF_CATEGORIES = ("new_gaps", "newly_stale", "resolved_gaps", "refreshed", "added", "removed")

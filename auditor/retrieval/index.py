@@ -15,12 +15,12 @@ from pathlib import Path
 
 import numpy as np
 
-from .bm25 import CorpusStats, Params, SparseIndex, count_terms
-from .config import RetrievalConfig
-from .errors import StoreError
-from .store import SEARCHED_STATUSES, Store
-from .tokenize import Tokenizer
-from .vocabulary import Vocabulary
+from auditor.retrieval.bm25 import CorpusStats, Params, SparseIndex, count_terms
+from auditor.config import RetrievalConfig
+from auditor.errors import StoreError
+from auditor.store import SEARCHED_STATUSES, Store
+from auditor.retrieval.tokenize import Tokenizer
+from auditor.retrieval.vocabulary import Vocabulary
 
 _ACTIVE = f"FROM passages p JOIN documents d ON d.id = p.document_id WHERE d.status IN {SEARCHED_STATUSES}"
 

@@ -25,7 +25,7 @@ from __future__ import annotations
 import re
 from collections import Counter
 
-from .redact import PLACEHOLDERS
+from auditor.questions.redact import PLACEHOLDERS
 
 UNASSIGNED = "unassigned"
 EXAMPLES = 3

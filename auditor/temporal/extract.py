@@ -26,10 +26,10 @@ import bisect
 import re
 from datetime import date
 
-from .models import TemporalExpression
-from .temporal_patterns import (DIGIT_CANDIDATES, MODIFIER_BEFORE, MODIFIERS, RANGE_JOIN, RANGE_OPEN, STARTS,
+from auditor.models import TemporalExpression
+from auditor.temporal.patterns import (DIGIT_CANDIDATES, MODIFIER_BEFORE, MODIFIERS, RANGE_JOIN, RANGE_OPEN, STARTS,
                                 WORD_CANDIDATES, Atom, month_end, month_span, narrow, parse_candidate)
-from .temporal_roles import role_for
+from auditor.temporal.roles import role_for
 
 __all__ = ["extract", "timex3"]
 

@@ -18,7 +18,7 @@ from __future__ import annotations
 
 import re
 
-from .models import Block, Passage
+from auditor.models import Block, Passage
 
 MIN_WORDS = 100
 TARGET_WORDS = 200

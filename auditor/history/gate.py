@@ -18,7 +18,7 @@ A figure passes when it is at most its limit; limits left unset (None) are not c
 
 from __future__ import annotations
 
-from .config import GateConfig
+from auditor.config import GateConfig
 
 # limit (the config key) -> figure it bounds; the order of the checks and of the message.
 LIMITS = {

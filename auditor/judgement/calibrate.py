@@ -16,9 +16,9 @@ from dataclasses import dataclass
 from datetime import datetime, timezone
 from pathlib import Path
 
-from .config import Config
-from .errors import InputError
-from .store import Store, dumps
+from auditor.config import Config
+from auditor.errors import InputError
+from auditor.store import Store, dumps
 
 REQUIRED = ("question", "answerable")
 OPTIONAL = ("expected_document", "id", "topic", "owner", "weight", "note")
@@ -147,8 +147,8 @@ def calibrate(store: Store, config: Config, labels_path: str | Path, *, target_p
     With `holdout`, each answerable question's expected documents are hidden and the share of those
     questions that then get the gap verdict is measured (how often a removed answer would be caught).
     """
-    from .audit import current_thresholds, question_support
-    from .retrieval import PassageIndex
+    from auditor.judgement.audit import current_thresholds, question_support
+    from auditor.retrieval.index import PassageIndex
 
     labels = load_labels(labels_path)
     previous = current_thresholds(store, config)

@@ -14,7 +14,7 @@ import unicodedata
 
 import Stemmer
 
-from .errors import ConfigError
+from auditor.errors import ConfigError
 
 # A word is a run of 2+ letters or digits. `\w` also matches "_", which is punctuation in prose
 # ("snake_case" reads as two words), hence `[^\W_]`.

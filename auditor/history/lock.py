@@ -22,7 +22,7 @@ import weakref
 from datetime import datetime, timezone
 from pathlib import Path
 
-from .errors import StoreError
+from auditor.errors import StoreError
 
 POLL_SECONDS = 0.1  # how often a waiting scan retries; flock(2) itself has no timeout
 

@@ -37,8 +37,8 @@ from __future__ import annotations
 import fnmatch
 from datetime import date
 
-from .config import FreshnessConfig
-from .models import Freshness, TemporalExpression
+from auditor.config import FreshnessConfig
+from auditor.models import Freshness, TemporalExpression
 
 __all__ = ["passage_freshness", "horizon_for", "corpus_freshness", "is_range"]
 

@@ -41,8 +41,8 @@ import logging
 import math
 from pathlib import Path
 
-from .errors import InputError
-from .models import Question
+from auditor.errors import InputError
+from auditor.models import Question
 
 log = logging.getLogger(__name__)
 
@@ -111,7 +111,7 @@ def sniff_format(path: Path, text: str) -> str:
     first = _first_line(text)
     if first.startswith("{"):
         return "jsonl"
-    from .querylog import TEXT_COLUMNS
+    from auditor.questions.querylog import TEXT_COLUMNS
 
     fields = {_norm_key(f) for f in next(csv.reader([first], delimiter=_csv_delimiter(first)), [])}
     if "question" in fields or fields & set(TEXT_COLUMNS):
@@ -277,7 +277,7 @@ def build_questions(path: Path, rows: list[tuple[int, dict]]) -> list[Question]:
 
 def is_query_log(columns) -> bool:
     """The documented rule: a query-log text column, or a count or timestamp column."""
-    from .querylog import COUNT_COLUMNS, TEXT_COLUMNS, TIMESTAMP_COLUMNS
+    from auditor.questions.querylog import COUNT_COLUMNS, TEXT_COLUMNS, TIMESTAMP_COLUMNS
 
     names = {_norm_key(c) for c in columns}
     return bool(names & (set(TEXT_COLUMNS) - {"question"} | set(COUNT_COLUMNS) | set(TIMESTAMP_COLUMNS)))
@@ -310,7 +310,7 @@ def read_question_file(path):
         return build_questions(path, rows), None
     columns, records = read_records(path, text, fmt)
     if is_query_log(columns):
-        from .querylog import import_parsed_log
+        from auditor.questions.querylog import import_parsed_log
 
         return import_parsed_log(path, fmt, columns, records)
     if fmt == "csv" and "question" not in columns:

@@ -19,7 +19,7 @@ measured on its own (bench/holdout.py prints what each one contributes):
                       another (term dependence as in the unordered windows of the sequential
                       dependence model, Metzler & Croft, SIGIR 2005; here the narrowest window).
 * answer-type cues  — a when / how much / how long / who / where question needs a date / amount /
-                      duration / name / place in the supporting window (auditor.answer_types);
+                      duration / name / place in the supporting window (auditor.judgement.answer_types);
                       otherwise support is multiplied by ANSWER_TYPE_PENALTY (reason
                       `no_answer_type`).
 
@@ -33,7 +33,7 @@ import re
 from collections.abc import Callable, Iterable, Mapping, Sequence
 from dataclasses import dataclass, field
 
-from .answer_types import expected_answer_type, has_answer_type
+from auditor.judgement.answer_types import expected_answer_type, has_answer_type
 
 # The registry of support signals and their weights in the combined score. The weights were chosen
 # on three corpora at once (bench/shared_defaults.py): the demo, the SciFact hold-out and the Python

@@ -36,10 +36,10 @@ from dataclasses import dataclass, field
 from datetime import datetime, timezone
 from pathlib import Path
 
-from .errors import InputError
-from .models import Question
-from .redact import PLACEHOLDERS
-from .redact import redact as redact_text
+from auditor.errors import InputError
+from auditor.models import Question
+from auditor.questions.redact import PLACEHOLDERS
+from auditor.questions.redact import redact as redact_text
 
 # Column names that mark a query log (first present wins); "question" is accepted as the text
 # column only once a count or timestamp column has made the file a query log.
@@ -155,7 +155,7 @@ def _read(path: Path, text_column, count_column, summary: QueryLogSummary,
     """[(line, raw text, count, carried fields)] of the log; InputError on structural problems.
 
     `parsed` is (format, columns, records) when the caller has read the file already."""
-    from .questions import header_line, read_records, read_text, sniff_format
+    from auditor.questions.sets import header_line, read_records, read_text, sniff_format
 
     if parsed is None:
         content = read_text(path)
@@ -308,7 +308,7 @@ def _import(path: Path, text_column, count_column, similarity, redact, parsed):
         merged.append((count, first, wording, _top(owners), _top(topics), len(variants)))
     merged.sort(key=lambda m: (-m[0], m[1]))
 
-    from .questions import generated_id
+    from auditor.questions.sets import generated_id
 
     questions = [
         Question(id=generated_id(i, len(merged)), question=wording, owner=owner, topic=topic, weight=float(count))

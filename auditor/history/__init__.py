@@ -1,0 +1,1 @@
+"""History: stored runs, the diff between runs, the release gate and the scan lock."""

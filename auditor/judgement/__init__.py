@@ -1,0 +1,1 @@
+"""Judgement: support signals, answer types, freshness, verdicts, calibration and the audit stage."""

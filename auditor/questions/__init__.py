@@ -1,0 +1,1 @@
+"""Question sets and query logs, with personal-data redaction before anything is stored."""
