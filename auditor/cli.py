@@ -33,8 +33,14 @@ class AuditorGroup(click.Group):
             ctx.exit(1)
 
 
-def _config(path: str | None, *, db: str | None = None, as_of: date | None = None,
-            horizon: int | None = None, out: str | None = None) -> Config:
+def _config(
+    path: str | None,
+    *,
+    db: str | None = None,
+    as_of: date | None = None,
+    horizon: int | None = None,
+    out: str | None = None,
+) -> Config:
     """Defaults < file < environment < flags. Without -c, ./audit.toml is used when present."""
     if path is None:
         path = os.environ.get("AUDITOR_CONFIG") or ("audit.toml" if Path("audit.toml").is_file() else None)
@@ -70,11 +76,22 @@ class IsoDate(click.ParamType):
 
 
 ISO_DATE = IsoDate()
-config_option = click.option("-c", "--config", "config_path", type=click.Path(dir_okay=False),
-                             help="TOML config (default: ./audit.toml when present).")
-db_option = click.option("--db", type=click.Path(dir_okay=False), help="SQLite database (default: the config's, else ./auditor.db).")
-wait_option = click.option("--wait", type=click.FloatRange(min=0), default=0.0,
-                           help="Wait this many seconds for another scan's lock (default: refuse at once).")
+config_option = click.option(
+    "-c",
+    "--config",
+    "config_path",
+    type=click.Path(dir_okay=False),
+    help="TOML config (default: ./audit.toml when present).",
+)
+db_option = click.option(
+    "--db", type=click.Path(dir_okay=False), help="SQLite database (default: the config's, else ./auditor.db)."
+)
+wait_option = click.option(
+    "--wait",
+    type=click.FloatRange(min=0),
+    default=0.0,
+    help="Wait this many seconds for another scan's lock (default: refuse at once).",
+)
 quiet_option = click.option("-q", "--quiet", is_flag=True, help="No progress bars.")
 
 
@@ -93,7 +110,8 @@ def cli():
 @quiet_option
 def scan(config_path, as_of, out, wait, jobs, quiet):
     """The main job: ingest, audit, compare with the last run, gate, report."""
-    from auditor.scan import scan as run_scan, summary_lines
+    from auditor.scan import scan as run_scan
+    from auditor.scan import summary_lines
 
     config = _config(config_path, as_of=as_of, out=out)
     outcome = run_scan(config, wait=wait, jobs=jobs, progress=_progress(quiet))
@@ -122,8 +140,8 @@ def _finish(run: dict, out_dir: Path, summary_lines) -> None:
 @quiet_option
 def ingest(paths, config_path, db, jobs, wait, quiet):
     """Ingest documents under PATH... into the database (unchanged files are skipped)."""
-    from auditor.ingest import ingest_corpus
     from auditor.history.lock import ScanLock
+    from auditor.ingest import ingest_corpus
     from auditor.store import Store
 
     config = _config(config_path, db=db)
@@ -135,8 +153,13 @@ def ingest(paths, config_path, db, jobs, wait, quiet):
 
 
 @cli.command()
-@click.option("--questions", "question_files", multiple=True, type=click.Path(dir_okay=False),
-              help="Question set or query log (CSV, JSONL or text); default: the config's.")
+@click.option(
+    "--questions",
+    "question_files",
+    multiple=True,
+    type=click.Path(dir_okay=False),
+    help="Question set or query log (CSV, JSONL or text); default: the config's.",
+)
 @config_option
 @db_option
 @click.option("--as-of", type=ISO_DATE, help="Audit date (default: the config's, else today).")
@@ -165,8 +188,8 @@ def audit(question_files, config_path, db, as_of, horizon, out, wait):
 @click.option("--out", type=click.Path(file_okay=False), help="Report folder (default: reports/<as-of>/).")
 def report(config_path, db, run_id, out):
     """Write the report of a stored run again, without re-auditing."""
-    from auditor.report import write_report
     from auditor.history.runs import load_run
+    from auditor.report import write_report
     from auditor.scan import default_out_dir
     from auditor.store import Store
 
@@ -213,7 +236,9 @@ def diff(base, head, config_path, db):
 @config_option
 @click.option("--reference-date", type=ISO_DATE, help="Anchor for relative expressions (default: today).")
 @click.option("--day-first/--month-first", default=None, help="Read 03/04/2025 as 3 April (default: the config's).")
-@click.option("--fiscal-year-start", type=click.IntRange(1, 12), help="Month the fiscal year starts (default: the config's).")
+@click.option(
+    "--fiscal-year-start", type=click.IntRange(1, 12), help="Month the fiscal year starts (default: the config's)."
+)
 @click.option("--hemisphere", type=click.Choice(["north", "south"]), help="For seasons (default: the config's).")
 def dates(files, config_path, reference_date, day_first, fiscal_year_start, hemisphere):
     """Temporal expressions in FILE... (or standard input) as JSON lines."""
@@ -253,8 +278,19 @@ def search(query, config_path, db, k, as_json):
         result = PassageIndex.load_or_build(store, config.retrieval).search(query, k)
         hits = describe_hits(store, result)
     if as_json:
-        click.echo(json.dumps({"query": query, "terms": result.terms, "missing_terms": result.missing_terms,
-                               "message": result.message, "hits": hits}, ensure_ascii=False, indent=2))
+        click.echo(
+            json.dumps(
+                {
+                    "query": query,
+                    "terms": result.terms,
+                    "missing_terms": result.missing_terms,
+                    "message": result.message,
+                    "hits": hits,
+                },
+                ensure_ascii=False,
+                indent=2,
+            )
+        )
         return
     if result.missing_terms:
         click.echo(f"never in the corpus: {', '.join(result.missing_terms)}")
@@ -270,11 +306,18 @@ def search(query, config_path, db, k, as_json):
 @click.option("--labels", required=True, type=click.Path(dir_okay=False), help="Labelled questions CSV.")
 @config_option
 @db_option
-@click.option("--target-precision", type=click.FloatRange(0, 1), help="Pick the threshold that finds the most gaps while keeping this gap precision.")
-@click.option("--holdout", is_flag=True, help="Also hide each question's expected documents and measure the gap verdict.")
+@click.option(
+    "--target-precision",
+    type=click.FloatRange(0, 1),
+    help="Pick the threshold that finds the most gaps while keeping this gap precision.",
+)
+@click.option(
+    "--holdout", is_flag=True, help="Also hide each question's expected documents and measure the gap verdict."
+)
 def calibrate(labels, config_path, db, target_precision, holdout):
     """Choose support thresholds from labelled questions; later audits use them."""
-    from auditor.judgement.calibrate import calibrate as run_calibrate, format_calibration
+    from auditor.judgement.calibrate import calibrate as run_calibrate
+    from auditor.judgement.calibrate import format_calibration
     from auditor.store import Store
 
     config = _config(config_path, db=db)

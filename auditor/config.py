@@ -102,7 +102,7 @@ class Config:
     gate: GateConfig = field(default_factory=GateConfig)
     report: ReportConfig = field(default_factory=ReportConfig)
 
-    def replace(self, **changes: Any) -> "Config":
+    def replace(self, **changes: Any) -> Config:
         return dataclasses.replace(self, **changes)
 
     def audit_date(self) -> date:
@@ -119,8 +119,7 @@ ENVIRONMENT = {
 }
 
 
-def load_config(path: str | Path | None = None, env: dict[str, str] | None = None,
-                warn=None) -> Config:
+def load_config(path: str | Path | None = None, env: dict[str, str] | None = None, warn=None) -> Config:
     """Read `path` (TOML) over the defaults, then the AUDITOR_* environment."""
     warn = warn or (lambda message: print(f"warning: {message}", file=sys.stderr))
     env = os.environ if env is None else env
@@ -153,17 +152,22 @@ def load_config(path: str | Path | None = None, env: dict[str, str] | None = Non
 
 def _build(raw: dict, base: Path, source: Path | None, where: str, warn) -> Config:
     reader = _Reader(where, base, warn)
-    top = reader.table(raw, "", {"database", "as_of", "questions", "owners", "corpus", "freshness",
-                                 "retrieval", "support", "gate", "report"})
+    top = reader.table(
+        raw,
+        "",
+        {"database", "as_of", "questions", "owners", "corpus", "freshness", "retrieval", "support", "gate", "report"},
+    )
     corpus_raw = reader.table(top.get("corpus", {}), "corpus", {f.name for f in dataclasses.fields(CorpusConfig)})
     sitemaps = []
     for i, item in enumerate(reader.array(corpus_raw.pop("sitemaps", []), "corpus.sitemaps")):
         item = reader.table(item, f"corpus.sitemaps[{i}]", {"file", "url_prefix", "folder"})
-        sitemaps.append(SitemapConfig(
-            file=reader.path(item.get("file"), f"corpus.sitemaps[{i}].file", required=True),
-            url_prefix=reader.string(item.get("url_prefix"), f"corpus.sitemaps[{i}].url_prefix", required=True),
-            folder=reader.string(item.get("folder", ""), f"corpus.sitemaps[{i}].folder"),
-        ))
+        sitemaps.append(
+            SitemapConfig(
+                file=reader.path(item.get("file"), f"corpus.sitemaps[{i}].file", required=True),
+                url_prefix=reader.string(item.get("url_prefix"), f"corpus.sitemaps[{i}].url_prefix", required=True),
+                folder=reader.string(item.get("folder", ""), f"corpus.sitemaps[{i}].folder"),
+            )
+        )
     corpus = reader.fill(CorpusConfig, corpus_raw, "corpus", sitemaps=tuple(sitemaps))
     if corpus.hemisphere not in ("north", "south"):
         raise ConfigError(f"{where}: corpus.hemisphere must be 'north' or 'south', not {corpus.hemisphere!r}")
@@ -192,14 +196,26 @@ def _build(raw: dict, base: Path, source: Path | None, where: str, warn) -> Conf
         owners=owners,
         corpus=corpus,
         freshness=freshness,
-        retrieval=reader.fill(RetrievalConfig, reader.table(top.get("retrieval", {}), "retrieval",
-                                                             {f.name for f in dataclasses.fields(RetrievalConfig)}), "retrieval"),
-        support=reader.fill(SupportConfig, reader.table(top.get("support", {}), "support",
-                                                         {f.name for f in dataclasses.fields(SupportConfig)}), "support"),
-        gate=reader.fill(GateConfig, reader.table(top.get("gate", {}), "gate",
-                                                   {f.name for f in dataclasses.fields(GateConfig)}), "gate"),
-        report=reader.fill(ReportConfig, reader.table(top.get("report", {}), "report",
-                                                       {f.name for f in dataclasses.fields(ReportConfig)}), "report"),
+        retrieval=reader.fill(
+            RetrievalConfig,
+            reader.table(top.get("retrieval", {}), "retrieval", {f.name for f in dataclasses.fields(RetrievalConfig)}),
+            "retrieval",
+        ),
+        support=reader.fill(
+            SupportConfig,
+            reader.table(top.get("support", {}), "support", {f.name for f in dataclasses.fields(SupportConfig)}),
+            "support",
+        ),
+        gate=reader.fill(
+            GateConfig,
+            reader.table(top.get("gate", {}), "gate", {f.name for f in dataclasses.fields(GateConfig)}),
+            "gate",
+        ),
+        report=reader.fill(
+            ReportConfig,
+            reader.table(top.get("report", {}), "report", {f.name for f in dataclasses.fields(ReportConfig)}),
+            "report",
+        ),
     )
     if config.freshness.horizon_days < 0:
         raise ConfigError(f"{where}: freshness.horizon_days must not be negative")

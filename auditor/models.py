@@ -18,6 +18,7 @@ STALE_REASONS = ("too_old", "expired", "overtaken")
 
 # --- ingest ---------------------------------------------------------------------------------------
 
+
 @dataclass(frozen=True)
 class MetaDate:
     """A date a document states about itself, with where it came from.
@@ -67,6 +68,7 @@ class Passage:
 
 # --- temporal -------------------------------------------------------------------------------------
 
+
 @dataclass(frozen=True)
 class TemporalExpression:
     """A normalized temporal expression (DESIGN.md §3.2, §4.4).
@@ -107,6 +109,7 @@ class Freshness:
 
 
 # --- questions ----------------------------------------------------------------------------------
+
 
 @dataclass(frozen=True)
 class Question:

@@ -50,8 +50,10 @@ def load_question_files(config: Config, paths: list[Path] | None = None) -> list
         questions, log_summary = read_question_file(path)
         for question in questions:
             if question.id in seen:
-                raise InputError(f"{str(path)!r}: question id {question.id!r} is also used in "
-                                 f"{str(seen[question.id])!r}; give the files an `id` column with distinct ids")
+                raise InputError(
+                    f"{str(path)!r}: question id {question.id!r} is also used in "
+                    f"{str(seen[question.id])!r}; give the files an `id` column with distinct ids"
+                )
             seen[question.id] = path
         sets.append(QuestionSet(Path(path), questions, log_summary))
     return sets
@@ -67,14 +69,21 @@ def store_question_sets(store: Store, sets: list[QuestionSet]) -> list[Question]
     return [q for qset in sets for q in qset.questions]
 
 
-def audit_and_report(store: Store, config: Config, sets: list[QuestionSet], *, as_of: date,
-                     horizon_days: int | None = None, out_dir: Path | None = None,
-                     gate: bool = True) -> tuple[dict, Path]:
+def audit_and_report(
+    store: Store,
+    config: Config,
+    sets: list[QuestionSet],
+    *,
+    as_of: date,
+    horizon_days: int | None = None,
+    out_dir: Path | None = None,
+    gate: bool = True,
+) -> tuple[dict, Path]:
     """Audit, attach the diff against the previous run and the gate outcome, write the report."""
-    from auditor.judgement.audit import run_audit
     from auditor.history.gate import evaluate_gate
-    from auditor.report import write_report
     from auditor.history.runs import apply_retention, diff_runs, load_run, previous_run, record_gate, update_latest
+    from auditor.judgement.audit import run_audit
+    from auditor.report import write_report
 
     questions = store_question_sets(store, sets)
     run = run_audit(store, config, questions, as_of=as_of, horizon_days=horizon_days)
@@ -93,11 +102,18 @@ def audit_and_report(store: Store, config: Config, sets: list[QuestionSet], *, a
     return run, out_dir
 
 
-def scan(config: Config, *, as_of: date | None = None, out_dir: Path | None = None,
-         wait: float = 0.0, progress: bool = False, jobs: int | None = None) -> ScanOutcome:
+def scan(
+    config: Config,
+    *,
+    as_of: date | None = None,
+    out_dir: Path | None = None,
+    wait: float = 0.0,
+    progress: bool = False,
+    jobs: int | None = None,
+) -> ScanOutcome:
     """The whole job under the scan lock: ingest, audit, diff, gate, report."""
-    from auditor.ingest import ingest_corpus
     from auditor.history.lock import ScanLock
+    from auditor.ingest import ingest_corpus
 
     as_of = as_of or config.audit_date()
     sets = load_question_files(config)  # fail on a bad question file before any work
@@ -105,8 +121,9 @@ def scan(config: Config, *, as_of: date | None = None, out_dir: Path | None = No
         with Store(config.database) as store:
             summary = ingest_corpus(store, config, jobs=jobs, progress=progress)
             run, out_dir = audit_and_report(store, config, sets, as_of=as_of, out_dir=out_dir)
-    return ScanOutcome(run=run, out_dir=out_dir, ingest_line=summary.line(), gate=run.get("gate"),
-                       question_lines=question_lines(sets))
+    return ScanOutcome(
+        run=run, out_dir=out_dir, ingest_line=summary.line(), gate=run.get("gate"), question_lines=question_lines(sets)
+    )
 
 
 def question_lines(sets: list[QuestionSet]) -> list[str]:

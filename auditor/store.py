@@ -233,8 +233,7 @@ class Store:
 
     def set_meta(self, key: str, value: str) -> None:
         self.db.execute(
-            "INSERT INTO meta(key, value) VALUES (?, ?) "
-            "ON CONFLICT(key) DO UPDATE SET value = excluded.value",
+            "INSERT INTO meta(key, value) VALUES (?, ?) ON CONFLICT(key) DO UPDATE SET value = excluded.value",
             [key, value],
         )
 
@@ -244,7 +243,7 @@ class Store:
     def close(self) -> None:
         self.db.conn.close()
 
-    def __enter__(self) -> "Store":
+    def __enter__(self) -> Store:
         return self
 
     def __exit__(self, *exc) -> None:

@@ -83,7 +83,7 @@ def make_questions(count: int, seed: int = 11) -> list[list[int]]:
 
 
 def passages(flat, offsets):
-    return (flat[offsets[i]:offsets[i + 1]] for i in range(len(offsets) - 1))
+    return (flat[offsets[i] : offsets[i + 1]] for i in range(len(offsets) - 1))
 
 
 class Timer:
@@ -109,6 +109,7 @@ def current_rss_mb() -> float:
 
 # --- workers (one per child process) ---------------------------------------------------------------
 
+
 def work_ours(n: int, questions: int, save: str | None, variants: list[str]) -> dict:
     from auditor.retrieval.bm25 import Params, SparseIndex, count_terms
 
@@ -127,8 +128,13 @@ def work_ours(n: int, questions: int, save: str | None, variants: list[str]) -> 
             started = time.perf_counter()
             index.save(Path(save))
             out["save_s"] = time.perf_counter() - started
-        out["index_mb"] = sum(getattr(index, a).nbytes for a in ("indptr", "indices", "weights", "tf", "doc_len",
-                                                                  "df", "idf", "maxw", "keys")) / 2**20
+        out["index_mb"] = (
+            sum(
+                getattr(index, a).nbytes
+                for a in ("indptr", "indices", "weights", "tf", "doc_len", "df", "idf", "maxw", "keys")
+            )
+            / 2**20
+        )
         del index
     out["peak_mb"] = rss_mb()
     return out
@@ -144,8 +150,14 @@ def work_load(folder: str, questions: int) -> dict:
     with Timer() as search:
         for q in qs:
             index.top_k(q, K)
-    return {"load_s": load.wall, "qps": len(qs) / search.cpu, "qps_wall": len(qs) / search.wall,
-            "base_mb": base, "peak_mb": rss_mb(), "n_docs": index.n_docs}
+    return {
+        "load_s": load.wall,
+        "qps": len(qs) / search.cpu,
+        "qps_wall": len(qs) / search.wall,
+        "base_mb": base,
+        "peak_mb": rss_mb(),
+        "n_docs": index.n_docs,
+    }
 
 
 def work_bm25s(n: int, questions: int) -> dict:
@@ -156,15 +168,22 @@ def work_bm25s(n: int, questions: int) -> dict:
     base = current_rss_mb()
     vocab = {str(i): i for i in range(VOCAB)}
     vocab[""] = VOCAB  # bm25s's empty-query token
-    docs = [flat[offsets[i]:offsets[i + 1]].tolist() for i in range(n)]
+    docs = [flat[offsets[i] : offsets[i + 1]].tolist() for i in range(n)]
     with Timer() as build:
         model = bm25s.BM25(method="lucene", k1=K1, b=B)
         model.index((docs, vocab), show_progress=False)
     del docs
     with Timer() as search:
         ids, _ = model.retrieve(qs, k=K, n_threads=0, show_progress=False, backend_selection="numpy")
-    return {"build_s": build.cpu, "build_wall": build.wall, "qps": len(qs) / search.cpu,
-            "qps_wall": len(qs) / search.wall, "base_mb": base, "peak_mb": rss_mb(), "top": ids.tolist()}
+    return {
+        "build_s": build.cpu,
+        "build_wall": build.wall,
+        "qps": len(qs) / search.cpu,
+        "qps_wall": len(qs) / search.wall,
+        "base_mb": base,
+        "peak_mb": rss_mb(),
+        "top": ids.tolist(),
+    }
 
 
 def work_rank(n: int, questions: int) -> dict:
@@ -173,13 +192,20 @@ def work_rank(n: int, questions: int) -> dict:
     flat, offsets = make_corpus(n)
     qs = make_questions(questions)
     base = current_rss_mb()
-    docs = [flat[offsets[i]:offsets[i + 1]].tolist() for i in range(n)]
+    docs = [flat[offsets[i] : offsets[i + 1]].tolist() for i in range(n)]
     with Timer() as build:
         model = rank_bm25.BM25Okapi(docs, k1=K1, b=B)
     with Timer() as search:
         top = [np.argsort(-model.get_scores(q), kind="stable")[:K].tolist() for q in qs]
-    return {"build_s": build.cpu, "build_wall": build.wall, "qps": len(qs) / search.cpu,
-            "qps_wall": len(qs) / search.wall, "base_mb": base, "peak_mb": rss_mb(), "top": top}
+    return {
+        "build_s": build.cpu,
+        "build_wall": build.wall,
+        "qps": len(qs) / search.cpu,
+        "qps_wall": len(qs) / search.wall,
+        "base_mb": base,
+        "peak_mb": rss_mb(),
+        "top": top,
+    }
 
 
 def work_store(n: int, questions: int, db: str, phase: str) -> dict:
@@ -195,15 +221,19 @@ def work_store(n: int, questions: int, db: str, phase: str) -> dict:
     if phase == "fill":
         flat, offsets = make_corpus(n)
         with Timer() as fill, store.transaction():
-            store.db.conn.executemany("INSERT INTO terms(id, term) VALUES (?, ?)",
-                                      ((i, f"w{i}") for i in range(VOCAB)))
-            store.db.execute("INSERT INTO documents(id, path, source_root, kind, sha256, size, mtime, first_seen, "
-                             "last_seen, ingested_at) VALUES (1, 'synthetic', '.', 'text', 'x', 0, '', '', '', '')")
+            store.db.conn.executemany("INSERT INTO terms(id, term) VALUES (?, ?)", ((i, f"w{i}") for i in range(VOCAB)))
+            store.db.execute(
+                "INSERT INTO documents(id, path, source_root, kind, sha256, size, mtime, first_seen, "
+                "last_seen, ingested_at) VALUES (1, 'synthetic', '.', 'text', 'x', 0, '', '', '', '')"
+            )
             store.db.conn.executemany(
                 "INSERT INTO passages(document_id, ordinal, text, char_start, char_end, token_ids, token_count) "
                 "VALUES (1, ?, '', 0, 0, ?, ?)",
-                ((i, flat[offsets[i]:offsets[i + 1]].astype("<i4").tobytes(), int(offsets[i + 1] - offsets[i]))
-                 for i in range(n)))
+                (
+                    (i, flat[offsets[i] : offsets[i + 1]].astype("<i4").tobytes(), int(offsets[i + 1] - offsets[i]))
+                    for i in range(n)
+                ),
+            )
         return {"fill_s": fill.wall}
     base = current_rss_mb()
     with Timer() as load:
@@ -229,10 +259,12 @@ def store_path(n: int, questions: int, tmp: str) -> dict:
 
 def print_store(n: int, r: dict) -> None:
     cold, warm = r["cold"], r["warm"]
-    print(f"store     {n:,} passages in SQLite (fill {r['fill']['fill_s']:.1f}s); PassageIndex.load_or_build cold "
-          f"{cold['load_s']:.2f}s (read token ids, build, save; peak RSS {cold['peak_mb']:.0f} MB, "
-          f"rebuilt={cold['rebuilt']}), warm {warm['load_s'] * 1000:.0f} ms (memory-mapped, rebuilt={warm['rebuilt']}); "
-          f"search_many {warm['qps']:.0f} q/s [{warm['qps_wall']:.0f}] with tokenizing, peak RSS {warm['peak_mb']:.0f} MB")
+    print(
+        f"store     {n:,} passages in SQLite (fill {r['fill']['fill_s']:.1f}s); PassageIndex.load_or_build cold "
+        f"{cold['load_s']:.2f}s (read token ids, build, save; peak RSS {cold['peak_mb']:.0f} MB, "
+        f"rebuilt={cold['rebuilt']}), warm {warm['load_s'] * 1000:.0f} ms (memory-mapped, rebuilt={warm['rebuilt']}); "
+        f"search_many {warm['qps']:.0f} q/s [{warm['qps_wall']:.0f}] with tokenizing, peak RSS {warm['peak_mb']:.0f} MB"
+    )
 
 
 def child(*args: str) -> dict:
@@ -271,31 +303,43 @@ def main(argv=None) -> int:
         print(json.dumps(result))
         return 0
 
-    print(f"Zipf(1.0) over {VOCAB:,} terms, passages of 50–150 terms, {args.questions} questions of 5–12 terms, "
-          f"k={K}, k1={K1}, b={B}; load average {os.getloadavg()[0]:.1f} on {os.cpu_count()} cores")
+    print(
+        f"Zipf(1.0) over {VOCAB:,} terms, passages of 50–150 terms, {args.questions} questions of 5–12 terms, "
+        f"k={K}, k1={K1}, b={B}; load average {os.getloadavg()[0]:.1f} on {os.cpu_count()} cores"
+    )
     print("queries/s and build times are CPU seconds of the (one-thread) engine; wall-clock q/s in brackets")
     for n in (int(s) for s in args.sizes.split(",") if s):
         print(f"\n== {n:,} passages")
         variants = "lucene,okapi" if n <= 50_000 else "lucene"
         ours = child("ours", str(n), str(args.questions), "-", variants)
-        print(f"ours      build {ours['lucene_build_s']:7.2f}s  {ours['lucene_qps']:9.1f} q/s "
-              f"[{ours['lucene_qps_wall']:.1f}]  index {ours['index_mb']:.0f} MB  peak RSS {ours['peak_mb']:.0f} MB "
-              f"(corpus alone {ours['base_mb']:.0f} MB)")
+        print(
+            f"ours      build {ours['lucene_build_s']:7.2f}s  {ours['lucene_qps']:9.1f} q/s "
+            f"[{ours['lucene_qps_wall']:.1f}]  index {ours['index_mb']:.0f} MB  peak RSS {ours['peak_mb']:.0f} MB "
+            f"(corpus alone {ours['base_mb']:.0f} MB)"
+        )
         theirs = child("bm25s", str(n), str(args.questions))
-        print(f"bm25s     build {theirs['build_s']:7.2f}s  {theirs['qps']:9.1f} q/s [{theirs['qps_wall']:.1f}]  "
-              f"peak RSS {theirs['peak_mb']:.0f} MB (corpus alone {theirs['base_mb']:.0f} MB)")
+        print(
+            f"bm25s     build {theirs['build_s']:7.2f}s  {theirs['qps']:9.1f} q/s [{theirs['qps_wall']:.1f}]  "
+            f"peak RSS {theirs['peak_mb']:.0f} MB (corpus alone {theirs['base_mb']:.0f} MB)"
+        )
         agree = same_sets(ours["lucene_top"], theirs["top"])
-        print(f"  ours/bm25s: {ours['lucene_qps'] / theirs['qps']:.2f}x queries/s "
-              f"(wall {ours['lucene_qps_wall'] / theirs['qps_wall']:.2f}x), "
-              f"build {theirs['build_s'] / ours['lucene_build_s']:.1f}x faster; "
-              f"top-{K} sets equal for {agree}/{args.questions} questions (bm25s ranks in float32: near-ties differ)")
+        print(
+            f"  ours/bm25s: {ours['lucene_qps'] / theirs['qps']:.2f}x queries/s "
+            f"(wall {ours['lucene_qps_wall'] / theirs['qps_wall']:.2f}x), "
+            f"build {theirs['build_s'] / ours['lucene_build_s']:.1f}x faster; "
+            f"top-{K} sets equal for {agree}/{args.questions} questions (bm25s ranks in float32: near-ties differ)"
+        )
         if n <= 50_000:
             rank = child("rank", str(n), str(args.rank_questions))
-            print(f"rank-bm25 build {rank['build_s']:7.2f}s  {rank['qps']:9.2f} q/s [{rank['qps_wall']:.2f}]  "
-                  f"peak RSS {rank['peak_mb']:.0f} MB ({args.rank_questions} questions)")
-            agree = same_sets(ours["okapi_top"][:args.rank_questions], rank["top"])
-            print(f"  ours(okapi)/rank-bm25 (BM25Okapi): {ours['okapi_qps'] / rank['qps']:.0f}x queries/s "
-                  f"(ours okapi {ours['okapi_qps']:.1f} q/s); top-{K} sets equal for {agree}/{args.rank_questions}")
+            print(
+                f"rank-bm25 build {rank['build_s']:7.2f}s  {rank['qps']:9.2f} q/s [{rank['qps_wall']:.2f}]  "
+                f"peak RSS {rank['peak_mb']:.0f} MB ({args.rank_questions} questions)"
+            )
+            agree = same_sets(ours["okapi_top"][: args.rank_questions], rank["top"])
+            print(
+                f"  ours(okapi)/rank-bm25 (BM25Okapi): {ours['okapi_qps'] / rank['qps']:.0f}x queries/s "
+                f"(ours okapi {ours['okapi_qps']:.1f} q/s); top-{K} sets equal for {agree}/{args.rank_questions}"
+            )
             with tempfile.TemporaryDirectory() as tmp:
                 print_store(n, store_path(n, args.questions, tmp))
     if args.million:
@@ -304,15 +348,19 @@ def main(argv=None) -> int:
         with tempfile.TemporaryDirectory(dir=REPO.parent if os.access(REPO.parent, os.W_OK) else None) as tmp:
             folder = str(Path(tmp) / "index")
             built = child("ours", str(n), str(args.questions), folder, "lucene")
-            print(f"build {built['lucene_build_s']:.1f}s, save {built['save_s']:.1f}s, {built['lucene_qps']:.1f} q/s "
-                  f"[{built['lucene_qps_wall']:.1f}], "
-                  f"index {built['index_mb']:.0f} MB, build peak RSS {built['peak_mb']:.0f} MB "
-                  f"(corpus alone {built['base_mb']:.0f} MB)")
+            print(
+                f"build {built['lucene_build_s']:.1f}s, save {built['save_s']:.1f}s, {built['lucene_qps']:.1f} q/s "
+                f"[{built['lucene_qps_wall']:.1f}], "
+                f"index {built['index_mb']:.0f} MB, build peak RSS {built['peak_mb']:.0f} MB "
+                f"(corpus alone {built['base_mb']:.0f} MB)"
+            )
             loaded = child("load", folder, str(args.questions))
             verdict = "within" if loaded["peak_mb"] <= 2048 else "OVER"
-            print(f"loaded (mmap) in {loaded['load_s'] * 1000:.0f} ms, {loaded['qps']:.1f} q/s [{loaded['qps_wall']:.1f}] "
-                  f"over {loaded['n_docs']:,}; "
-                  f"peak RSS {loaded['peak_mb']:.0f} MB: {verdict} the 2 GB target")
+            print(
+                f"loaded (mmap) in {loaded['load_s'] * 1000:.0f} ms, {loaded['qps']:.1f} q/s [{loaded['qps_wall']:.1f}] "
+                f"over {loaded['n_docs']:,}; "
+                f"peak RSS {loaded['peak_mb']:.0f} MB: {verdict} the 2 GB target"
+            )
             print_store(n, store_path(n, args.questions, tmp))
     return 0
 

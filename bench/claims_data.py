@@ -39,8 +39,7 @@ def _unescape(text: str) -> str:
 
 def parse_sentences(printed: str) -> list[str]:
     """The sentences of an `abstract` cell (a printed Python list of strings)."""
-    return [_unescape(a if a is not None else b).strip()
-            for a, b in (m.groups() for m in _ITEM.finditer(printed))]
+    return [_unescape(a if a is not None else b).strip() for a, b in (m.groups() for m in _ITEM.finditer(printed))]
 
 
 def load_scifact(folder: Path = FOLDER, split: str = "validation"):
@@ -54,11 +53,14 @@ def load_scifact(folder: Path = FOLDER, split: str = "validation"):
     if not path.is_file():
         return None
     with zipfile.ZipFile(path) as archive:
+
         def rows(name):
             return csv.DictReader(io.StringIO(archive.read(name).decode("utf-8")))
 
-        corpus = {int(r["doc_id"]): (r["title"].strip(), " ".join(parse_sentences(r["abstract"])))
-                  for r in rows("corpus_train.csv")}
+        corpus = {
+            int(r["doc_id"]): (r["title"].strip(), " ".join(parse_sentences(r["abstract"])))
+            for r in rows("corpus_train.csv")
+        }
         claims: dict[int, tuple[str, list[int]]] = {}
         for r in rows(f"claims_{split}.csv"):
             text, cited = claims.setdefault(int(r["id"]), (r["claim"].strip(), []))
@@ -86,11 +88,13 @@ def fill_store(store, corpus: dict, tokenizer, exclude=()) -> dict[int, int]:
                 "INSERT INTO documents(path, source_root, kind, sha256, size, mtime, title, status, first_seen, "
                 "last_seen, ingested_at) VALUES (?, 'scifact', 'text', ?, ?, '2020-01-01T00:00:00', ?, 'active', "
                 "'2020-01-01', '2020-01-01', '2020-01-01')",
-                [f"scifact/{doc_id}.txt", f"scifact-{doc_id}", len(text), title]).lastrowid
+                [f"scifact/{doc_id}.txt", f"scifact-{doc_id}", len(text), title],
+            ).lastrowid
             ids = vocabulary.ids(tokenizer.tokenize(text))
             passages[doc_id] = store.db.execute(
                 "INSERT INTO passages(document_id, ordinal, text, heading_path, page, char_start, char_end, "
                 "token_ids, token_count) VALUES (?, 0, ?, ?, NULL, 0, ?, ?, ?)",
-                [document, text, json.dumps([title]), len(text), ids.astype("<i4").tobytes(), len(ids)]).lastrowid
+                [document, text, json.dumps([title]), len(text), ids.astype("<i4").tobytes(), len(ids)],
+            ).lastrowid
         store.set_meta("tokenizer", tokenizer.fingerprint())
     return passages

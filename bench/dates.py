@@ -30,10 +30,23 @@ from pathlib import Path
 
 sys.path.insert(0, str(Path(__file__).resolve().parent.parent))
 
-from auditor.temporal import extract as temporal, patterns as temporal_patterns  # noqa: E402
+from auditor.temporal import extract as temporal  # noqa: E402
+from auditor.temporal import patterns as temporal_patterns
 
-MONTHS = ["January", "February", "March", "April", "May", "June", "July", "August", "September",
-          "October", "November", "December"]
+MONTHS = [
+    "January",
+    "February",
+    "March",
+    "April",
+    "May",
+    "June",
+    "July",
+    "August",
+    "September",
+    "October",
+    "November",
+    "December",
+]
 WEEKDAYS = ["Monday", "Tuesday", "Wednesday", "Thursday", "Friday", "Saturday", "Sunday"]
 
 
@@ -63,8 +76,20 @@ def date_phrase(rng: random.Random) -> str:
         lambda: f"the end of {d.year}",
         lambda: f"{MONTHS[min(d.month, 11) - 1]} {min(d.day, 20)} to {MONTHS[min(d.month, 11)]} 15, {d.year}",
         lambda: f"{d.year}–{d.year + 1}",
-        lambda: rng.choice(["last month", "next quarter", "two weeks ago", "next year", "last year",
-                            "3 days ago", "in two weeks", "this month", "yesterday", "next month"]),
+        lambda: rng.choice(
+            [
+                "last month",
+                "next quarter",
+                "two weeks ago",
+                "next year",
+                "last year",
+                "3 days ago",
+                "in two weeks",
+                "this month",
+                "yesterday",
+                "next month",
+            ]
+        ),
         lambda: "the 1990s",
     ]
     return rng.choice(forms)()
@@ -140,9 +165,16 @@ def make_paragraphs(count: int, seed: int) -> list[tuple[str, date, list[tuple[i
         parts, truth, length = [], [], 0
         while length < 85:
             kind = rng.random()
-            fill = {"price": f"{rng.randint(10, 40)}.{rng.randint(0, 99):02d}", "street": rng.choice(STREETS),
-                    "zone": rng.choice(ZONES), "team": rng.choice(TEAMS), "n": rng.randint(2, 30),
-                    "m": rng.randint(31, 60), "four": rng.randint(1000, 9999), "year": rng.randint(2000, 2030)}
+            fill = {
+                "price": f"{rng.randint(10, 40)}.{rng.randint(0, 99):02d}",
+                "street": rng.choice(STREETS),
+                "zone": rng.choice(ZONES),
+                "team": rng.choice(TEAMS),
+                "n": rng.randint(2, 30),
+                "m": rng.randint(31, 60),
+                "four": rng.randint(1000, 9999),
+                "year": rng.randint(2000, 2030),
+            }
             offset = sum(len(p) + 1 for p in parts)
             if kind < 0.45:
                 template, phrase = rng.choice(DATED[topic]), date_phrase(rng)
@@ -168,8 +200,14 @@ def ours(paragraph: str, reference: date) -> list[tuple[int, int, str]]:
 def theirs(paragraph: str, reference: date) -> list[tuple[int, int, str]]:
     from dateparser.search import search_dates
 
-    found = search_dates(paragraph, languages=["en"],
-                         settings={"RELATIVE_BASE": datetime(reference.year, reference.month, reference.day)}) or []
+    found = (
+        search_dates(
+            paragraph,
+            languages=["en"],
+            settings={"RELATIVE_BASE": datetime(reference.year, reference.month, reference.day)},
+        )
+        or []
+    )
     spans, at = [], 0
     for text, _ in found:  # search_dates gives strings; locate them in order
         start = paragraph.find(text, at)
@@ -190,7 +228,7 @@ def run_interleaved(extractors, paragraphs, chunk=50):
     seconds = [0.0] * len(extractors)
     results = [[] for _ in extractors]
     for at in range(0, len(paragraphs), chunk):
-        part = paragraphs[at:at + chunk]
+        part = paragraphs[at : at + chunk]
         for i, extractor in enumerate(extractors):
             started = time.perf_counter()
             results[i].extend(extractor(text, reference) for text, reference, _ in part)
@@ -204,7 +242,7 @@ def peak_memory(extractor, paragraphs) -> float:
         extractor(text, reference)
     peak = tracemalloc.get_traced_memory()[1]
     tracemalloc.stop()
-    return peak / 2 ** 20
+    return peak / 2**20
 
 
 def main() -> None:
@@ -232,7 +270,7 @@ def main() -> None:
     for name, found in (("ours", our_found), ("dateparser", their_found)):
         other = their_found if name == "ours" else our_found
         spans = hits = false_positive = missed = 0
-        for (text, _, truth), mine, others in zip(paragraphs, found, other):
+        for (_text, _, truth), mine, others in zip(paragraphs, found, other):
             spans += len(mine)
             hits += sum(1 for s in mine if _overlaps(s, truth))
             false_positive += sum(1 for s in mine if not _overlaps(s, truth))
@@ -245,14 +283,15 @@ def main() -> None:
     for i, label in enumerate(["spans found", "overlap a date span", "false positives", "date spans missed"]):
         print(f"{label:28}{stats['ours'][i]:12d}{stats['dateparser'][i]:14d}")
     for name in ("ours", "dateparser"):
-        print(f"\nfound by {name} only: {sum(only[name].values())} spans, "
-              f"{len(only[name])} distinct; most frequent:")
+        print(f"\nfound by {name} only: {sum(only[name].values())} spans, {len(only[name])} distinct; most frequent:")
         for text, count in only[name].most_common(12):
             print(f"  {count:5d}  {text!r}")
 
     subset = paragraphs[:200]
-    print(f"\npeak Python memory over {len(subset)} paragraphs (tracemalloc): "
-          f"ours {peak_memory(ours, subset):.1f} MiB, dateparser {peak_memory(theirs, subset):.1f} MiB")
+    print(
+        f"\npeak Python memory over {len(subset)} paragraphs (tracemalloc): "
+        f"ours {peak_memory(ours, subset):.1f} MiB, dateparser {peak_memory(theirs, subset):.1f} MiB"
+    )
 
 
 if __name__ == "__main__":

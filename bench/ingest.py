@@ -151,21 +151,38 @@ def run_ingest(folder: Path, files: list[Path], include, jobs: int) -> dict:
             os.link(f, link) if _same_device(f, work) else link.write_bytes(f.read_bytes())
         config = Config(corpus=CorpusConfig(paths=(corpus,), include=include, timeout_s=300))
         with Store(Path(work) / "bench.db") as store, PeakMemory() as memory:
-            before_self, before_children = resource.getrusage(resource.RUSAGE_SELF), resource.getrusage(resource.RUSAGE_CHILDREN)
+            before_self, before_children = (
+                resource.getrusage(resource.RUSAGE_SELF),
+                resource.getrusage(resource.RUSAGE_CHILDREN),
+            )
             started = time.perf_counter()
             summary = ingest_corpus(store, config, jobs=jobs)
             seconds = time.perf_counter() - started
-            after_self, after_children = resource.getrusage(resource.RUSAGE_SELF), resource.getrusage(resource.RUSAGE_CHILDREN)
+            after_self, after_children = (
+                resource.getrusage(resource.RUSAGE_SELF),
+                resource.getrusage(resource.RUSAGE_CHILDREN),
+            )
             rerun = time.perf_counter()
             again = ingest_corpus(store, config, jobs=jobs)
             rerun = time.perf_counter() - rerun
     kinds = collections.Counter(f["kind"] for f in summary.failures)
     cpu_main = (after_self.ru_utime + after_self.ru_stime) - (before_self.ru_utime + before_self.ru_stime)
-    cpu_workers = (after_children.ru_utime + after_children.ru_stime) - (before_children.ru_utime + before_children.ru_stime)
+    cpu_workers = (after_children.ru_utime + after_children.ru_stime) - (
+        before_children.ru_utime + before_children.ru_stime
+    )
     per_worker = sorted(summary.cpu_by_worker.values(), reverse=True)
-    return {"seconds": seconds, "summary": summary, "peak": memory.peak, "errors": dict(kinds),
-            "file_cpu": sum(per_worker), "busiest": per_worker[0] if per_worker else 0.0,
-            "rerun": rerun, "rerun_parsed": again.parsed, "cpu_main": cpu_main, "cpu_workers": cpu_workers}
+    return {
+        "seconds": seconds,
+        "summary": summary,
+        "peak": memory.peak,
+        "errors": dict(kinds),
+        "file_cpu": sum(per_worker),
+        "busiest": per_worker[0] if per_worker else 0.0,
+        "rerun": rerun,
+        "rerun_parsed": again.parsed,
+        "cpu_main": cpu_main,
+        "cpu_workers": cpu_workers,
+    }
 
 
 def _same_device(a: Path, b: str) -> bool:
@@ -177,8 +194,11 @@ def main() -> None:
 
     logging.getLogger("pypdf").setLevel(logging.ERROR)  # as the ingest workers do
     parser = argparse.ArgumentParser(description=__doc__.split("\n\n")[0])
-    parser.add_argument("--cache", type=Path, default=Path(os.environ.get(
-        "AUDITOR_BENCH_CACHE", Path.home() / ".cache" / "corpus-auditor-bench")))
+    parser.add_argument(
+        "--cache",
+        type=Path,
+        default=Path(os.environ.get("AUDITOR_BENCH_CACHE", Path.home() / ".cache" / "corpus-auditor-bench")),
+    )
     parser.add_argument("--limit", type=int, default=None, help="at most N files per set")
     parser.add_argument("--sets", default="html,pdf")
     args = parser.parse_args()
@@ -188,33 +208,47 @@ def main() -> None:
         folder = fetch(package, args.cache) / sub
         files = files_of(folder, include, args.limit)
         megabytes = sum(f.stat().st_size for f in files) / 1e6
-        print(f"\n== {name}: {package} — {len(files)} files, {megabytes:.1f} MB "
-              f"(load average before: {os.getloadavg()[0]:.2f} on {os.cpu_count()} cores)")
+        print(
+            f"\n== {name}: {package} — {len(files)} files, {megabytes:.1f} MB "
+            f"(load average before: {os.getloadavg()[0]:.2f} on {os.cpu_count()} cores)"
+        )
         reference = reference_parse(name, files)
-        print(f"reference ({'bs4+lxml get_text' if name == 'html' else 'pypdf extract_text'}, 1 process): "
-              f"{reference:.2f} s, {len(files) / reference:.1f} files/s, {megabytes / reference:.2f} MB/s")
+        print(
+            f"reference ({'bs4+lxml get_text' if name == 'html' else 'pypdf extract_text'}, 1 process): "
+            f"{reference:.2f} s, {len(files) / reference:.1f} files/s, {megabytes / reference:.2f} MB/s"
+        )
         runs = {}
         for jobs in (1, 2):
             r = runs[jobs] = run_ingest(folder, files, include, jobs)
             s = r["summary"]
-            print(f"ingest --jobs {jobs}: {r['seconds']:.2f} s, {len(files) / r['seconds']:.1f} files/s, "
-                  f"{megabytes / r['seconds']:.2f} MB/s, {s.passages} passages, {s.line()}, "
-                  f"errors by kind {r['errors'] or '{}'}, peak memory {r['peak'] / 1e6:.0f} MB "
-                  f"(main + workers); CPU main {r['cpu_main']:.1f} s + workers {r['cpu_workers']:.1f} s; "
-                  f"unchanged re-run {r['rerun']:.2f} s, parsed {r['rerun_parsed']}")
-        print(f"load average after: {os.getloadavg()[0]:.2f}; cores this session gets now (two CPU loops "
-              f"vs one): {parallel_capacity():.2f} of {os.cpu_count()} (other sessions share them: figures are noisy)")
-        print(f"speed-up jobs 2 / jobs 1 (wall clock): {runs[1]['seconds'] / runs[2]['seconds']:.2f}x "
-              f"(target >= 1.6x on 2 cores)")
+            print(
+                f"ingest --jobs {jobs}: {r['seconds']:.2f} s, {len(files) / r['seconds']:.1f} files/s, "
+                f"{megabytes / r['seconds']:.2f} MB/s, {s.passages} passages, {s.line()}, "
+                f"errors by kind {r['errors'] or '{}'}, peak memory {r['peak'] / 1e6:.0f} MB "
+                f"(main + workers); CPU main {r['cpu_main']:.1f} s + workers {r['cpu_workers']:.1f} s; "
+                f"unchanged re-run {r['rerun']:.2f} s, parsed {r['rerun_parsed']}"
+            )
+        print(
+            f"load average after: {os.getloadavg()[0]:.2f}; cores this session gets now (two CPU loops "
+            f"vs one): {parallel_capacity():.2f} of {os.cpu_count()} (other sessions share them: figures are noisy)"
+        )
+        print(
+            f"speed-up jobs 2 / jobs 1 (wall clock): {runs[1]['seconds'] / runs[2]['seconds']:.2f}x "
+            f"(target >= 1.6x on 2 cores)"
+        )
         # With other sessions busy, Linux autogroup scheduling gives this session one share of
         # the CPU however many processes it runs, so the wall-clock ratio understates what two
         # free cores give. The per-file CPU times say how evenly the work was split: one job
         # does all of it, two jobs finish when the busier worker does.
-        print(f"work split (CPU s on files): jobs 1 {runs[1]['file_cpu']:.1f} s in one worker; jobs 2 "
-              f"{runs[2]['file_cpu']:.1f} s, busier worker {runs[2]['busiest']:.1f} s -> "
-              f"{runs[1]['file_cpu'] / max(runs[2]['busiest'], 1e-9):.2f}x on two free cores (estimate)")
-        print(f"ingest --jobs 1 / reference parser time: {runs[1]['seconds'] / reference:.2f}x "
-              f"(ours also segments, tokenizes, dates statements and writes SQLite)")
+        print(
+            f"work split (CPU s on files): jobs 1 {runs[1]['file_cpu']:.1f} s in one worker; jobs 2 "
+            f"{runs[2]['file_cpu']:.1f} s, busier worker {runs[2]['busiest']:.1f} s -> "
+            f"{runs[1]['file_cpu'] / max(runs[2]['busiest'], 1e-9):.2f}x on two free cores (estimate)"
+        )
+        print(
+            f"ingest --jobs 1 / reference parser time: {runs[1]['seconds'] / reference:.2f}x "
+            f"(ours also segments, tokenizes, dates statements and writes SQLite)"
+        )
 
 
 if __name__ == "__main__":

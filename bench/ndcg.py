@@ -22,11 +22,12 @@ from pathlib import Path
 REPO = Path(__file__).resolve().parent.parent
 sys.path[:0] = [str(REPO), str(REPO / "bench")]
 
+from claims_data import fill_store, load_scifact  # noqa: E402
+
 from auditor.config import RetrievalConfig  # noqa: E402
 from auditor.retrieval.index import PassageIndex  # noqa: E402
-from auditor.store import Store  # noqa: E402
 from auditor.retrieval.tokenize import Tokenizer  # noqa: E402
-from claims_data import fill_store, load_scifact  # noqa: E402
+from auditor.store import Store  # noqa: E402
 
 
 def ndcg_at_k(ranked: list, relevance: dict, k: int = 10) -> float:
@@ -38,8 +39,7 @@ def ndcg_at_k(ranked: list, relevance: dict, k: int = 10) -> float:
     return dcg / idcg if idcg > 0 else 0.0
 
 
-def evaluate(corpus: dict, claims: list, retrieval: RetrievalConfig | None = None,
-             folder: Path | None = None) -> dict:
+def evaluate(corpus: dict, claims: list, retrieval: RetrievalConfig | None = None, folder: Path | None = None) -> dict:
     """Mean nDCG@10 of our retrieval over `claims`, through a store built in `folder`."""
     retrieval = retrieval or RetrievalConfig()
     with tempfile.TemporaryDirectory() as tmp:
@@ -58,10 +58,17 @@ def evaluate(corpus: dict, claims: list, retrieval: RetrievalConfig | None = Non
         finally:
             store.close()
     doc_of = {p: d for d, p in passages.items()}
-    scores = [ndcg_at_k([doc_of[h.passage_id] for h in result.hits], {d: 1.0 for d in cited})
-              for result, (_, _, cited) in zip(results, claims)]
-    return {"ndcg10": sum(scores) / len(scores), "store_s": filled - started, "index_s": built - filled,
-            "search_s": searched - built, "claims": len(claims)}
+    scores = [
+        ndcg_at_k([doc_of[h.passage_id] for h in result.hits], {d: 1.0 for d in cited})
+        for result, (_, _, cited) in zip(results, claims)
+    ]
+    return {
+        "ndcg10": sum(scores) / len(scores),
+        "store_s": filled - started,
+        "index_s": built - filled,
+        "search_s": searched - built,
+        "claims": len(claims),
+    }
 
 
 def bm25s_ndcg(corpus: dict, claims: list, tokenizer: Tokenizer, k1: float, b: float) -> float:
@@ -87,18 +94,23 @@ def main() -> int:
         print("SciFact not found in /work/shared/data/scifact/; nothing to measure")
         return 0
     corpus, claims = data
-    print(f"SciFact: {len(corpus)} abstracts, {len(claims)} claims, "
-          f"{sum(len(c) for _, _, c in claims)} relevant pairs")
-    for label, config in (("ours, defaults (lucene k1=1.2 b=0.75)", RetrievalConfig()),
-                          ("ours, lucene k1=1.5 b=0.75", RetrievalConfig(k1=1.5)),
-                          ("ours, okapi k1=1.5 b=0.75", RetrievalConfig(variant="okapi", k1=1.5)),
-                          ("ours, bm25plus k1=1.2 delta=0.5", RetrievalConfig(variant="bm25plus")),
-                          ("ours, bm25l k1=1.2 delta=0.5", RetrievalConfig(variant="bm25l")),
-                          ("ours, lucene stopword list", RetrievalConfig(stopwords="lucene"))):
+    print(f"SciFact: {len(corpus)} abstracts, {len(claims)} claims, {sum(len(c) for _, _, c in claims)} relevant pairs")
+    for label, config in (
+        ("ours, defaults (lucene k1=1.2 b=0.75)", RetrievalConfig()),
+        ("ours, lucene k1=1.5 b=0.75", RetrievalConfig(k1=1.5)),
+        ("ours, okapi k1=1.5 b=0.75", RetrievalConfig(variant="okapi", k1=1.5)),
+        ("ours, bm25plus k1=1.2 delta=0.5", RetrievalConfig(variant="bm25plus")),
+        ("ours, bm25l k1=1.2 delta=0.5", RetrievalConfig(variant="bm25l")),
+        ("ours, lucene stopword list", RetrievalConfig(stopwords="lucene")),
+    ):
         r = evaluate(corpus, claims, config)
-        print(f"  nDCG@10 {r['ndcg10']:.4f}  {label}  (store {r['store_s']:.1f}s, index {r['index_s']:.2f}s, "
-              f"300 searches {r['search_s']:.3f}s)")
-    print(f"  nDCG@10 {bm25s_ndcg(corpus, claims, Tokenizer(), 1.5, 0.75):.4f}  bm25s lucene k1=1.5 b=0.75, same tokens")
+        print(
+            f"  nDCG@10 {r['ndcg10']:.4f}  {label}  (store {r['store_s']:.1f}s, index {r['index_s']:.2f}s, "
+            f"300 searches {r['search_s']:.3f}s)"
+        )
+    print(
+        f"  nDCG@10 {bm25s_ndcg(corpus, claims, Tokenizer(), 1.5, 0.75):.4f}  bm25s lucene k1=1.5 b=0.75, same tokens"
+    )
     print("  published: 0.665 BEIR (Anserini BM25), 0.687 bm25s tables")
     return 0
 

@@ -40,24 +40,73 @@ sys.path.insert(0, str(REPO))
 
 CACHE = Path(os.environ.get("XDG_CACHE_HOME", Path.home() / ".cache")) / "corpus-auditor" / "scale"
 AS_OF = date(2026, 12, 1)
-MONTHS = ["January", "February", "March", "April", "May", "June", "July", "August", "September",
-          "October", "November", "December"]
+MONTHS = [
+    "January",
+    "February",
+    "March",
+    "April",
+    "May",
+    "June",
+    "July",
+    "August",
+    "September",
+    "October",
+    "November",
+    "December",
+]
 TARGETS = {"audit_s": 60.0, "scan_s": 600.0, "peak_gb": 6.0, "report_mb": 15.0}
 
 
 # --- generated data ---------------------------------------------------------------------------------
 
+
 def vocabulary(rng: np.random.Generator, size: int) -> list[str]:
     """`size` distinct invented words of 2-4 syllables."""
-    onsets = ["b", "c", "d", "f", "g", "h", "j", "k", "l", "m", "n", "p", "r", "s", "t", "v", "w", "z",
-              "br", "cr", "dr", "fl", "gr", "pl", "pr", "sk", "sl", "st", "tr", "ch", "sh", "th"]
+    onsets = [
+        "b",
+        "c",
+        "d",
+        "f",
+        "g",
+        "h",
+        "j",
+        "k",
+        "l",
+        "m",
+        "n",
+        "p",
+        "r",
+        "s",
+        "t",
+        "v",
+        "w",
+        "z",
+        "br",
+        "cr",
+        "dr",
+        "fl",
+        "gr",
+        "pl",
+        "pr",
+        "sk",
+        "sl",
+        "st",
+        "tr",
+        "ch",
+        "sh",
+        "th",
+    ]
     vowels = ["a", "e", "i", "o", "u", "ai", "ea", "ou", "io"]
     codas = ["", "", "", "n", "r", "l", "s", "m", "t", "nd", "rk"]
     words: dict[str, None] = {}
     while len(words) < size:
         n = int(rng.integers(2, 5))
-        words["".join(onsets[rng.integers(len(onsets))] + vowels[rng.integers(len(vowels))]
-                      + codas[rng.integers(len(codas))] for _ in range(n))] = None
+        words[
+            "".join(
+                onsets[rng.integers(len(onsets))] + vowels[rng.integers(len(vowels))] + codas[rng.integers(len(codas))]
+                for _ in range(n)
+            )
+        ] = None
     return list(words)
 
 
@@ -65,11 +114,13 @@ def dated_sentence(rng: np.random.Generator) -> str:
     year = int(rng.integers(2018, 2027))
     month = MONTHS[int(rng.integers(12))]
     day = int(rng.integers(1, 29))
-    return [f"As of {month} {year}, this section is current.",
-            f"The schedule takes effect on {day} {month} {year}.",
-            f"Applications close on {month} {day}, {year}.",
-            f"Updated {year}-{MONTHS.index(month) + 1:02d}-{day:02d}.",
-            f"The {year} rates apply to every account."][int(rng.integers(5))]
+    return [
+        f"As of {month} {year}, this section is current.",
+        f"The schedule takes effect on {day} {month} {year}.",
+        f"Applications close on {month} {day}, {year}.",
+        f"Updated {year}-{MONTHS.index(month) + 1:02d}-{day:02d}.",
+        f"The {year} rates apply to every account.",
+    ][int(rng.integers(5))]
 
 
 def generate(folder: Path, files: int, per_file: int, questions: int, seed: int = 20261201) -> dict:
@@ -84,7 +135,7 @@ def generate(folder: Path, files: int, per_file: int, questions: int, seed: int 
     rng = np.random.default_rng(seed)
     words = np.array(vocabulary(rng, 60_000))
     ranks = np.arange(1, len(words) + 1)
-    weights = 1.0 / ranks ** 1.1
+    weights = 1.0 / ranks**1.1
     weights /= weights.sum()
     kb = folder / "kb"
     sample_passages: list[str] = []
@@ -97,7 +148,7 @@ def generate(folder: Path, files: int, per_file: int, questions: int, seed: int 
         drawn = rng.choice(words, size=int(lengths.sum()), p=weights)
         paragraphs, at = [], 0
         for n in lengths:
-            body = " ".join(drawn[at:at + n])
+            body = " ".join(drawn[at : at + n])
             at += n
             sentences = body.capitalize() + "."
             if rng.random() < 0.33:
@@ -119,12 +170,16 @@ def generate(folder: Path, files: int, per_file: int, questions: int, seed: int 
         lines.append(f"q-{q + 1:05d},How do I {' '.join(terms)}?,{int(rng.integers(1, 50))}")
     (folder / "questions.csv").write_text("\n".join(lines) + "\n", encoding="utf-8")
     marker.write_text(json.dumps(spec))
-    print(f"generated {files:,} files x {per_file} paragraphs and {questions:,} questions "
-          f"in {time.monotonic() - started:.0f} s under {folder}", flush=True)
+    print(
+        f"generated {files:,} files x {per_file} paragraphs and {questions:,} questions "
+        f"in {time.monotonic() - started:.0f} s under {folder}",
+        flush=True,
+    )
     return spec
 
 
 # --- memory ----------------------------------------------------------------------------------------
+
 
 class TreeMemory:
     """Peak resident memory of this process and of the whole process tree, sampled."""
@@ -167,8 +222,10 @@ class TreeMemory:
 
 def maxrss_mb() -> tuple[float, float]:
     """getrusage maxrss (KiB on Linux) of this process and of its largest finished child, in MB."""
-    return (resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024,
-            resource.getrusage(resource.RUSAGE_CHILDREN).ru_maxrss / 1024)
+    return (
+        resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024,
+        resource.getrusage(resource.RUSAGE_CHILDREN).ru_maxrss / 1024,
+    )
 
 
 def folder_mb(path: Path) -> float:
@@ -177,6 +234,7 @@ def folder_mb(path: Path) -> float:
 
 # --- the scan, stage by stage ----------------------------------------------------------------------
 
+
 def main(argv=None) -> int:
     parser = argparse.ArgumentParser(description=__doc__.split("\n\n")[0])
     parser.add_argument("--passages", type=int, default=1_000_000)
@@ -184,8 +242,11 @@ def main(argv=None) -> int:
     parser.add_argument("--questions", type=int, default=10_000)
     parser.add_argument("--jobs", type=int, default=os.cpu_count() or 1)
     parser.add_argument("--cache", type=Path, default=CACHE)
-    parser.add_argument("--profile", choices=["ingest", "index", "audit", "report"],
-                        help="run this stage under cProfile and print its top functions")
+    parser.add_argument(
+        "--profile",
+        choices=["ingest", "index", "audit", "report"],
+        help="run this stage under cProfile and print its top functions",
+    )
     parser.add_argument("--generate-only", action="store_true", help="write the cached corpus and stop")
     args = parser.parse_args(argv)
 
@@ -195,9 +256,9 @@ def main(argv=None) -> int:
     if args.generate_only:
         return 0
 
-    from auditor.judgement.audit import run_audit
     from auditor.config import load_config
     from auditor.ingest import ingest_corpus
+    from auditor.judgement.audit import run_audit
     from auditor.questions.sets import load_questions
     from auditor.report import write_report
     from auditor.retrieval.index import PassageIndex
@@ -210,7 +271,9 @@ def main(argv=None) -> int:
     (folder / "audit.toml").write_text(
         'database = "work/auditor.db"\nquestions = ["questions.csv"]\n'
         '[corpus]\npaths = ["kb"]\ninclude = ["**/*.txt"]\ntimeout_s = 300\n'
-        '[report]\nout = "work/report"\ntitle = "Scale bench"\n', encoding="utf-8")
+        '[report]\nout = "work/report"\ntitle = "Scale bench"\n',
+        encoding="utf-8",
+    )
     config = load_config(folder / "audit.toml", env={})
     memory = TreeMemory().start()
     times: dict[str, float] = {}
@@ -254,23 +317,35 @@ def main(argv=None) -> int:
     peak_gb = memory.peak_tree / 1e9
     s = run["summary"]
     print()
-    print(f"corpus: {files:,} files, {passages:,} passages ({summary.line()}; {summary.passages:,} written, "
-          f"{summary.bytes_parsed / 1e6:,.0f} MB parsed)")
+    print(
+        f"corpus: {files:,} files, {passages:,} passages ({summary.line()}; {summary.passages:,} written, "
+        f"{summary.bytes_parsed / 1e6:,.0f} MB parsed)"
+    )
     print(f"questions: {s['questions']:,}: {s['covered']:,} covered, {s['stale']:,} stale, {s['gap']:,} gap")
-    print(f"ingest {times['ingest']:.1f} s ({passages / max(times['ingest'], 1e-9):,.0f} passages/s, "
-          f"{files / max(times['ingest'], 1e-9):,.0f} files/s, jobs {args.jobs}); index {times['index']:.1f} s; "
-          f"audit {times['audit']:.1f} s ({s['questions'] / max(times['audit'], 1e-9):,.0f} questions/s); "
-          f"report {times['report']:.1f} s")
-    print(f"peak memory: process tree {peak_gb:.2f} GB (sampled), main process maxrss {self_mb / 1024:.2f} GB, "
-          f"largest finished child maxrss {child_mb / 1024:.2f} GB")
-    print(f"sizes: database {folder_mb(work) - folder_mb(out):,.0f} MB (with index), index.html {report_mb:.1f} MB, "
-          f"results.json {(out / 'results.json').stat().st_size / 1e6:.1f} MB, report folder {folder_mb(out):.1f} MB")
-    checks = [("audit of the questions", times["audit"], TARGETS["audit_s"], "s"),
-              ("whole scan", scan_s, TARGETS["scan_s"], "s"),
-              ("peak memory (tree)", peak_gb, TARGETS["peak_gb"], "GB"),
-              ("index.html", report_mb, TARGETS["report_mb"], "MB")]
+    print(
+        f"ingest {times['ingest']:.1f} s ({passages / max(times['ingest'], 1e-9):,.0f} passages/s, "
+        f"{files / max(times['ingest'], 1e-9):,.0f} files/s, jobs {args.jobs}); index {times['index']:.1f} s; "
+        f"audit {times['audit']:.1f} s ({s['questions'] / max(times['audit'], 1e-9):,.0f} questions/s); "
+        f"report {times['report']:.1f} s"
+    )
+    print(
+        f"peak memory: process tree {peak_gb:.2f} GB (sampled), main process maxrss {self_mb / 1024:.2f} GB, "
+        f"largest finished child maxrss {child_mb / 1024:.2f} GB"
+    )
+    print(
+        f"sizes: database {folder_mb(work) - folder_mb(out):,.0f} MB (with index), index.html {report_mb:.1f} MB, "
+        f"results.json {(out / 'results.json').stat().st_size / 1e6:.1f} MB, report folder {folder_mb(out):.1f} MB"
+    )
+    checks = [
+        ("audit of the questions", times["audit"], TARGETS["audit_s"], "s"),
+        ("whole scan", scan_s, TARGETS["scan_s"], "s"),
+        ("peak memory (tree)", peak_gb, TARGETS["peak_gb"], "GB"),
+        ("index.html", report_mb, TARGETS["report_mb"], "MB"),
+    ]
     for what, value, target, unit in checks:
-        print(f"  {what:<24} {value:10.1f} {unit:<2} target < {target:g} {unit}: {'ok' if value < target else 'MISSED'}")
+        print(
+            f"  {what:<24} {value:10.1f} {unit:<2} target < {target:g} {unit}: {'ok' if value < target else 'MISSED'}"
+        )
     return 0
 
 

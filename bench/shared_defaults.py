@@ -41,8 +41,15 @@ sys.path.insert(0, str(REPO / "bench"))
 CACHE = Path.home() / ".cache" / "corpus-auditor"
 PYTHON_DOC = CACHE / "extract" / "usr" / "share" / "doc" / "python3.11" / "html"
 PYTHON_QUESTIONS = REPO / "bench" / "data" / "python_manual_questions.csv"
-PYTHON_PARTS = ["tutorial/*.html", "library/*.html", "howto/*.html", "faq/*.html", "reference/*.html",
-                "using/*.html", "glossary.html"]
+PYTHON_PARTS = [
+    "tutorial/*.html",
+    "library/*.html",
+    "howto/*.html",
+    "faq/*.html",
+    "reference/*.html",
+    "using/*.html",
+    "glossary.html",
+]
 SWEEP = [round(0.25 + 0.05 * i, 2) for i in range(9)]  # 0.25 .. 0.65
 
 
@@ -85,6 +92,7 @@ def supports_of(store, config, questions: list[str]) -> list[float]:
 
 # --- the corpora ----------------------------------------------------------------------------------
 
+
 def demo_corpus(tmp: Path) -> dict:
     target = tmp / "demo"
     shutil.copytree(REPO / "fixtures" / "demo", target)
@@ -101,12 +109,17 @@ def demo_corpus(tmp: Path) -> dict:
     gaps = [expected[q["id"]] == "gap" for q in questions] + [l["answerable"].strip().lower() == "no" for l in labels]
     supports = supports_of(store, config, texts)
     store.close()
-    return {"name": "demo", "supports": supports, "gaps": gaps,
-            "detail": f"{len(questions)} questions + {len(labels)} labelled paraphrases"}
+    return {
+        "name": "demo",
+        "supports": supports,
+        "gaps": gaps,
+        "detail": f"{len(questions)} questions + {len(labels)} labelled paraphrases",
+    }
 
 
 def scifact_corpus(tmp: Path, seeds: int, k: int) -> dict | None:
     import holdout as bench
+
     from auditor.retrieval.index import PassageIndex
     from auditor.retrieval.tokenize import Tokenizer
 
@@ -125,8 +138,12 @@ def scifact_corpus(tmp: Path, seeds: int, k: int) -> dict | None:
         supports += [max([p.support for p in items] or [0.0]) for items in judged]
         gaps += [labels[c] == 1 for c in ids]
     store.close()
-    return {"name": "scifact", "supports": supports, "gaps": gaps,
-            "detail": f"hold-out, {seeds} splits pooled, {len(gaps) // seeds} claims per split"}
+    return {
+        "name": "scifact",
+        "supports": supports,
+        "gaps": gaps,
+        "detail": f"hold-out, {seeds} splits pooled, {len(gaps) // seeds} claims per split",
+    }
 
 
 def python_corpus() -> dict | None:
@@ -134,8 +151,10 @@ def python_corpus() -> dict | None:
     if html is None:
         return None
     parts = ", ".join(f'"{p}"' for p in PYTHON_PARTS)
-    text = (f'database = "auditor.db"\nas_of = 2026-12-01\n[corpus]\npaths = ["{html}"]\ninclude = [{parts}]\n'
-            f"[freshness]\nhorizon_days = 100000\n")
+    text = (
+        f'database = "auditor.db"\nas_of = 2026-12-01\n[corpus]\npaths = ["{html}"]\ninclude = [{parts}]\n'
+        f"[freshness]\nhorizon_days = 100000\n"
+    )
     started = time.perf_counter()
     store, config = ingested_store(text, CACHE / "pydoc")
     took = time.perf_counter() - started
@@ -147,29 +166,40 @@ def python_corpus() -> dict | None:
     kinds = {}
     for r, s in zip(rows, supports):
         kinds.setdefault(r["note"] if r["answerable"] == "yes" else "not answerable", []).append(s)
-    return {"name": "python", "supports": supports, "gaps": [r["answerable"] == "no" for r in rows],
-            "detail": f"{len(rows)} questions, {passages} passages (ingest/update {took:.0f} s)",
-            "groups": {k: statistics.mean(v) for k, v in kinds.items()},
-            "rows": list(zip(rows, supports))}
+    return {
+        "name": "python",
+        "supports": supports,
+        "gaps": [r["answerable"] == "no" for r in rows],
+        "detail": f"{len(rows)} questions, {passages} passages (ingest/update {took:.0f} s)",
+        "groups": {k: statistics.mean(v) for k, v in kinds.items()},
+        "rows": list(zip(rows, supports)),
+    }
 
 
 # --- report ---------------------------------------------------------------------------------------
+
 
 def report(corpora: list[dict], threshold: float, show_questions: bool) -> None:
     from auditor.judgement.calibrate import choose_threshold, gap_metrics, roc_auc
     from auditor.judgement.support import ANSWER_TYPE_PENALTY, SIGNAL_WEIGHTS
 
-    print(f"shared defaults: support threshold {threshold}, signal weights {SIGNAL_WEIGHTS}, "
-          f"answer-type penalty {ANSWER_TYPE_PENALTY}")
-    print(f"{'corpus':8s} {'n':>5} {'gaps':>5} {'AUC':>6} {'prec':>6} {'recall':>6} {'F1':>6}   "
-          f"{'own best t':>10} {'its F1':>6}  detail")
+    print(
+        f"shared defaults: support threshold {threshold}, signal weights {SIGNAL_WEIGHTS}, "
+        f"answer-type penalty {ANSWER_TYPE_PENALTY}"
+    )
+    print(
+        f"{'corpus':8s} {'n':>5} {'gaps':>5} {'AUC':>6} {'prec':>6} {'recall':>6} {'F1':>6}   "
+        f"{'own best t':>10} {'its F1':>6}  detail"
+    )
     for c in corpora:
         s, g = c["supports"], c["gaps"]
         auc = roc_auc([-x for x, y in zip(s, g) if y], [-x for x, y in zip(s, g) if not y])
         m = gap_metrics(s, g, threshold)
         best, _ = choose_threshold(s, g)
-        print(f"{c['name']:8s} {len(s):5d} {sum(g):5d} {auc:6.3f} {m['precision']:6.3f} {m['recall']:6.3f} "
-              f"{m['f1']:6.3f}   {best['threshold']:10.3f} {best['f1']:6.3f}  {c['detail']}")
+        print(
+            f"{c['name']:8s} {len(s):5d} {sum(g):5d} {auc:6.3f} {m['precision']:6.3f} {m['recall']:6.3f} "
+            f"{m['f1']:6.3f}   {best['threshold']:10.3f} {best['f1']:6.3f}  {c['detail']}"
+        )
     print("\nF1 of the gap verdict across thresholds")
     print(f"{'t':>5} " + " ".join(f"{c['name']:>8}" for c in corpora) + f" {'mean':>8} {'min':>8}")
     for t in sorted(set(SWEEP) | {threshold}):
@@ -178,8 +208,10 @@ def report(corpora: list[dict], threshold: float, show_questions: bool) -> None:
         print(f"{t:5.2f} " + " ".join(f"{f:8.3f}" for f in f1s) + f" {statistics.mean(f1s):8.3f} {min(f1s):8.3f}{mark}")
     for c in corpora:
         if c.get("groups"):
-            print(f"\n{c['name']}: mean support by kind of question: "
-                  + ", ".join(f"{k} {v:.3f}" for k, v in sorted(c["groups"].items())))
+            print(
+                f"\n{c['name']}: mean support by kind of question: "
+                + ", ".join(f"{k} {v:.3f}" for k, v in sorted(c["groups"].items()))
+            )
         if show_questions and c.get("rows"):
             for row, s in sorted(c["rows"], key=lambda x: x[1]):
                 verdict = "gap" if s < threshold else "   "
@@ -204,8 +236,10 @@ def main(argv=None) -> int:
     report(corpora, SupportConfig().threshold, args.questions)
     import resource
 
-    print(f"\ntime {time.perf_counter() - started:.0f} s; peak RSS "
-          f"{resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024:.0f} MiB (shared 2-core machine: noisy)")
+    print(
+        f"\ntime {time.perf_counter() - started:.0f} s; peak RSS "
+        f"{resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024:.0f} MiB (shared 2-core machine: noisy)"
+    )
     return 0
 
 

@@ -27,6 +27,8 @@ def demo_copy(tmp_path):
     target = tmp_path / "demo"
     shutil.copytree(DEMO, target)
     config = (target / "audit.toml").read_text(encoding="utf-8")
-    config = config.replace("../../reports/demo/auditor.db", "work/auditor.db").replace("../../reports/demo", "work/report")
+    config = config.replace("../../reports/demo/auditor.db", "work/auditor.db").replace(
+        "../../reports/demo", "work/report"
+    )
     (target / "audit.toml").write_text(config, encoding="utf-8")
     return target

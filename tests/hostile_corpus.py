@@ -26,8 +26,8 @@ import struct
 from dataclasses import dataclass, field
 from pathlib import Path
 
-
 # --- PDF, byte by byte ------------------------------------------------------------------------------
+
 
 def _stream(data: bytes, extra: bytes = b"") -> bytes:
     return b"<< /Length %d %s>>\nstream\n" % (len(data), extra) + data + b"\nendstream"
@@ -62,7 +62,7 @@ def _text_page_objects(first: int, parent: int, words: str) -> dict[int, bytes]:
     """A page (number `first`), its content stream and its font."""
     return {
         first: b"<< /Type /Page /Parent %d 0 R /MediaBox [0 0 612 792] /Contents %d 0 R "
-               b"/Resources << /Font << /F1 %d 0 R >> >> >>" % (parent, first + 1, first + 2),
+        b"/Resources << /Font << /F1 %d 0 R >> >> >>" % (parent, first + 1, first + 2),
         first + 1: _stream(TEXT % words.encode("latin-1")),
         first + 2: FONT,
     }
@@ -88,9 +88,11 @@ def pdf_self_referencing_object_stream() -> bytes:
     stored inside object stream 4, and that the catalog is in it too."""
     header = b"1 0 4 0 "
     inner = header + b"<< /Type /Catalog /Pages 2 0 R >>"
-    objects = {2: b"<< /Type /Pages /Kids [3 0 R] /Count 1 >>",
-               3: b"<< /Type /Page /Parent 2 0 R /MediaBox [0 0 612 792] >>",
-               4: _stream(inner, b"/Type /ObjStm /N 2 /First %d " % len(header))}
+    objects = {
+        2: b"<< /Type /Pages /Kids [3 0 R] /Count 1 >>",
+        3: b"<< /Type /Page /Parent 2 0 R /MediaBox [0 0 612 792] >>",
+        4: _stream(inner, b"/Type /ObjStm /N 2 /First %d " % len(header)),
+    }
     out = bytearray(b"%PDF-1.7\n%\xe2\xe3\xcf\xd3\n")
     offsets = {}
     for number in sorted(objects):
@@ -117,9 +119,11 @@ def pdf_deep_page_tree(depth: int = 5000) -> bytes:
 def pdf_wide_page_tree(pages: int = 20_000) -> bytes:
     """One page-tree node with `pages` kids sharing one content stream without text."""
     content = 3
-    objects = {1: b"<< /Type /Catalog /Pages 2 0 R >>",
-               2: b"<< /Type /Pages /Kids [%s] /Count %d >>" % (b" ".join(b"%d 0 R" % (4 + i) for i in range(pages)), pages),
-               content: _stream(b"0 0 m 10 10 l S")}
+    objects = {
+        1: b"<< /Type /Catalog /Pages 2 0 R >>",
+        2: b"<< /Type /Pages /Kids [%s] /Count %d >>" % (b" ".join(b"%d 0 R" % (4 + i) for i in range(pages)), pages),
+        content: _stream(b"0 0 m 10 10 l S"),
+    }
     for i in range(pages):
         objects[4 + i] = b"<< /Type /Page /Parent 2 0 R /MediaBox [0 0 612 792] /Contents %d 0 R >>" % content
     return pdf_file(objects, 1)
@@ -127,9 +131,15 @@ def pdf_wide_page_tree(pages: int = 20_000) -> bytes:
 
 # --- HTML bombs -------------------------------------------------------------------------------------
 
+
 def html_giant_attribute(words: str, mb: int = 20) -> bytes:
-    return (b'<html><body><main><p data-x="' + b"A" * (mb * 1_000_000) + b'">' + words.encode() +
-            b"</p></main></body></html>")
+    return (
+        b'<html><body><main><p data-x="'
+        + b"A" * (mb * 1_000_000)
+        + b'">'
+        + words.encode()
+        + b"</p></main></body></html>"
+    )
 
 
 def html_entity_flood(count: int = 2_000_000) -> bytes:
@@ -138,11 +148,12 @@ def html_entity_flood(count: int = 2_000_000) -> bytes:
 
 def xhtml_billion_laughs() -> bytes:
     """The classic entity-expansion bomb in an internal DTD subset (10^9 "lol"s if expanded)."""
-    entities = ['<!ENTITY lol0 "lol">'] + [
-        f'<!ENTITY lol{i} "{("&lol%d;" % (i - 1)) * 10}">' for i in range(1, 10)]
-    return ('<?xml version="1.0"?>\n<!DOCTYPE html [\n' + "\n".join(entities) + "\n]>\n"
-            '<html xmlns="http://www.w3.org/1999/xhtml"><body><main><p>&lol9;</p>'
-            "<p>Laughs aside, report leaks on the hotline.</p></main></body></html>").encode()
+    entities = ['<!ENTITY lol0 "lol">'] + [f'<!ENTITY lol{i} "{f"&lol{i - 1};" * 10}">' for i in range(1, 10)]
+    return (
+        '<?xml version="1.0"?>\n<!DOCTYPE html [\n' + "\n".join(entities) + "\n]>\n"
+        '<html xmlns="http://www.w3.org/1999/xhtml"><body><main><p>&lol9;</p>'
+        "<p>Laughs aside, report leaks on the hotline.</p></main></body></html>"
+    ).encode()
 
 
 UNDECODABLE = b"latin1-\xe9t\xe9.md"  # "été" in Latin-1: not UTF-8
@@ -154,6 +165,7 @@ def storable(path: str) -> str:
 
 
 # --- the corpus -------------------------------------------------------------------------------------
+
 
 @dataclass
 class HostileCorpus:
@@ -192,8 +204,11 @@ def build(root: Path, *, undecodable_names: bool = True) -> HostileCorpus:
     md = "# {0}\n\nThe {0} page says: report a leak on the hotline, day or night.\n"
     good("good.md", md.format("Leaks").encode(), "hotlin")  # Snowball stems "hotline" to "hotlin"
     good("good.txt", b"Meter reading\n\nMeters are read every two months by the field crew.\n", "meter")
-    good("good.html", b"<html><body><main><h1>Outages</h1><p>The outage map shows planned shutoffs.</p>"
-                      b"</main></body></html>", "outag")
+    good(
+        "good.html",
+        b"<html><body><main><h1>Outages</h1><p>The outage map shows planned shutoffs.</p></main></body></html>",
+        "outag",
+    )
 
     # PDFs
     good("broken-xref.pdf", pdf_broken_xref("Backflow testers renew their certificate yearly"), "backflow")

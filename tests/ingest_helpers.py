@@ -9,9 +9,15 @@ from pathlib import Path
 from auditor.config import Config, CorpusConfig
 
 
-def make_pdf(pages: list[str], *, sections: list[tuple[int, str, int]] | None = None,
-             info: dict[str, str] | None = None, xmp: str | None = None, title: str | None = None,
-             outline: bool = True) -> bytes:
+def make_pdf(
+    pages: list[str],
+    *,
+    sections: list[tuple[int, str, int]] | None = None,
+    info: dict[str, str] | None = None,
+    xmp: str | None = None,
+    title: str | None = None,
+    outline: bool = True,
+) -> bytes:
     """A text PDF with one page per entry of `pages`.
 
     `sections`: (page number from 1, title, outline level from 0) — the title is written as a line
@@ -83,14 +89,18 @@ def xmp_packet(modify: str | None = None, create: str | None = None) -> str:
         props += f"<xmp:ModifyDate>{modify}</xmp:ModifyDate>"
     if create:
         props += f"<xmp:CreateDate>{create}</xmp:CreateDate>"
-    return ('<x:xmpmeta xmlns:x="adobe:ns:meta/"><rdf:RDF xmlns:rdf="http://www.w3.org/1999/02/22-rdf-syntax-ns#">'
-            f'<rdf:Description rdf:about="" xmlns:xmp="http://ns.adobe.com/xap/1.0/">{props}</rdf:Description>'
-            '</rdf:RDF></x:xmpmeta>')
+    return (
+        '<x:xmpmeta xmlns:x="adobe:ns:meta/"><rdf:RDF xmlns:rdf="http://www.w3.org/1999/02/22-rdf-syntax-ns#">'
+        f'<rdf:Description rdf:about="" xmlns:xmp="http://ns.adobe.com/xap/1.0/">{props}</rdf:Description>'
+        "</rdf:RDF></x:xmpmeta>"
+    )
 
 
 def html_page(body: str, head: str = "", title: str = "Test page") -> str:
-    return (f"<!DOCTYPE html><html><head><meta charset=\"utf-8\"><title>{title}</title>{head}</head>"
-            f"<body>{body}</body></html>")
+    return (
+        f'<!DOCTYPE html><html><head><meta charset="utf-8"><title>{title}</title>{head}</head>'
+        f"<body>{body}</body></html>"
+    )
 
 
 def words(n: int, seed: str = "water") -> str:

@@ -5,19 +5,28 @@ from datetime import date
 
 import pytest
 
-from auditor.temporal import extract as temporal
-from auditor.judgement.audit import current_thresholds, run_audit
 from auditor.config import Config, FreshnessConfig, HorizonRule, SupportConfig
+from auditor.judgement.audit import current_thresholds, run_audit
 from auditor.models import Question
-from auditor.store import dumps
 from auditor.retrieval.tokenize import Tokenizer
 from auditor.retrieval.vocabulary import Vocabulary
+from auditor.store import dumps
+from auditor.temporal import extract as temporal
 
 AS_OF = date(2026, 12, 1)
 
 
-def add_document(store, path, passages, *, doc_date="2026-11-01", source="front_matter:updated",
-                 owner="Billing", status="active", expires=None):
+def add_document(
+    store,
+    path,
+    passages,
+    *,
+    doc_date="2026-11-01",
+    source="front_matter:updated",
+    owner="Billing",
+    status="active",
+    expires=None,
+):
     """Insert one document and its passages as ingest would (token ids, dated statements)."""
     tokenizer = Tokenizer()
     with store.transaction():
@@ -26,40 +35,74 @@ def add_document(store, path, passages, *, doc_date="2026-11-01", source="front_
             "INSERT INTO documents (path, source_root, kind, sha256, size, mtime, title, owner, doc_date, "
             "doc_date_source, expires, status, first_seen, last_seen, ingested_at) "
             "VALUES (?, '/kb', 'markdown', ?, 1, '2020-01-01T00:00:00', ?, ?, ?, ?, ?, ?, 'x', 'x', 'x')",
-            [path, f"sha-{path}", path.title(), owner, doc_date, source, expires, status]).lastrowid
+            [path, f"sha-{path}", path.title(), owner, doc_date, source, expires, status],
+        ).lastrowid
         for ordinal, (heading, text) in enumerate(passages):
             tokens = tokenizer.tokenize(text)
             pid = store.db.execute(
                 "INSERT INTO passages (document_id, ordinal, text, heading_path, page, char_start, char_end, "
                 "token_ids, token_count) VALUES (?, ?, ?, ?, NULL, 0, ?, ?, ?)",
-                [doc_id, ordinal, text, json.dumps(heading), len(text), vocabulary.ids(tokens).tobytes(),
-                 len(tokens)]).lastrowid
+                [doc_id, ordinal, text, json.dumps(heading), len(text), vocabulary.ids(tokens).tobytes(), len(tokens)],
+            ).lastrowid
             reference = date.fromisoformat(doc_date) if doc_date else None
             for s in temporal.extract(text, reference):
                 store.db.execute(
                     "INSERT INTO statements (passage_id, expression, sentence, start, end, granularity, role, "
                     "char_start, char_end) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)",
-                    [pid, s.expression, s.text, s.start.isoformat(), s.end.isoformat(), s.granularity, s.role,
-                     s.char_start, s.char_end])
+                    [
+                        pid,
+                        s.expression,
+                        s.text,
+                        s.start.isoformat(),
+                        s.end.isoformat(),
+                        s.granularity,
+                        s.role,
+                        s.char_start,
+                        s.char_end,
+                    ],
+                )
     return doc_id
 
 
 def small_kb(store):
-    add_document(store, "billing/payments.md", [
-        (["Payments", "By phone"], "You can pay your water bill by phone. Call the payment line and have your "
-                                   "account number ready. Card payments by phone are free."),
-        (["Payments", "Late fees"], "A late fee of $12 applies when the bill is unpaid after the due date."),
-    ])
-    add_document(store, "field/meters.md", [
-        (["Meters"], "As of March 2021, meter readers visit each property every two months to read the water "
-                     "meter. Readings appear on your next bill."),
-    ], doc_date="2021-03-15", owner="Field Operations")
-    add_document(store, "care/contact.md", [
-        (["Contact"], "Customer Care answers questions about service, moving house and account changes."),
-    ], owner="Customer Care")
+    add_document(
+        store,
+        "billing/payments.md",
+        [
+            (
+                ["Payments", "By phone"],
+                "You can pay your water bill by phone. Call the payment line and have your "
+                "account number ready. Card payments by phone are free.",
+            ),
+            (["Payments", "Late fees"], "A late fee of $12 applies when the bill is unpaid after the due date."),
+        ],
+    )
+    add_document(
+        store,
+        "field/meters.md",
+        [
+            (
+                ["Meters"],
+                "As of March 2021, meter readers visit each property every two months to read the water "
+                "meter. Readings appear on your next bill.",
+            ),
+        ],
+        doc_date="2021-03-15",
+        owner="Field Operations",
+    )
+    add_document(
+        store,
+        "care/contact.md",
+        [
+            (["Contact"], "Customer Care answers questions about service, moving house and account changes."),
+        ],
+        owner="Customer Care",
+    )
     with store.transaction():
-        store.db.execute("INSERT INTO ingest_errors VALUES ('quality/scan.pdf', '/kb', 'encrypted', "
-                         "'encrypted PDF, no password given', 'x')")
+        store.db.execute(
+            "INSERT INTO ingest_errors VALUES ('quality/scan.pdf', '/kb', 'encrypted', "
+            "'encrypted PDF, no password given', 'x')"
+        )
 
 
 QUESTIONS = [
@@ -122,7 +165,12 @@ def test_documents_inventory_lists_failed_files(kb):
     assert list(docs) == sorted(docs)
     assert docs["quality/scan.pdf"]["status"] == "failed" and docs["quality/scan.pdf"]["reasons"] == ["encrypted"]
     meters = docs["field/meters.md"]
-    assert (meters["status"], meters["passages"], meters["fresh"], meters["reasons"]) == ("active", 1, False, ["too_old"])
+    assert (meters["status"], meters["passages"], meters["fresh"], meters["reasons"]) == (
+        "active",
+        1,
+        False,
+        ["too_old"],
+    )
     assert docs["billing/payments.md"]["fresh"] is True and docs["billing/payments.md"]["passages"] == 2
 
 
@@ -176,8 +224,10 @@ def test_thresholds_come_from_calibration_then_config_then_default(kb):
     # Nothing clears 0.99: every question becomes a gap.
     assert run_audit(kb, config, QUESTIONS, as_of=AS_OF)["summary"]["gap"] == 3
     with kb.transaction():
-        kb.db.execute("INSERT INTO calibrations (created, labels, thresholds) VALUES ('x', 'l.csv', ?)",
-                      [dumps({"support": 0.05, "weak_margin": 0.01})])
+        kb.db.execute(
+            "INSERT INTO calibrations (created, labels, thresholds) VALUES ('x', 'l.csv', ?)",
+            [dumps({"support": 0.05, "weak_margin": 0.01})],
+        )
     run = run_audit(kb, config, QUESTIONS, as_of=AS_OF)
     assert run["run"]["thresholds"] == {"support": 0.05, "weak_margin": 0.01, "source": "calibration"}
     assert run["summary"]["gap"] < 3
@@ -196,21 +246,82 @@ def test_run_object_follows_the_contract_and_reloads_equal(kb, tmp_path):
     from auditor.history.runs import load_run
 
     run = run_audit(kb, Config(), QUESTIONS, as_of=AS_OF, out=tmp_path / "report")
-    assert {"format", "run", "summary", "questions", "ingest_errors", "documents", "briefs", "history",
-            "diff", "gate"} <= set(run)
-    assert {"id", "as_of", "horizon_days", "started", "finished", "title", "corpus", "thresholds",
-            "config_fingerprint", "corpus_fingerprint"} <= set(run["run"])
+    assert {
+        "format",
+        "run",
+        "summary",
+        "questions",
+        "ingest_errors",
+        "documents",
+        "briefs",
+        "history",
+        "diff",
+        "gate",
+    } <= set(run)
+    assert {
+        "id",
+        "as_of",
+        "horizon_days",
+        "started",
+        "finished",
+        "title",
+        "corpus",
+        "thresholds",
+        "config_fingerprint",
+        "corpus_fingerprint",
+    } <= set(run["run"])
     assert {"documents", "passages", "failed", "freshness", "mean_age_days"} <= set(run["run"]["corpus"])
     for q in run["questions"]:
-        assert {"id", "question", "owner", "topic", "weight", "verdict", "reasons", "support", "missing_terms",
-                "evidence", "flags", "action", "horizon_days"} <= set(q)
+        assert {
+            "id",
+            "question",
+            "owner",
+            "topic",
+            "weight",
+            "verdict",
+            "reasons",
+            "support",
+            "missing_terms",
+            "evidence",
+            "flags",
+            "action",
+            "horizon_days",
+        } <= set(q)
         for e in q["evidence"]:
-            assert {"document", "page", "section", "passage", "score", "support", "supporting", "as_of",
-                    "as_of_source", "expires", "fresh", "reasons", "text", "owner", "terms", "statements",
-                    "rank"} <= set(e)
+            assert {
+                "document",
+                "page",
+                "section",
+                "passage",
+                "score",
+                "support",
+                "supporting",
+                "as_of",
+                "as_of_source",
+                "expires",
+                "fresh",
+                "reasons",
+                "text",
+                "owner",
+                "terms",
+                "statements",
+                "rank",
+            } <= set(e)
     for d in run["documents"]:
-        assert set(d) == {"path", "title", "kind", "owner", "status", "doc_date", "doc_date_source", "expires",
-                          "passages", "as_of", "fresh", "reasons"}
+        assert set(d) == {
+            "path",
+            "title",
+            "kind",
+            "owner",
+            "status",
+            "doc_date",
+            "doc_date_source",
+            "expires",
+            "passages",
+            "as_of",
+            "fresh",
+            "reasons",
+        }
     # The gap question becomes a content brief (auditor/briefs.py) naming it.
     assert any("q3" in b["questions"] for b in run["briefs"])
     # With `out`, the report is written from the same run object.
@@ -239,8 +350,9 @@ def test_a_file_that_breaks_stays_searchable_and_its_owner_sees_the_failure(tmp_
     good = make_pdf(["Hydrant flushing notice. Crews flush the hydrants on Birchwood Lane every autumn."])
     (kb / "flushing.pdf").write_bytes(good)
     (kb / "scan.pdf").write_bytes(good[:300])
-    (tmp_path / "audit.toml").write_text('[corpus]\npaths = ["kb"]\n[owners]\n"quality/**" = "Water Quality"\n',
-                                         encoding="utf-8")
+    (tmp_path / "audit.toml").write_text(
+        '[corpus]\npaths = ["kb"]\n[owners]\n"quality/**" = "Water Quality"\n', encoding="utf-8"
+    )
     config = load_config(tmp_path / "audit.toml", env={})
     with Store(tmp_path / "a.db") as store:
         ingest_corpus(store, config, jobs=1)
@@ -251,8 +363,9 @@ def test_a_file_that_breaks_stays_searchable_and_its_owner_sees_the_failure(tmp_
         assert status == {"quality/flushing.pdf": "failed"}
         hits = PassageIndex.load_or_build(store, config.retrieval).search("hydrant flushing Birchwood", 3).hits
         assert hits
-        run = run_audit(store, config, [Question("q1", "When are the hydrants on Birchwood Lane flushed?")],
-                        as_of=date(2026, 12, 1))
+        run = run_audit(
+            store, config, [Question("q1", "When are the hydrants on Birchwood Lane flushed?")], as_of=date(2026, 12, 1)
+        )
     assert run["questions"][0]["evidence"][0]["document"] == "quality/flushing.pdf"
     inventory = {d["path"]: d for d in run["documents"]}
     assert inventory["quality/scan.pdf"]["owner"] == "Water Quality"

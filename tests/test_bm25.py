@@ -9,9 +9,23 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from auditor.retrieval.bm25 import (VARIANTS, CorpusStats, Params, SparseIndex, count_terms, get_variant, idf_bm25l,
-                          idf_bm25plus, idf_lucene, idf_okapi, idf_robertson, tf_bm25l, tf_bm25plus, tf_classic)
 from auditor.errors import ConfigError
+from auditor.retrieval.bm25 import (
+    VARIANTS,
+    CorpusStats,
+    Params,
+    SparseIndex,
+    count_terms,
+    get_variant,
+    idf_bm25l,
+    idf_bm25plus,
+    idf_lucene,
+    idf_okapi,
+    idf_robertson,
+    tf_bm25l,
+    tf_bm25plus,
+    tf_classic,
+)
 
 
 def test_idf_formulas_worked_values():
@@ -50,7 +64,9 @@ def test_tf_parts_worked_values():
 def test_registry_and_parameter_errors():
     assert list(VARIANTS) == ["lucene", "okapi", "bm25plus", "bm25l"]
     assert Params().variant == "lucene"
-    with pytest.raises(ConfigError, match=r"unknown BM25 variant 'bm25x'; choose one of lucene, okapi, bm25plus, bm25l"):
+    with pytest.raises(
+        ConfigError, match=r"unknown BM25 variant 'bm25x'; choose one of lucene, okapi, bm25plus, bm25l"
+    ):
         get_variant("bm25x")
     with pytest.raises(ConfigError, match="retrieval.k1"):
         Params(k1=-1)
@@ -60,7 +76,7 @@ def test_registry_and_parameter_errors():
         Params(delta=float("nan"))
 
 
-def build(docs, params=Params()):
+def build(docs, params=Params()):  # noqa: B008 - Params is frozen
     return SparseIndex.build(count_terms([np.array(d, dtype=np.int32) for d in docs], chunk=7), params)
 
 
@@ -74,8 +90,12 @@ corpora = st.lists(st.lists(st.integers(0, 30), max_size=25), min_size=1, max_si
 
 
 @settings(max_examples=150, deadline=None)
-@given(docs=corpora, query=st.lists(st.integers(0, 35), min_size=1, max_size=8, unique=True),
-       k=st.integers(1, 12), variant=st.sampled_from(list(VARIANTS)))
+@given(
+    docs=corpora,
+    query=st.lists(st.integers(0, 35), min_size=1, max_size=8, unique=True),
+    k=st.integers(1, 12),
+    variant=st.sampled_from(list(VARIANTS)),
+)
 def test_top_k_equals_brute_force(docs, query, k, variant):
     # The pruned float32 search must return exactly what ranking every exact score returns.
     index = build(docs, Params(variant))

@@ -26,8 +26,15 @@ from auditor.retrieval.bm25 import CorpusStats, Params, SparseIndex, Variant, co
 RTOL = 1e-9  # the issue's bound: relative, per passage score
 
 
-def random_corpus(seed: int, n_docs: int = 300, vocab: int = 400, zipf: float = 1.3, binary: bool = False,
-                  max_len: int = 60, min_len: int = 0):
+def random_corpus(
+    seed: int,
+    n_docs: int = 300,
+    vocab: int = 400,
+    zipf: float = 1.3,
+    binary: bool = False,
+    max_len: int = 60,
+    min_len: int = 0,
+):
     """Token strings with Zipf-distributed term ranks (so some terms occur in most documents)."""
     rng = np.random.default_rng(seed)
     docs = []
@@ -66,7 +73,7 @@ def absent_sum(index, query, ids, per_term):
         if i is None:
             continue
         has = np.zeros(index.n_docs, bool)
-        has[index.indices[index.indptr[i]:index.indptr[i + 1]]] = True
+        has[index.indices[index.indptr[i] : index.indptr[i + 1]]] = True
         extra += np.where(has, 0.0, per_term(index.idf[i]))
     return extra
 
@@ -128,8 +135,9 @@ def bm25s_scores(docs, method, query, k1, b, delta):
     return model.get_scores(query)
 
 
-@pytest.mark.parametrize("variant,method", [("lucene", "lucene"), ("okapi", "robertson"),
-                                            ("bm25l", "bm25l"), ("bm25plus", "bm25+")])
+@pytest.mark.parametrize(
+    "variant,method", [("lucene", "lucene"), ("okapi", "robertson"), ("bm25l", "bm25l"), ("bm25plus", "bm25+")]
+)
 def test_equals_bm25s(variant, method):
     # bm25s (scoring.py): "lucene" and "robertson" use tf/(tf + k1·norm), without the classic (k1+1)
     # factor, so ours = (k1+1) × theirs. "robertson" clamps a negative IDF to 0 and ours (okapi) to
@@ -164,8 +172,9 @@ def fts5_ranking(docs, query, limit=10):
     conn.execute("CREATE VIRTUAL TABLE t USING fts5(body)")
     conn.executemany("INSERT INTO t(rowid, body) VALUES (?, ?)", [(i, " ".join(d)) for i, d in enumerate(docs)])
     match = " OR ".join(f'"{t}"' for t in query)
-    rows = conn.execute("SELECT rowid, bm25(t) FROM t WHERE t MATCH ? ORDER BY bm25(t), rowid LIMIT ?",
-                        [match, limit]).fetchall()
+    rows = conn.execute(
+        "SELECT rowid, bm25(t) FROM t WHERE t MATCH ? ORDER BY bm25(t), rowid LIMIT ?", [match, limit]
+    ).fetchall()
     return [r[0] for r in rows], np.array([-r[1] for r in rows])
 
 

@@ -3,7 +3,6 @@ terms and nearest topic, with total weight, example questions and a suggested ow
 
 from __future__ import annotations
 
-
 import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
@@ -13,31 +12,65 @@ from auditor.judgement.briefs import content_briefs, missing_terms, nearest_topi
 
 def q(qid, text, *, verdict="gap", weight=1.0, missing=(), owner=None, topic=None, evidence=()):
     """A run-object question (DESIGN.md §4.3 shape, with the extended evidence keys)."""
-    return {"id": qid, "question": text, "owner": owner, "topic": topic, "weight": weight,
-            "verdict": verdict, "reasons": [], "support": 0.1, "missing_terms": list(missing),
-            "evidence": [dict(e) for e in evidence]}
+    return {
+        "id": qid,
+        "question": text,
+        "owner": owner,
+        "topic": topic,
+        "weight": weight,
+        "verdict": verdict,
+        "reasons": [],
+        "support": 0.1,
+        "missing_terms": list(missing),
+        "evidence": [dict(e) for e in evidence],
+    }
 
 
 def ev(document, section="", owner="unassigned", rank=1):
-    return {"document": document, "section": section, "owner": owner, "rank": rank, "support": 0.2,
-            "supporting": False}
+    return {"document": document, "section": section, "owner": owner, "rank": rank, "support": 0.2, "supporting": False}
 
 
 # Invented demo questions (DESIGN.md §5).
 RUN = [
     q("q01", "How much is the base charge?", verdict="covered", weight=96, topic="rates", owner="Billing"),
     q("q02", "Can I sign up for autopay?", weight=40, missing=["autopay"], topic="payments", owner="Billing"),
-    q("q03", "Does autopay work with a credit union account?", weight=25, missing=["autopay", "union"],
-      topic="payments"),
+    q(
+        "q03",
+        "Does autopay work with a credit union account?",
+        weight=25,
+        missing=["autopay", "union"],
+        topic="payments",
+    ),
     q("q04", "Is there an autopay discount?", weight=10, missing=["autopay", "discount"]),
-    q("q05", "Do you offer a graywater permit?", weight=30, missing=["graywat", "permit"],
-      evidence=[ev("conservation/rebates.md", "Rebates › Toilets", owner="Conservation Programs")]),
-    q("q06", "Can I get a rain barrel?", weight=12, missing=["barrel"],
-      evidence=[ev("conservation/rebates.md", "Rebates › Closed programmes", owner="Conservation Programs")]),
-    q("q07", "What is the lead service line inventory?", weight=8, missing=["inventori"], topic="quality",
-      owner="Water Quality"),
-    q("q08", "Why is my pressure low at night?", weight=5, missing=[],
-      evidence=[ev("field/pressure.md", "", owner="Field Operations")]),
+    q(
+        "q05",
+        "Do you offer a graywater permit?",
+        weight=30,
+        missing=["graywat", "permit"],
+        evidence=[ev("conservation/rebates.md", "Rebates › Toilets", owner="Conservation Programs")],
+    ),
+    q(
+        "q06",
+        "Can I get a rain barrel?",
+        weight=12,
+        missing=["barrel"],
+        evidence=[ev("conservation/rebates.md", "Rebates › Closed programmes", owner="Conservation Programs")],
+    ),
+    q(
+        "q07",
+        "What is the lead service line inventory?",
+        weight=8,
+        missing=["inventori"],
+        topic="quality",
+        owner="Water Quality",
+    ),
+    q(
+        "q08",
+        "Why is my pressure low at night?",
+        weight=5,
+        missing=[],
+        evidence=[ev("field/pressure.md", "", owner="Field Operations")],
+    ),
     q("q09", "Is the advisory lifted?", verdict="stale", weight=50, topic="quality"),
     q("q10", "Can I pay with crypto?", weight=2, missing=["crypto"]),
 ]
@@ -46,22 +79,57 @@ RUN = [
 def test_briefs_of_the_demo_like_run():
     briefs = content_briefs(RUN)
     assert briefs == [
-        {"title": "autopay (payments)", "terms": ["autopay"], "weight": 75.0, "owner": "Billing",
-         "questions": ["q02", "q03", "q04"],
-         "examples": ["Can I sign up for autopay?", "Does autopay work with a credit union account?",
-                      "Is there an autopay discount?"],
-         "topic": "payments"},
+        {
+            "title": "autopay (payments)",
+            "terms": ["autopay"],
+            "weight": 75.0,
+            "owner": "Billing",
+            "questions": ["q02", "q03", "q04"],
+            "examples": [
+                "Can I sign up for autopay?",
+                "Does autopay work with a credit union account?",
+                "Is there an autopay discount?",
+            ],
+            "topic": "payments",
+        },
         # Nothing shared by term; grouped by the top heading of the nearest passage.
-        {"title": "graywat, permit, barrel (Rebates)", "terms": ["graywat", "permit", "barrel"],
-         "weight": 42.0, "owner": "Conservation Programs", "questions": ["q05", "q06"],
-         "examples": ["Do you offer a graywater permit?", "Can I get a rain barrel?"], "topic": "Rebates"},
-        {"title": "inventori (quality)", "terms": ["inventori"], "weight": 8.0, "owner": "Water Quality",
-         "questions": ["q07"], "examples": ["What is the lead service line inventory?"], "topic": "quality"},
+        {
+            "title": "graywat, permit, barrel (Rebates)",
+            "terms": ["graywat", "permit", "barrel"],
+            "weight": 42.0,
+            "owner": "Conservation Programs",
+            "questions": ["q05", "q06"],
+            "examples": ["Do you offer a graywater permit?", "Can I get a rain barrel?"],
+            "topic": "Rebates",
+        },
+        {
+            "title": "inventori (quality)",
+            "terms": ["inventori"],
+            "weight": 8.0,
+            "owner": "Water Quality",
+            "questions": ["q07"],
+            "examples": ["What is the lead service line inventory?"],
+            "topic": "quality",
+        },
         # No missing term, no section: the passage's folder is the nearest topic.
-        {"title": "field", "terms": [], "weight": 5.0, "owner": "Field Operations", "questions": ["q08"],
-         "examples": ["Why is my pressure low at night?"], "topic": "field"},
-        {"title": "crypto", "terms": ["crypto"], "weight": 2.0, "owner": "unassigned", "questions": ["q10"],
-         "examples": ["Can I pay with crypto?"], "topic": None},
+        {
+            "title": "field",
+            "terms": [],
+            "weight": 5.0,
+            "owner": "Field Operations",
+            "questions": ["q08"],
+            "examples": ["Why is my pressure low at night?"],
+            "topic": "field",
+        },
+        {
+            "title": "crypto",
+            "terms": ["crypto"],
+            "weight": 2.0,
+            "owner": "unassigned",
+            "questions": ["q10"],
+            "examples": ["Can I pay with crypto?"],
+            "topic": None,
+        },
     ]
 
 
@@ -73,9 +141,11 @@ def test_every_gap_once_and_nothing_else():
 
 
 def test_min_shared_terms_two_splits_single_term_overlap():
-    run = [q("a", "A", weight=3, missing=["autopay", "union"]),
-           q("b", "B", weight=2, missing=["autopay", "union", "fee"]),
-           q("c", "C", weight=1, missing=["autopay", "discount"])]
+    run = [
+        q("a", "A", weight=3, missing=["autopay", "union"]),
+        q("b", "B", weight=2, missing=["autopay", "union", "fee"]),
+        q("c", "C", weight=1, missing=["autopay", "discount"]),
+    ]
     one = content_briefs(run)
     assert [b["questions"] for b in one] == [["a", "b", "c"]]
     assert one[0]["terms"] == ["autopay", "union"]  # shared by two or more questions
@@ -86,27 +156,49 @@ def test_min_shared_terms_two_splits_single_term_overlap():
 
 
 def test_owner_rules_question_then_evidence_then_unassigned():
-    assert content_briefs([q("a", "A", missing=["x"], owner="Billing",
-                             evidence=[ev("d.md", owner="Customer Care")])])[0]["owner"] == "Billing"
-    assert content_briefs([q("a", "A", missing=["x"], owner="unassigned",
-                             evidence=[ev("d.md", owner="Customer Care")])])[0]["owner"] == "Customer Care"
+    assert (
+        content_briefs([q("a", "A", missing=["x"], owner="Billing", evidence=[ev("d.md", owner="Customer Care")])])[0][
+            "owner"
+        ]
+        == "Billing"
+    )
+    assert (
+        content_briefs([q("a", "A", missing=["x"], owner="unassigned", evidence=[ev("d.md", owner="Customer Care")])])[
+            0
+        ]["owner"]
+        == "Customer Care"
+    )
     # The best evidence is rank 1, wherever it stands in the list.
-    assert content_briefs([q("a", "A", missing=["x"], evidence=[ev("d.md", owner="Field Operations", rank=2),
-                                                                 ev("e.md", owner="Billing", rank=1)])
-                           ])[0]["owner"] == "Billing"
+    assert (
+        content_briefs(
+            [
+                q(
+                    "a",
+                    "A",
+                    missing=["x"],
+                    evidence=[ev("d.md", owner="Field Operations", rank=2), ev("e.md", owner="Billing", rank=1)],
+                )
+            ]
+        )[0]["owner"]
+        == "Billing"
+    )
     assert content_briefs([q("a", "A", missing=["x"])])[0]["owner"] == "unassigned"
     # A brief's owner is the weight majority of its questions' owners.
-    mixed = [q("a", "A", weight=2, missing=["x"], owner="Billing"),
-             q("b", "B", weight=3, missing=["x"], owner="Customer Care"),
-             q("c", "C", weight=2, missing=["x"], owner="Billing")]
+    mixed = [
+        q("a", "A", weight=2, missing=["x"], owner="Billing"),
+        q("b", "B", weight=3, missing=["x"], owner="Customer Care"),
+        q("c", "C", weight=2, missing=["x"], owner="Billing"),
+    ]
     assert content_briefs(mixed)[0]["owner"] == "Billing"
 
 
 def test_leader_clustering_does_not_chain():
     # b shares a term with a and with c, but c shares nothing with a's seed: c stands alone.
-    run = [q("a", "A", weight=3, missing=["meter"]),
-           q("b", "B", weight=2, missing=["meter", "autopay"]),
-           q("c", "C", weight=1, missing=["autopay"])]
+    run = [
+        q("a", "A", weight=3, missing=["meter"]),
+        q("b", "B", weight=2, missing=["meter", "autopay"]),
+        q("c", "C", weight=1, missing=["autopay"]),
+    ]
     assert [b["questions"] for b in content_briefs(run)] == [["a", "b"], ["c"]]
 
 
@@ -123,16 +215,24 @@ def test_nearest_topic():
     assert nearest_topic(q("a", "A")) is None
 
 
-@given(st.lists(st.tuples(st.sets(st.sampled_from(["autopay", "meter", "leak", "fee", "rebate"]), max_size=3),
-                          st.sampled_from([None, "rates", "leaks"]),
-                          st.sampled_from(["gap", "gap", "covered", "stale"])),
-                max_size=25),
-       st.randoms(use_true_random=False))
+@given(
+    st.lists(
+        st.tuples(
+            st.sets(st.sampled_from(["autopay", "meter", "leak", "fee", "rebate"]), max_size=3),
+            st.sampled_from([None, "rates", "leaks"]),
+            st.sampled_from(["gap", "gap", "covered", "stale"]),
+        ),
+        max_size=25,
+    ),
+    st.randoms(use_true_random=False),
+)
 @settings(max_examples=150)
 def test_partition_weight_and_order_independence(specs, rnd):
     # Distinct weights: the briefs cannot depend on the order the questions arrive in.
-    run = [q(f"q{i}", f"Q{i}", verdict=v, weight=float(len(specs) - i) + 0.5, missing=sorted(m), topic=t)
-           for i, (m, t, v) in enumerate(specs)]
+    run = [
+        q(f"q{i}", f"Q{i}", verdict=v, weight=float(len(specs) - i) + 0.5, missing=sorted(m), topic=t)
+        for i, (m, t, v) in enumerate(specs)
+    ]
     briefs = content_briefs(run)
     gap_ids = sorted(x["id"] for x in run if x["verdict"] == "gap")
     assert sorted(i for b in briefs for i in b["questions"]) == gap_ids

@@ -12,12 +12,19 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 from scipy.stats import mannwhitneyu
 
-from auditor.judgement.audit import run_audit
-from auditor.judgement.calibrate import (candidate_thresholds, calibrate, choose_threshold, format_calibration,
-                               gap_metrics, load_labels, roc_auc)
 from auditor.cli import cli
 from auditor.config import Config, SupportConfig
 from auditor.errors import InputError
+from auditor.judgement.audit import run_audit
+from auditor.judgement.calibrate import (
+    calibrate,
+    candidate_thresholds,
+    choose_threshold,
+    format_calibration,
+    gap_metrics,
+    load_labels,
+    roc_auc,
+)
 from auditor.models import Question
 
 try:
@@ -41,9 +48,12 @@ u4,Is fluoride added to the drinking water?,no,
 
 # --- measures ---------------------------------------------------------------------------------------
 
+
 @settings(max_examples=80, deadline=None)
-@given(pos=st.lists(st.sampled_from([0.0, 0.1, 0.2, 0.5, 0.7, 1.0]), min_size=1, max_size=15),
-       neg=st.lists(st.sampled_from([0.0, 0.1, 0.3, 0.5, 0.9]), min_size=1, max_size=15))
+@given(
+    pos=st.lists(st.sampled_from([0.0, 0.1, 0.2, 0.5, 0.7, 1.0]), min_size=1, max_size=15),
+    neg=st.lists(st.sampled_from([0.0, 0.1, 0.3, 0.5, 0.9]), min_size=1, max_size=15),
+)
 def test_roc_auc_is_the_mann_whitney_statistic(pos, neg):
     # AUC = U / (n1·n0) (Hanley & McNeil 1982); scipy's mannwhitneyu is the reference, ties included.
     assert roc_auc(pos, neg) == pytest.approx(mannwhitneyu(pos, neg).statistic / (len(pos) * len(neg)))
@@ -85,15 +95,19 @@ def test_choose_threshold_max_f1_and_target_precision():
 
 # --- labels files -----------------------------------------------------------------------------------
 
-@pytest.mark.parametrize("text, message", [
-    ("question,answerable,colour\nq,yes,red\nr,no,blue\n", "unknown column(s) colour"),
-    ("question\nq\n", "need the column(s) answerable"),
-    ("question,answerable\nq,perhaps\n", "line 2: answerable must be yes or no, not 'perhaps'"),
-    ("question,answerable\n,yes\n", "line 2: empty question"),
-    ("question,answerable\nq,yes\nr,yes\n", "both answerable and unanswerable"),
-    ("question,answerable\n", "no labelled questions"),
-    ("question,answerable\nq,yes,extra\nr,no\n", "line 2 has more fields than the header"),
-])
+
+@pytest.mark.parametrize(
+    "text, message",
+    [
+        ("question,answerable,colour\nq,yes,red\nr,no,blue\n", "unknown column(s) colour"),
+        ("question\nq\n", "need the column(s) answerable"),
+        ("question,answerable\nq,perhaps\n", "line 2: answerable must be yes or no, not 'perhaps'"),
+        ("question,answerable\n,yes\n", "line 2: empty question"),
+        ("question,answerable\nq,yes\nr,yes\n", "both answerable and unanswerable"),
+        ("question,answerable\n", "no labelled questions"),
+        ("question,answerable\nq,yes,extra\nr,no\n", "line 2 has more fields than the header"),
+    ],
+)
 def test_bad_labels_files_give_one_line_errors(tmp_path, text, message):
     path = tmp_path / "labels.csv"
     path.write_text(text, encoding="utf-8")
@@ -117,6 +131,7 @@ def test_labels_are_read_with_expected_documents(tmp_path):
 
 
 # --- calibrating a store ----------------------------------------------------------------------------
+
 
 @pytest.fixture
 def labelled(store, tmp_path):
@@ -196,8 +211,10 @@ def demo_store(tmp_path_factory):
     target = tmp_path_factory.mktemp("calibrate") / "demo"
     shutil.copytree(DEMO, target)
     text = (target / "audit.toml").read_text(encoding="utf-8")
-    (target / "audit.toml").write_text(text.replace("../../reports/demo/auditor.db", "work/auditor.db")
-                                       .replace("../../reports/demo", "work/report"), encoding="utf-8")
+    (target / "audit.toml").write_text(
+        text.replace("../../reports/demo/auditor.db", "work/auditor.db").replace("../../reports/demo", "work/report"),
+        encoding="utf-8",
+    )
     config = load_config(target / "audit.toml", env={})
     with Store(config.database) as store:
         ingest_corpus(store, config, jobs=1)

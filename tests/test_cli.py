@@ -30,14 +30,17 @@ def test_group_lists_every_command(runner):
         assert f"  {command} " in result.output
 
 
-@pytest.mark.parametrize("args", [
-    ["scan", "--bogus"],
-    ["scan", "--as-of", "not-a-date"],
-    ["search"],
-    ["calibrate"],
-    ["ingest"],
-    ["nonsense"],
-])
+@pytest.mark.parametrize(
+    "args",
+    [
+        ["scan", "--bogus"],
+        ["scan", "--as-of", "not-a-date"],
+        ["search"],
+        ["calibrate"],
+        ["ingest"],
+        ["nonsense"],
+    ],
+)
 def test_bad_usage_exits_2(runner, args):
     assert runner.invoke(cli, args).exit_code == 2
 
@@ -79,8 +82,11 @@ def test_report_without_runs_exits_1(runner, tmp_path):
 
 
 def test_dates_prints_json_lines_from_stdin(runner):
-    result = runner.invoke(cli, ["dates", "--reference-date", "2026-12-01", "-"],
-                           input="Rates are effective March 1, 2025. Call us any time.\n")
+    result = runner.invoke(
+        cli,
+        ["dates", "--reference-date", "2026-12-01", "-"],
+        input="Rates are effective March 1, 2025. Call us any time.\n",
+    )
     assert result.exit_code == 0, result.output
     rows = [json.loads(line) for line in result.output.splitlines()]
     assert rows[0]["expression"] == "March 1, 2025"
@@ -97,8 +103,11 @@ def test_dates_unreadable_file_exits_1(runner, tmp_path):
 
 def test_console_script_entry_point(tmp_path):
     # The installed entry point goes through main(): same one-line error, exit 1, no traceback.
-    result = subprocess.run([sys.executable, "-c", "from auditor.cli import main; main()", "scan", "-c",
-                             str(tmp_path / "none.toml")], capture_output=True, text=True)
+    result = subprocess.run(
+        [sys.executable, "-c", "from auditor.cli import main; main()", "scan", "-c", str(tmp_path / "none.toml")],
+        capture_output=True,
+        text=True,
+    )
     assert result.returncode == 1
     assert result.stderr.strip().count("\n") == 0 and "none.toml" in result.stderr
 
@@ -109,13 +118,20 @@ def test_dates_takes_calendar_settings_from_config_and_flags(runner, tmp_path):
     config = tmp_path / "audit.toml"
     config.write_text("[corpus]\nfiscal_year_start = 7\nday_first = true\n", encoding="utf-8")
     text = "The FY2025 budget applies. The notice of 03/04/2025 stands.\n"
-    rows = [json.loads(line) for line in runner.invoke(
-        cli, ["dates", "-c", str(config), "--reference-date", "2026-12-01", "-"], input=text).output.splitlines()]
+    rows = [
+        json.loads(line)
+        for line in runner.invoke(
+            cli, ["dates", "-c", str(config), "--reference-date", "2026-12-01", "-"], input=text
+        ).output.splitlines()
+    ]
     fiscal = next(r for r in rows if "FY2025" in r["expression"])
     assert (fiscal["start"], fiscal["end"]) == ("2024-07-01", "2025-06-30")
     numeric = next(r for r in rows if "03/04/2025" in r["expression"])
     assert numeric["start"] == "2025-04-03"
-    flipped = [json.loads(line) for line in runner.invoke(
-        cli, ["dates", "-c", str(config), "--month-first", "--reference-date", "2026-12-01", "-"],
-        input=text).output.splitlines()]
+    flipped = [
+        json.loads(line)
+        for line in runner.invoke(
+            cli, ["dates", "-c", str(config), "--month-first", "--reference-date", "2026-12-01", "-"], input=text
+        ).output.splitlines()
+    ]
     assert next(r for r in flipped if "03/04/2025" in r["expression"])["start"] == "2025-03-04"

@@ -24,7 +24,9 @@ def test_defaults_without_file():
 
 
 def test_file_values_and_relative_paths(tmp_path):
-    path = write(tmp_path, """
+    path = write(
+        tmp_path,
+        """
 database = "data/a.db"
 as_of = 2026-12-01
 questions = ["q.csv"]
@@ -38,7 +40,8 @@ path = "rates/**"
 horizon_days = 90
 [owners]
 "billing/**" = "Billing"
-""")
+""",
+    )
     config = load_config(path, env={})
     assert config.database == tmp_path / "data" / "a.db"
     assert config.as_of == date(2026, 12, 1)
@@ -67,19 +70,22 @@ def test_unknown_key_warns_and_is_ignored(tmp_path):
     assert "'horizon'" in warnings[0] and "'freshness.horizon_day'" in warnings[1]
 
 
-@pytest.mark.parametrize("text, key", [
-    ("[freshness]\nhorizon_days = \"soon\"\n", "freshness.horizon_days"),
-    ("as_of = \"yesterday\"\n", "as_of"),
-    ("[corpus]\nfollow_symlinks = 3\n", "corpus.follow_symlinks"),
-    ("[support]\nthreshold = 1.5\n", "support.threshold"),
-    ("[corpus]\nhemisphere = \"east\"\n", "corpus.hemisphere"),
-    ("[[freshness.rules]]\nhorizon_days = 3\n", "freshness.rules[0]"),
-    ("questions = 3\n", "questions"),
-    ("[gate]\nmax_gap_share = 1.5\n", "gate.max_gap_share"),
-    ("[retrieval]\nvariant = \"bm99\"\n", "lucene"),  # the message lists the valid variants
-    ("[retrieval]\nlanguage = \"klingon\"\n", "klingon"),
-    ("[gate]\nmax_new_gaps = -1\n", "gate.max_new_gaps"),
-])
+@pytest.mark.parametrize(
+    "text, key",
+    [
+        ('[freshness]\nhorizon_days = "soon"\n', "freshness.horizon_days"),
+        ('as_of = "yesterday"\n', "as_of"),
+        ("[corpus]\nfollow_symlinks = 3\n", "corpus.follow_symlinks"),
+        ("[support]\nthreshold = 1.5\n", "support.threshold"),
+        ('[corpus]\nhemisphere = "east"\n', "corpus.hemisphere"),
+        ("[[freshness.rules]]\nhorizon_days = 3\n", "freshness.rules[0]"),
+        ("questions = 3\n", "questions"),
+        ("[gate]\nmax_gap_share = 1.5\n", "gate.max_gap_share"),
+        ('[retrieval]\nvariant = "bm99"\n', "lucene"),  # the message lists the valid variants
+        ('[retrieval]\nlanguage = "klingon"\n', "klingon"),
+        ("[gate]\nmax_new_gaps = -1\n", "gate.max_new_gaps"),
+    ],
+)
 def test_bad_value_names_key_and_file(tmp_path, text, key):
     path = write(tmp_path, text)
     with pytest.raises(ConfigError) as info:

@@ -8,13 +8,45 @@ from hypothesis import strategies as st
 from auditor.config import load_config
 from auditor.errors import ConfigError
 
-KEYS = ["database", "as_of", "questions", "owners", "corpus", "freshness", "retrieval", "support",
-        "gate", "report", "paths", "horizon_days", "rules", "path", "topic", "threshold", "k1", "jobs",
-        "follow_symlinks", "sitemaps", "file", "url_prefix", "hemisphere", "fiscal_year_start", "out"]
-scalars = st.one_of(st.integers(-10**6, 10**6), st.floats(allow_nan=False, allow_infinity=False),
-                    st.booleans(), st.text(max_size=12), st.dates())
-values = st.recursive(scalars, lambda inner: st.one_of(
-    st.lists(inner, max_size=3), st.dictionaries(st.sampled_from(KEYS), inner, max_size=4)), max_leaves=12)
+KEYS = [
+    "database",
+    "as_of",
+    "questions",
+    "owners",
+    "corpus",
+    "freshness",
+    "retrieval",
+    "support",
+    "gate",
+    "report",
+    "paths",
+    "horizon_days",
+    "rules",
+    "path",
+    "topic",
+    "threshold",
+    "k1",
+    "jobs",
+    "follow_symlinks",
+    "sitemaps",
+    "file",
+    "url_prefix",
+    "hemisphere",
+    "fiscal_year_start",
+    "out",
+]
+scalars = st.one_of(
+    st.integers(-(10**6), 10**6),
+    st.floats(allow_nan=False, allow_infinity=False),
+    st.booleans(),
+    st.text(max_size=12),
+    st.dates(),
+)
+values = st.recursive(
+    scalars,
+    lambda inner: st.one_of(st.lists(inner, max_size=3), st.dictionaries(st.sampled_from(KEYS), inner, max_size=4)),
+    max_leaves=12,
+)
 
 
 def toml_value(value) -> str:

@@ -82,7 +82,9 @@ page.
 
 # December: the leak page is replaced by an old text (its question goes stale), and a rain-barrel
 # rebate page is published (its question, a gap in November, is covered).
-DECEMBER_EDIT = ("field/report-a-leak.md", """---
+DECEMBER_EDIT = (
+    "field/report-a-leak.md",
+    """---
 title: Reporting a leak
 owner: Field Operations
 updated: 2021-03-01
@@ -92,8 +94,11 @@ updated: 2021-03-01
 As of March 2021, to report a leak in the street, a broken hydrant or water running from a meter
 box, call the Field Operations leak line. Crews respond to leak reports around the clock. Tell us
 the nearest address or cross street and whether the leaking water is flooding a road or a basement.
-""")
-DECEMBER_ADD = ("conservation/rain-barrel-rebate.md", """---
+""",
+)
+DECEMBER_ADD = (
+    "conservation/rain-barrel-rebate.md",
+    """---
 title: Rain barrel rebate
 owner: Conservation Programs
 updated: 2026-11-20
@@ -103,7 +108,8 @@ updated: 2026-11-20
 Customers who install a rain barrel to collect roof runoff for garden watering can apply for a
 rain barrel rebate of up to 50 dollars per barrel, two barrels per household. Send the receipt and
 a photo of the installed rain barrel with the rebate application form.
-""")
+""",
+)
 
 QUESTIONS_CSV = """id,question,owner,weight
 q-phone,Can I pay my water bill by phone?,Billing,88
@@ -225,22 +231,29 @@ def environment() -> dict:
 
 def run_scan(root: Path, as_of: str, *extra: str, timeout: float = 300) -> subprocess.CompletedProcess:
     """The real `auditor scan` in a fresh process, in `root`."""
-    return subprocess.run([sys.executable, "-m", "auditor.cli", *scan_command(as_of, *extra)], cwd=root,
-                          env=environment(), capture_output=True, text=True, timeout=timeout)
+    return subprocess.run(
+        [sys.executable, "-m", "auditor.cli", *scan_command(as_of, *extra)],
+        cwd=root,
+        env=environment(),
+        capture_output=True,
+        text=True,
+        timeout=timeout,
+    )
 
 
-def wrapped_scan(root: Path, as_of: str, mode: str, target: str = "-", at: int = 0, *extra: str,
-                 wait: bool = True):
+def wrapped_scan(root: Path, as_of: str, mode: str, target: str = "-", at: int = 0, *extra: str, wait: bool = True):
     """`auditor scan` under KILLER; returns the CompletedProcess (or the Popen when not waiting)."""
     counts = root / "stage-calls.json"
     args = [sys.executable, "-c", KILLER, mode, target, str(at), str(counts), *scan_command(as_of, *extra)]
     if not wait:
-        return subprocess.Popen(args, cwd=root, env=environment(), stdout=subprocess.PIPE,
-                                stderr=subprocess.PIPE, text=True)
+        return subprocess.Popen(
+            args, cwd=root, env=environment(), stdout=subprocess.PIPE, stderr=subprocess.PIPE, text=True
+        )
     return subprocess.run(args, cwd=root, env=environment(), capture_output=True, text=True, timeout=300)
 
 
 # --- what must hold ---------------------------------------------------------------------------------
+
 
 def comparable(results: dict) -> dict:
     """results.json without what legitimately differs between two equal scans: run ids, timestamps,
@@ -258,18 +271,26 @@ def db_facts(db: Path) -> dict:
         return {
             "integrity": one("PRAGMA integrity_check"),
             "duplicate_documents": one("SELECT count(*) - count(DISTINCT path) FROM documents"),
-            "duplicate_passages": one("SELECT count(*) FROM (SELECT document_id, ordinal FROM passages "
-                                      "GROUP BY document_id, ordinal HAVING count(*) > 1)"),
-            "duplicate_statements": one("SELECT count(*) FROM (SELECT passage_id, char_start, char_end, role "
-                                        "FROM statements GROUP BY 1, 2, 3, 4 HAVING count(*) > 1)"),
+            "duplicate_passages": one(
+                "SELECT count(*) FROM (SELECT document_id, ordinal FROM passages "
+                "GROUP BY document_id, ordinal HAVING count(*) > 1)"
+            ),
+            "duplicate_statements": one(
+                "SELECT count(*) FROM (SELECT passage_id, char_start, char_end, role "
+                "FROM statements GROUP BY 1, 2, 3, 4 HAVING count(*) > 1)"
+            ),
             "duplicate_terms": one("SELECT count(*) - count(DISTINCT term) FROM terms"),
-            "duplicate_results": one("SELECT count(*) FROM (SELECT run_id, qid FROM results "
-                                     "GROUP BY run_id, qid HAVING count(*) > 1)"),
+            "duplicate_results": one(
+                "SELECT count(*) FROM (SELECT run_id, qid FROM results GROUP BY run_id, qid HAVING count(*) > 1)"
+            ),
             "orphan_passages": one("SELECT count(*) FROM passages WHERE document_id NOT IN (SELECT id FROM documents)"),
             "orphan_results": one("SELECT count(*) FROM results WHERE run_id NOT IN (SELECT id FROM runs)"),
             "documents": sorted(conn.execute("SELECT path, sha256, status FROM documents").fetchall()),
-            "passages": sorted(conn.execute("SELECT d.path, p.ordinal, p.text FROM passages p "
-                                            "JOIN documents d ON d.id = p.document_id").fetchall()),
+            "passages": sorted(
+                conn.execute(
+                    "SELECT d.path, p.ordinal, p.text FROM passages p JOIN documents d ON d.id = p.document_id"
+                ).fetchall()
+            ),
             "statements": one("SELECT count(*) FROM statements"),
             "terms": sorted(r[0] for r in conn.execute("SELECT term FROM terms")),
         }
@@ -277,8 +298,16 @@ def db_facts(db: Path) -> dict:
         conn.close()
 
 
-CLEAN_DB_FACTS = {"integrity": "ok", "duplicate_documents": 0, "duplicate_passages": 0, "duplicate_statements": 0,
-                  "duplicate_terms": 0, "duplicate_results": 0, "orphan_passages": 0, "orphan_results": 0}
+CLEAN_DB_FACTS = {
+    "integrity": "ok",
+    "duplicate_documents": 0,
+    "duplicate_passages": 0,
+    "duplicate_statements": 0,
+    "duplicate_terms": 0,
+    "duplicate_results": 0,
+    "orphan_passages": 0,
+    "orphan_results": 0,
+}
 
 
 def folder_bytes(folder: Path) -> dict[str, bytes]:
@@ -319,8 +348,11 @@ def kill_points():
     """(stage, fraction) pairs drawn with a fixed seed, one in each equal slice of the stage so the
     points spread over it; the kill comes at that fraction of the stage's call count."""
     rng = random.Random(SEED)
-    points = [(stage, (k + rng.random()) / KILLS_PER_STAGE)
-              for stage in ("ingest", "audit", "report") for k in range(KILLS_PER_STAGE)]
+    points = [
+        (stage, (k + rng.random()) / KILLS_PER_STAGE)
+        for stage in ("ingest", "audit", "report")
+        for k in range(KILLS_PER_STAGE)
+    ]
     # ... plus the very end of the audit stage, where its run is written in one transaction, and
     # the moment reports/latest is being switched.
     return points + [("audit", 0.999), ("latest", rng.random())]

@@ -9,21 +9,43 @@ import json
 
 import pytest
 from click.testing import CliRunner
+from conftest import DEMO
 
 from auditor.cli import cli
 from auditor.config import load_config
 from auditor.scan import scan
 from auditor.store import Store
 
-from conftest import DEMO
-
 # results.json format 1, DESIGN.md §4.3: the keys every consumer may rely on.
 RUN_KEYS = {"id", "as_of", "horizon_days", "started", "corpus"}
 SUMMARY_KEYS = {"questions", "covered", "stale", "gap", "weight", "fallback_exposure", "stale_exposure"}
-QUESTION_KEYS = {"id", "question", "owner", "topic", "weight", "verdict", "reasons", "support",
-                 "missing_terms", "evidence"}
-EVIDENCE_KEYS = {"document", "page", "section", "passage", "score", "support", "supporting", "as_of",
-                 "as_of_source", "expires", "fresh", "reasons", "text"}
+QUESTION_KEYS = {
+    "id",
+    "question",
+    "owner",
+    "topic",
+    "weight",
+    "verdict",
+    "reasons",
+    "support",
+    "missing_terms",
+    "evidence",
+}
+EVIDENCE_KEYS = {
+    "document",
+    "page",
+    "section",
+    "passage",
+    "score",
+    "support",
+    "supporting",
+    "as_of",
+    "as_of_source",
+    "expires",
+    "fresh",
+    "reasons",
+    "text",
+}
 
 
 def expected():
@@ -33,14 +55,22 @@ def expected():
 
 def comparable(run):
     """The parts of a run that must not change between identical scans."""
-    return [(q["id"], q["verdict"], q["reasons"], round(q["support"], 9),
-             [(e["document"], e["passage"] is not None, round(e["score"], 9)) for e in q["evidence"]])
-            for q in run["questions"]], run["summary"]
+    return [
+        (
+            q["id"],
+            q["verdict"],
+            q["reasons"],
+            round(q["support"], 9),
+            [(e["document"], e["passage"] is not None, round(e["score"], 9)) for e in q["evidence"]],
+        )
+        for q in run["questions"]
+    ], run["summary"]
 
 
 @pytest.fixture(scope="module")
 def demo_scans(tmp_path_factory):
     import shutil
+
     target = tmp_path_factory.mktemp("e2e") / "demo"
     shutil.copytree(DEMO, target)
     text = (target / "audit.toml").read_text(encoding="utf-8")
@@ -61,8 +91,10 @@ def test_demo_verdicts_match_expected(demo_scans):
     for qid, row in want.items():
         reasons = sorted(r for r in row["reasons"].split(";") if r)
         if got[qid]["verdict"] != row["verdict"] or sorted(got[qid]["reasons"]) != reasons:
-            mismatches.append(f"{qid}: expected {row['verdict']} {reasons}, got {got[qid]['verdict']} "
-                              f"{got[qid]['reasons']} (support {got[qid]['support']:.2f})")
+            mismatches.append(
+                f"{qid}: expected {row['verdict']} {reasons}, got {got[qid]['verdict']} "
+                f"{got[qid]['reasons']} (support {got[qid]['support']:.2f})"
+            )
     assert not mismatches, "\n".join(mismatches)
 
 
@@ -81,7 +113,9 @@ def test_results_json_follows_format_1(demo_scans):
     assert RUN_KEYS <= set(data["run"]) and {"documents", "passages", "failed"} <= set(data["run"]["corpus"])
     assert SUMMARY_KEYS <= set(data["summary"])
     assert data["summary"]["questions"] == len(data["questions"]) == len(expected())
-    assert data["summary"]["covered"] + data["summary"]["stale"] + data["summary"]["gap"] == data["summary"]["questions"]
+    assert (
+        data["summary"]["covered"] + data["summary"]["stale"] + data["summary"]["gap"] == data["summary"]["questions"]
+    )
     for q in data["questions"]:
         assert QUESTION_KEYS <= set(q)
         for e in q["evidence"]:
@@ -128,8 +162,18 @@ def test_question_set_is_kept_in_the_store(demo_scans):
 
 def test_audit_of_a_query_log_reports_merges_and_redactions(demo_scans, tmp_path):
     config, _, _ = demo_scans
-    result = CliRunner().invoke(cli, ["audit", "-c", str(config.source), "--questions",
-                                      str(DEMO / "querylog.csv"), "--out", str(tmp_path / "log-report")])
+    result = CliRunner().invoke(
+        cli,
+        [
+            "audit",
+            "-c",
+            str(config.source),
+            "--questions",
+            str(DEMO / "querylog.csv"),
+            "--out",
+            str(tmp_path / "log-report"),
+        ],
+    )
     assert result.exit_code in (0, 3), result.output
     summary = [line for line in result.stderr.splitlines() if line.startswith("querylog.csv: ")]
     assert summary and "merged" in summary[0] and "redacted" in summary[0]

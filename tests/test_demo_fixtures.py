@@ -14,7 +14,7 @@ import csv
 import importlib.util
 import json
 import re
-from datetime import date, datetime, timezone
+from datetime import UTC, date, datetime
 from pathlib import Path
 
 import pytest
@@ -80,10 +80,11 @@ def pdf_date(value: str) -> datetime:
     m = re.fullmatch(r"D:(\d{4})(\d{2})(\d{2})(\d{2})(\d{2})(\d{2})(Z|[+-]\d{2}'?\d{2}'?)?", value)
     assert m, f"not a PDF date: {value!r}"
     assert m.group(7) in (None, "Z"), "the demo writes UTC dates"
-    return datetime(*map(int, m.groups()[:6]), tzinfo=timezone.utc)
+    return datetime(*map(int, m.groups()[:6]), tzinfo=UTC)
 
 
 # --- questions, expected verdicts, labels ----------------------------------------------------------
+
 
 def test_questions_are_well_formed():
     rows = read_csv("questions.csv")
@@ -153,11 +154,13 @@ def test_labels_point_at_real_documents():
 
 # --- clear-cut for a lexical judge ----------------------------------------------------------------
 
+
 @pytest.fixture(scope="module")
 def corpus_terms():
     tokenizer = Tokenizer()
-    texts = {rel: set(tokenizer.tokenize(document_text(rel)))
-             for rel in kb_documents() if rel not in (BROKEN, EXCLUDED)}
+    texts = {
+        rel: set(tokenizer.tokenize(document_text(rel))) for rel in kb_documents() if rel not in (BROKEN, EXCLUDED)
+    }
     return tokenizer, texts
 
 
@@ -184,6 +187,7 @@ def test_supported_questions_share_their_terms_with_the_deciding_document(corpus
 
 
 # --- documents ------------------------------------------------------------------------------------
+
 
 def test_knowledge_base_has_every_format_and_owner():
     docs = kb_documents()
@@ -250,13 +254,13 @@ def test_exactly_one_document_has_no_date_at_all():
 
 
 def test_safety_pages_carry_the_official_notice_caution():
-    for rel in ("quality/boil-water-advisory.md", "quality/taste-and-odor.md",
-                "quality/water-quality-report-2023.pdf"):
+    for rel in ("quality/boil-water-advisory.md", "quality/taste-and-odor.md", "quality/water-quality-report-2023.pdf"):
         text = " ".join(document_text(rel).split())
         assert "prevail" in text and "Health Department" in text, rel
 
 
 # --- PDFs -----------------------------------------------------------------------------------------
+
 
 def test_pdfs_have_the_stated_info_dates_and_text_layer():
     generator = make_pdfs()
@@ -299,6 +303,7 @@ def test_make_pdfs_regenerates_byte_identical_files(tmp_path):
 
 
 # --- config and query log -------------------------------------------------------------------------
+
 
 def test_audit_config_loads_cleanly():
     warnings = []

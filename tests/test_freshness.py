@@ -20,17 +20,25 @@ T = date(2026, 12, 1)
 H = 365
 
 
-def fresh_of(text, *, doc_date=date(2026, 6, 1), source="front_matter:updated", expires=None,
-             horizon=H, today=T, reference=None):
+def fresh_of(
+    text, *, doc_date=date(2026, 6, 1), source="front_matter:updated", expires=None, horizon=H, today=T, reference=None
+):
     statements = extract(text, reference or doc_date)
-    return passage_freshness(statements, audit_date=today, horizon_days=horizon, doc_date=doc_date,
-                             doc_date_source=source, doc_expires=expires)
+    return passage_freshness(
+        statements,
+        audit_date=today,
+        horizon_days=horizon,
+        doc_date=doc_date,
+        doc_date_source=source,
+        doc_expires=expires,
+    )
 
 
 def test_recent_statement_is_fresh():
     f = fresh_of("As of March 1, 2026, the base charge is $19.10.")
-    assert f == Freshness(as_of=date(2026, 3, 1), as_of_source="statement", expires=None, fresh=True,
-                          reasons=(), age_days=275)  # Mar..Nov 2026: 31+30+31+30+31+31+30+31+30 = 275
+    assert f == Freshness(
+        as_of=date(2026, 3, 1), as_of_source="statement", expires=None, fresh=True, reasons=(), age_days=275
+    )  # Mar..Nov 2026: 31+30+31+30+31+31+30+31+30 = 275
 
 
 def test_too_old_statement_wins_over_a_recent_document_date():
@@ -111,9 +119,9 @@ def test_several_reasons_together():
     assert f.as_of == date(2024, 3, 31)
 
 
-@pytest.mark.parametrize("source, expected", [("front_matter:updated", "metadata"),
-                                              ("pdf:info:ModDate", "metadata"),
-                                              ("file:mtime", "file")])
+@pytest.mark.parametrize(
+    "source, expected", [("front_matter:updated", "metadata"), ("pdf:info:ModDate", "metadata"), ("file:mtime", "file")]
+)
 def test_specificity_statement_metadata_file(source, expected):
     undated_text = "Call the billing team for a payment plan."
     assert fresh_of(undated_text, source=source).as_of_source == expected
@@ -148,11 +156,14 @@ def test_is_range():
 
 # --- horizons -----------------------------------------------------------------------------------------
 
-CONFIG = FreshnessConfig(horizon_days=365, rules=(
-    HorizonRule(horizon_days=30, path="advisories/*"),
-    HorizonRule(horizon_days=730, path="**/*.pdf"),
-    HorizonRule(horizon_days=90, topic="Outages"),
-))
+CONFIG = FreshnessConfig(
+    horizon_days=365,
+    rules=(
+        HorizonRule(horizon_days=30, path="advisories/*"),
+        HorizonRule(horizon_days=730, path="**/*.pdf"),
+        HorizonRule(horizon_days=90, topic="Outages"),
+    ),
+)
 
 
 def test_horizon_precedence():
@@ -169,9 +180,12 @@ def test_horizon_precedence():
 
 def test_horizon_rules_from_a_config_file(tmp_path):
     path = tmp_path / "audit.toml"
-    path.write_text('[freshness]\nhorizon_days = 180\n'
-                    '[[freshness.rules]]\npath = "rates/**"\nhorizon_days = 400\n'
-                    '[[freshness.rules]]\ntopic = "advisories"\nhorizon_days = 14\n', encoding="utf-8")
+    path.write_text(
+        "[freshness]\nhorizon_days = 180\n"
+        '[[freshness.rules]]\npath = "rates/**"\nhorizon_days = 400\n'
+        '[[freshness.rules]]\ntopic = "advisories"\nhorizon_days = 14\n',
+        encoding="utf-8",
+    )
     config = load_config(path, env={})
     assert horizon_for(config.freshness, path="rates/2025/residential.md") == 400
     assert horizon_for(config.freshness, topic="Advisories") == 14
@@ -179,6 +193,7 @@ def test_horizon_rules_from_a_config_file(tmp_path):
 
 
 # --- corpus figures -----------------------------------------------------------------------------------
+
 
 def test_corpus_freshness_and_age_by_hand():
     # Cho & Garcia-Molina 2000: F = (1/N) Σ F_i; A = (1/N) Σ A_i with A_i = 0 when up to date.

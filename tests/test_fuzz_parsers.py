@@ -11,7 +11,6 @@ from __future__ import annotations
 import json
 
 import pytest
-
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
@@ -19,13 +18,17 @@ from auditor.errors import AuditorError
 from auditor.ingest.html import parse_html
 from auditor.ingest.markdown import parse_markdown
 from auditor.ingest.pdf import parse_pdf
+from auditor.ingest.segment import document_text, segment
 from auditor.ingest.text import parse_text
 from auditor.ingest.walk import IngestFailure
 from auditor.models import Block, MetaDate, ParsedDocument
-from auditor.ingest.segment import document_text, segment
 
-FUZZ = settings(max_examples=100, deadline=3000, derandomize=True,
-                suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large])
+FUZZ = settings(
+    max_examples=100,
+    deadline=3000,
+    derandomize=True,
+    suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large],
+)
 PATH = "kb/fuzzed.file"
 DATE_KINDS = {"modified", "published", "reviewed", "expires", "created"}
 
@@ -39,14 +42,14 @@ KNOWN_ESCAPES: dict[str, tuple[type[BaseException], ...]] = {}
 def parse_or_fail(parser, data: bytes, known: bool = True):
     try:
         parsed = parser(data, PATH)
-    except KNOWN_ESCAPES.get(parser.__name__, ()) if known else ():
+    except KNOWN_ESCAPES.get(parser.__name__, ()) if known else ():  # noqa: B030 - a tuple of classes
         return None
     except IngestFailure as exc:
         assert str(exc).startswith(repr(PATH) + ": "), str(exc)
         assert "\n" not in str(exc)
         return None
     except AuditorError as exc:  # pragma: no cover
-        raise AssertionError(f"expected IngestFailure, got {type(exc).__name__}: {exc}")
+        raise AssertionError(f"expected IngestFailure, got {type(exc).__name__}: {exc}") from exc
     assert isinstance(parsed, ParsedDocument)
     assert parsed.blocks and all(isinstance(b, Block) and b.text.strip() for b in parsed.blocks)
     assert all(isinstance(h, str) for b in parsed.blocks for h in b.heading_path)
@@ -55,27 +58,134 @@ def parse_or_fail(parser, data: bytes, known: bool = True):
     # segment.py's documented invariant: each passage is the exact slice of the document text.
     text = document_text(parsed.blocks)
     for p in segment(parsed.blocks):
-        assert text[p.char_start:p.char_end] == p.text
+        assert text[p.char_start : p.char_end] == p.text
     return parsed
 
 
 # --- HTML ------------------------------------------------------------------------------------------
 
-TAGS = ["div", "p", "span", "main", "article", "section", "nav", "header", "footer", "aside", "h1", "h2", "h3",
-        "ul", "ol", "li", "table", "tr", "td", "th", "pre", "code", "br", "img", "a", "script", "style", "time",
-        "meta", "title", "template", "svg", "form", "b", "i", "dl", "dt", "dd", "blockquote", "iframe"]
-DATE_VALUES = ["2024-03-01", "2024-03-01T10:00:00Z", "2024-13-45", "Tue, 15 Nov 1994 08:12:31 GMT", "yesterday",
-               "", "0000-00-00", "2024", "2024-02", "9999-12-31T23:59:59+14:00", "\x00", "2024-03-01T25:61"]
+TAGS = [
+    "div",
+    "p",
+    "span",
+    "main",
+    "article",
+    "section",
+    "nav",
+    "header",
+    "footer",
+    "aside",
+    "h1",
+    "h2",
+    "h3",
+    "ul",
+    "ol",
+    "li",
+    "table",
+    "tr",
+    "td",
+    "th",
+    "pre",
+    "code",
+    "br",
+    "img",
+    "a",
+    "script",
+    "style",
+    "time",
+    "meta",
+    "title",
+    "template",
+    "svg",
+    "form",
+    "b",
+    "i",
+    "dl",
+    "dt",
+    "dd",
+    "blockquote",
+    "iframe",
+]
+DATE_VALUES = [
+    "2024-03-01",
+    "2024-03-01T10:00:00Z",
+    "2024-13-45",
+    "Tue, 15 Nov 1994 08:12:31 GMT",
+    "yesterday",
+    "",
+    "0000-00-00",
+    "2024",
+    "2024-02",
+    "9999-12-31T23:59:59+14:00",
+    "\x00",
+    "2024-03-01T25:61",
+]
 ATTRS = st.dictionaries(
-    st.sampled_from(["class", "id", "role", "hidden", "aria-hidden", "datetime", "itemprop", "property", "name",
-                     "content", "http-equiv", "charset", "alt", "type", "pubdate"]),
-    st.one_of(st.sampled_from(DATE_VALUES + ["cookie-banner", "main", "navigation", "true", "dateModified",
-                                              "article:modified_time", "DCTERMS.modified", "last-modified",
-                                              "application/ld+json", "utf-8", "x-unknown"]),
-              st.text(max_size=12)),
-    max_size=3)
-WORDS = st.sampled_from(["Leaks", "are", "reported", "on", "the", "hotline", "as of", "March 2024", "&amp;",
-                         "&#0;", "&#x110000;", "&nbsp;", "<", ">", "\"", "'", "{{ x }}", "é", "\u202e", "\n", " "])
+    st.sampled_from(
+        [
+            "class",
+            "id",
+            "role",
+            "hidden",
+            "aria-hidden",
+            "datetime",
+            "itemprop",
+            "property",
+            "name",
+            "content",
+            "http-equiv",
+            "charset",
+            "alt",
+            "type",
+            "pubdate",
+        ]
+    ),
+    st.one_of(
+        st.sampled_from(
+            DATE_VALUES
+            + [
+                "cookie-banner",
+                "main",
+                "navigation",
+                "true",
+                "dateModified",
+                "article:modified_time",
+                "DCTERMS.modified",
+                "last-modified",
+                "application/ld+json",
+                "utf-8",
+                "x-unknown",
+            ]
+        ),
+        st.text(max_size=12),
+    ),
+    max_size=3,
+)
+WORDS = st.sampled_from(
+    [
+        "Leaks",
+        "are",
+        "reported",
+        "on",
+        "the",
+        "hotline",
+        "as of",
+        "March 2024",
+        "&amp;",
+        "&#0;",
+        "&#x110000;",
+        "&nbsp;",
+        "<",
+        ">",
+        '"',
+        "'",
+        "{{ x }}",
+        "é",
+        "\u202e",
+        "\n",
+        " ",
+    ]
+)
 
 
 def _attrs(attrs: dict) -> str:
@@ -85,14 +195,22 @@ def _attrs(attrs: dict) -> str:
 html_nodes = st.recursive(
     st.lists(WORDS, max_size=6).map(" ".join),
     lambda inner: st.tuples(st.sampled_from(TAGS), ATTRS, st.lists(inner, max_size=4)).map(
-        lambda t: f"<{t[0]}{_attrs(t[1])}>{''.join(t[2])}</{t[0]}>"),
-    max_leaves=30)
+        lambda t: f"<{t[0]}{_attrs(t[1])}>{''.join(t[2])}</{t[0]}>"
+    ),
+    max_leaves=30,
+)
 jsonld = st.recursive(
     st.one_of(st.none(), st.booleans(), st.integers(), st.sampled_from(DATE_VALUES), st.text(max_size=8)),
-    lambda inner: st.one_of(st.lists(inner, max_size=3),
-                            st.dictionaries(st.sampled_from(["@graph", "dateModified", "datePublished", "expires",
-                                                             "@type", "author"]), inner, max_size=3)),
-    max_leaves=10).map(json.dumps)
+    lambda inner: st.one_of(
+        st.lists(inner, max_size=3),
+        st.dictionaries(
+            st.sampled_from(["@graph", "dateModified", "datePublished", "expires", "@type", "author"]),
+            inner,
+            max_size=3,
+        ),
+    ),
+    max_leaves=10,
+).map(json.dumps)
 
 
 @FUZZ
@@ -123,17 +241,69 @@ def test_giant_attribute_values_and_entities_parse_or_fail_cleanly():
 
 # --- Markdown and text ------------------------------------------------------------------------------
 
-YAML_VALUES = ["2024-03-01", "2024-13-01", "yes", "no", "null", "~", "[a, b]", "{a: 1}", "'quoted'", '"x', "*anchor",
-               "&a [1]", "!!python/object:os.system", "1e400", "0x1F", "2024-03-01T10:00:00Z", ": :", "|", ">"]
+YAML_VALUES = [
+    "2024-03-01",
+    "2024-13-01",
+    "yes",
+    "no",
+    "null",
+    "~",
+    "[a, b]",
+    "{a: 1}",
+    "'quoted'",
+    '"x',
+    "*anchor",
+    "&a [1]",
+    "!!python/object:os.system",
+    "1e400",
+    "0x1F",
+    "2024-03-01T10:00:00Z",
+    ": :",
+    "|",
+    ">",
+]
 front_matter = st.lists(
-    st.tuples(st.sampled_from(["title", "owner", "updated", "last_reviewed", "date", "expires", "tags", "modified",
-                               "reviewed", "x"]),
-              st.one_of(st.sampled_from(YAML_VALUES), st.text(max_size=10))),
-    max_size=5).map(lambda kv: "---\n" + "".join(f"{k}: {v}\n" for k, v in kv) + "---\n")
-MD_LINES = st.sampled_from(["# Title", "## Section", "###### Deep", "####### seven", "Setext", "===", "---", "***",
-                            "```", "~~~", "    code", "- item", "* item", "> quote", "[link](http://x)",
-                            "![img](x.png)", "[ref][r]", "[r]: http://x", "<http://example.org>", "<!-- c", "-->",
-                            "As of March 2024 the rates apply.", "", "\t", "#", "# ", "[", "](", "<!--"])
+    st.tuples(
+        st.sampled_from(
+            ["title", "owner", "updated", "last_reviewed", "date", "expires", "tags", "modified", "reviewed", "x"]
+        ),
+        st.one_of(st.sampled_from(YAML_VALUES), st.text(max_size=10)),
+    ),
+    max_size=5,
+).map(lambda kv: "---\n" + "".join(f"{k}: {v}\n" for k, v in kv) + "---\n")
+MD_LINES = st.sampled_from(
+    [
+        "# Title",
+        "## Section",
+        "###### Deep",
+        "####### seven",
+        "Setext",
+        "===",
+        "---",
+        "***",
+        "```",
+        "~~~",
+        "    code",
+        "- item",
+        "* item",
+        "> quote",
+        "[link](http://x)",
+        "![img](x.png)",
+        "[ref][r]",
+        "[r]: http://x",
+        "<http://example.org>",
+        "<!-- c",
+        "-->",
+        "As of March 2024 the rates apply.",
+        "",
+        "\t",
+        "#",
+        "# ",
+        "[",
+        "](",
+        "<!--",
+    ]
+)
 
 
 @FUZZ
@@ -160,6 +330,7 @@ def test_any_text_in_any_supported_encoding(text, encoding):
 
 # --- PDF -------------------------------------------------------------------------------------------
 
+
 def _pdf() -> bytes:
     from fpdf import FPDF
 
@@ -181,21 +352,24 @@ def test_the_unmutated_pdf_parses():
 
 
 @settings(max_examples=80, deadline=5000, derandomize=True, suppress_health_check=[HealthCheck.too_slow])
-@given(st.lists(st.tuples(st.integers(0, len(PDF) - 1), st.binary(min_size=1, max_size=8)), min_size=1, max_size=6),
-       st.sampled_from(["overwrite", "insert", "delete"]))
+@given(
+    st.lists(st.tuples(st.integers(0, len(PDF) - 1), st.binary(min_size=1, max_size=8)), min_size=1, max_size=6),
+    st.sampled_from(["overwrite", "insert", "delete"]),
+)
 def test_mutated_pdf(edits, how):
     data = bytearray(PDF)
     for at, chunk in edits:
         if how == "overwrite":
-            data[at:at + len(chunk)] = chunk
+            data[at : at + len(chunk)] = chunk
         elif how == "insert":
             data[at:at] = chunk
         else:
-            del data[at:at + len(chunk)]
+            del data[at : at + len(chunk)]
     parse_or_fail(parse_pdf, bytes(data))
 
 
 # --- escapes found by the fuzzing above, minimal inputs (regression tests) ---------------------------
+
 
 def test_front_matter_with_an_impossible_date_is_an_ingest_failure():
     # Refused like any other front matter that is no date ("front matter updated: ... is not a date").
@@ -207,5 +381,5 @@ def test_pdf_with_an_unknown_stream_filter_is_an_ingest_failure():
     # One byte: "/FlateDecode" -> "/\x00lateDecode" (NUL is PDF white space: a filter named "/" then
     # a stray "lateDecode"), the minimal example hypothesis found.
     at = PDF.index(b"/FlateDecode") + 1
-    data = PDF[:at] + b"\x00" + PDF[at + 1:]
+    data = PDF[:at] + b"\x00" + PDF[at + 1 :]
     assert parse_or_fail(parse_pdf, data, known=False) is None

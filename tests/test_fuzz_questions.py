@@ -10,25 +10,69 @@ import json
 import math
 
 import pytest
-
+from cpu_budget import cpu_seconds
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
-from cpu_budget import cpu_seconds
 from auditor.errors import AuditorError, InputError
-from auditor.questions.sets import load_questions
 from auditor.questions.querylog import import_query_log
+from auditor.questions.sets import load_questions
 
-FUZZ = settings(max_examples=150, deadline=2000, derandomize=True,
-                suppress_health_check=[HealthCheck.function_scoped_fixture, HealthCheck.too_slow])
+FUZZ = settings(
+    max_examples=150,
+    deadline=2000,
+    derandomize=True,
+    suppress_health_check=[HealthCheck.function_scoped_fixture, HealthCheck.too_slow],
+)
 
-COLUMNS = ["id", "question", "owner", "topic", "weight", "horizon_days", "query", "text", "count", "hits",
-           "timestamp", "session", "wieght", "", "Question ", "ID"]
+COLUMNS = [
+    "id",
+    "question",
+    "owner",
+    "topic",
+    "weight",
+    "horizon_days",
+    "query",
+    "text",
+    "count",
+    "hits",
+    "timestamp",
+    "session",
+    "wieght",
+    "",
+    "Question ",
+    "ID",
+]
 CELLS = st.one_of(
     st.text(max_size=30),
-    st.sampled_from(["", "0", "-1", "1.5", "1e309", "nan", "inf", "12", "true", "q-001", "q-001", " ",
-                     "2025-03-01T10:00:00Z", "not a date", "a@b.org", "+44 20 7946 0958", "4111 1111 1111 1111",
-                     '"', "\n", ",", ";", "\t", "\x00", "\ufeff"]),
+    st.sampled_from(
+        [
+            "",
+            "0",
+            "-1",
+            "1.5",
+            "1e309",
+            "nan",
+            "inf",
+            "12",
+            "true",
+            "q-001",
+            "q-001",
+            " ",
+            "2025-03-01T10:00:00Z",
+            "not a date",
+            "a@b.org",
+            "+44 20 7946 0958",
+            "4111 1111 1111 1111",
+            '"',
+            "\n",
+            ",",
+            ";",
+            "\t",
+            "\x00",
+            "\ufeff",
+        ]
+    ),
     st.integers(-5, 10**6).map(str),
 )
 EXTENSIONS = [".csv", ".tsv", ".jsonl", ".json", ".txt", ".log", ""]
@@ -52,7 +96,7 @@ def load_or_input_error(path):
         assert str(exc).startswith(repr(str(path)) + ": "), str(exc)
         return None
     except AuditorError as exc:  # pragma: no cover - still the project's family, but the wrong class
-        raise AssertionError(f"expected InputError, got {type(exc).__name__}: {exc}")
+        raise AssertionError(f"expected InputError, got {type(exc).__name__}: {exc}") from exc
     well_formed(questions, path)
     return questions
 
@@ -66,9 +110,12 @@ def test_arbitrary_bytes(tmp_path, data, ext):
 
 
 @FUZZ
-@given(st.lists(st.sampled_from(COLUMNS), min_size=1, max_size=5),
-       st.lists(st.lists(CELLS, max_size=6), max_size=8),
-       st.sampled_from([",", ";", "\t"]), st.sampled_from([".csv", ".txt", ".log", ""]))
+@given(
+    st.lists(st.sampled_from(COLUMNS), min_size=1, max_size=5),
+    st.lists(st.lists(CELLS, max_size=6), max_size=8),
+    st.sampled_from([",", ";", "\t"]),
+    st.sampled_from([".csv", ".txt", ".log", ""]),
+)
 def test_csv_shaped_files(tmp_path, header, rows, delimiter, ext):
     buffer = io.StringIO()
     writer = csv.writer(buffer, delimiter=delimiter)
@@ -79,15 +126,27 @@ def test_csv_shaped_files(tmp_path, header, rows, delimiter, ext):
     load_or_input_error(path)
 
 
-json_values = st.one_of(st.none(), st.booleans(), st.integers(-10, 10**9), st.floats(allow_nan=True),
-                        st.text(max_size=20), st.lists(st.integers(), max_size=2),
-                        st.dictionaries(st.text(max_size=3), st.integers(), max_size=2))
+json_values = st.one_of(
+    st.none(),
+    st.booleans(),
+    st.integers(-10, 10**9),
+    st.floats(allow_nan=True),
+    st.text(max_size=20),
+    st.lists(st.integers(), max_size=2),
+    st.dictionaries(st.text(max_size=3), st.integers(), max_size=2),
+)
 
 
 @FUZZ
-@given(st.lists(st.one_of(st.dictionaries(st.sampled_from(COLUMNS), json_values, max_size=5),
-                          json_values, st.text(max_size=20)), max_size=8),
-       st.sampled_from([".jsonl", ".json", ""]))
+@given(
+    st.lists(
+        st.one_of(
+            st.dictionaries(st.sampled_from(COLUMNS), json_values, max_size=5), json_values, st.text(max_size=20)
+        ),
+        max_size=8,
+    ),
+    st.sampled_from([".jsonl", ".json", ""]),
+)
 def test_json_lines_shaped_files(tmp_path, records, ext):
     lines = []
     for record in records:
@@ -101,9 +160,12 @@ def test_json_lines_shaped_files(tmp_path, records, ext):
 
 
 @FUZZ
-@given(st.lists(st.tuples(CELLS, st.one_of(st.integers(-3, 10**9).map(str), CELLS)), max_size=12),
-       st.sampled_from(["query,count", "text,hits", "search,frequency,timestamp", "utterance"]),
-       st.floats(min_value=0.01, max_value=1.0), st.booleans())
+@given(
+    st.lists(st.tuples(CELLS, st.one_of(st.integers(-3, 10**9).map(str), CELLS)), max_size=12),
+    st.sampled_from(["query,count", "text,hits", "search,frequency,timestamp", "utterance"]),
+    st.floats(min_value=0.01, max_value=1.0),
+    st.booleans(),
+)
 def test_query_logs(tmp_path, rows, header, similarity, redact):
     buffer = io.StringIO()
     writer = csv.writer(buffer)
@@ -131,8 +193,10 @@ def one_line_log(folder, unit: str):
     # One enormous query: a log exported with a broken line ending, or a pasted document (100 KB,
     # the issue's adversarial size).
     path = folder / "log.csv"
-    path.write_text("query,count\n" + '"leak report ' + (unit * (100_000 // len(unit))).replace('"', "'") + '",3\n',
-                    encoding="utf-8")
+    path.write_text(
+        "query,count\n" + '"leak report ' + (unit * (100_000 // len(unit))).replace('"', "'") + '",3\n',
+        encoding="utf-8",
+    )
     return path
 
 
@@ -145,14 +209,19 @@ def test_a_100_kb_query_imports_in_bounded_time(tmp_path, unit):
 
 
 # Known bug, not run: the CPU alarm does not always interrupt it, and one case then costs minutes.
-CARD_RESCAN = pytest.mark.xfail(run=False, reason=(
-    "redact._redact_digits searches the rest of a run again after each card or phone it redacts: "
-    "a long run of short groups ('1 1 1 …', '1.2.3.4 1.2.3.4 …') is quadratic; fix: walk the run's "
-    "groups once"))
+CARD_RESCAN = pytest.mark.xfail(
+    run=False,
+    reason=(
+        "redact._redact_digits searches the rest of a run again after each card or phone it redacts: "
+        "a long run of short groups ('1 1 1 …', '1.2.3.4 1.2.3.4 …') is quadratic; fix: walk the run's "
+        "groups once"
+    ),
+)
 
 
-@pytest.mark.parametrize("unit", ["1-", "2024-01-01 ",
-                                  pytest.param("1 ", marks=CARD_RESCAN), pytest.param("1.2.3.4 ", marks=CARD_RESCAN)])
+@pytest.mark.parametrize(
+    "unit", ["1-", "2024-01-01 ", pytest.param("1 ", marks=CARD_RESCAN), pytest.param("1.2.3.4 ", marks=CARD_RESCAN)]
+)
 def test_a_100_kb_run_of_digit_groups_imports_in_bounded_time(tmp_path, unit):
     path = one_line_log(tmp_path, unit)
     assert cpu_seconds(lambda: import_query_log(path), BUDGET_S) < BUDGET_S

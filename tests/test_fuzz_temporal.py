@@ -12,10 +12,10 @@ import re
 from datetime import date
 
 import pytest
+from cpu_budget import cpu_seconds
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
-from cpu_budget import cpu_seconds
 from auditor.errors import AuditorError
 from auditor.models import GRANULARITIES, ROLES
 from auditor.temporal.extract import extract
@@ -23,25 +23,109 @@ from auditor.temporal.extract import extract
 # Tokens that steer the generator into the extractor's patterns: month and weekday names in several
 # cases, numbers that look like days, years, ISO and numeric dates, quarters, fiscal years, seasons,
 # relative words, range words and the role cues (DESIGN.md §3.2 lists these forms).
-TOKENS = ["January", "MARCH", "march", "May", "may", "Sept.", "Dec", "Monday", "Tue.", "1", "5th", "31",
-          "29", "0", "00", "2024", "1999", "2100", "24", "'24", "2024-02-29", "2023-02-29", "2024-13-01",
-          "2024-W53-7", "2024-366", "03/04/2025", "31.12.2024", "3/4/25", "Q3", "Q5", "H1", "FY2025",
-          "FY 2024-25", "fiscal year", "spring", "Winter", "the 1990s", "'90s", "mid-", "early", "late",
-          "end of", "last", "next", "this", "two", "weeks", "months", "ago", "in", "yesterday", "tomorrow",
-          "from", "to", "until", "through", "between", "and", "-", "–", "/", ".", ",", ";", "(", ")", "©",
-          "as of", "effective", "expires", "will", "was", "scheduled", "rates", "report", "Version", "v",
-          "page", "$", "%", "\n", "\n\n", " ", "  ", "\t", "é", "٣", "２０２４"]
+TOKENS = [
+    "January",
+    "MARCH",
+    "march",
+    "May",
+    "may",
+    "Sept.",
+    "Dec",
+    "Monday",
+    "Tue.",
+    "1",
+    "5th",
+    "31",
+    "29",
+    "0",
+    "00",
+    "2024",
+    "1999",
+    "2100",
+    "24",
+    "'24",
+    "2024-02-29",
+    "2023-02-29",
+    "2024-13-01",
+    "2024-W53-7",
+    "2024-366",
+    "03/04/2025",
+    "31.12.2024",
+    "3/4/25",
+    "Q3",
+    "Q5",
+    "H1",
+    "FY2025",
+    "FY 2024-25",
+    "fiscal year",
+    "spring",
+    "Winter",
+    "the 1990s",
+    "'90s",
+    "mid-",
+    "early",
+    "late",
+    "end of",
+    "last",
+    "next",
+    "this",
+    "two",
+    "weeks",
+    "months",
+    "ago",
+    "in",
+    "yesterday",
+    "tomorrow",
+    "from",
+    "to",
+    "until",
+    "through",
+    "between",
+    "and",
+    "-",
+    "–",
+    "/",
+    ".",
+    ",",
+    ";",
+    "(",
+    ")",
+    "©",
+    "as of",
+    "effective",
+    "expires",
+    "will",
+    "was",
+    "scheduled",
+    "rates",
+    "report",
+    "Version",
+    "v",
+    "page",
+    "$",
+    "%",
+    "\n",
+    "\n\n",
+    " ",
+    "  ",
+    "\t",
+    "é",
+    "٣",
+    "２０２４",
+]
 texts = st.one_of(
     st.lists(st.sampled_from(TOKENS), max_size=40).map(" ".join),
     st.lists(st.sampled_from(TOKENS), max_size=40).map("".join),
     st.text(max_size=200),
 )
-options = st.fixed_dictionaries({
-    "reference_date": st.one_of(st.none(), st.dates(min_value=date(1900, 1, 1), max_value=date(2100, 12, 31))),
-    "day_first": st.booleans(),
-    "fiscal_year_start": st.integers(1, 12),
-    "hemisphere": st.sampled_from(["north", "south"]),
-})
+options = st.fixed_dictionaries(
+    {
+        "reference_date": st.one_of(st.none(), st.dates(min_value=date(1900, 1, 1), max_value=date(2100, 12, 31))),
+        "day_first": st.booleans(),
+        "fiscal_year_start": st.integers(1, 12),
+        "hemisphere": st.sampled_from(["north", "south"]),
+    }
+)
 
 
 PARAGRAPH_BREAK = re.compile(r"\n[ \t]*\n")
@@ -51,7 +135,7 @@ def check(text: str, found) -> None:
     previous = -1
     for e in found:
         assert 0 <= e.char_start < e.char_end <= len(text)
-        assert text[e.char_start:e.char_end] == e.expression
+        assert text[e.char_start : e.char_end] == e.expression
         assert e.start <= e.end
         assert e.granularity in GRANULARITIES
         assert e.role in ROLES
@@ -89,10 +173,25 @@ def repeat(unit: str, size: int = SIZE) -> str:
     return (unit * (size // len(unit) + 1))[:size]
 
 
-@pytest.mark.parametrize("unit", [
-    "In 2024 we met. ", "Rates changed on 5 March 2024. ", "Q3 2024 ended. ", ".", " ", "1-", "1/1/",
-    "2024", "March ", "early ", "(((", "\n\n", "the end of the ", "99999999 ",
-])
+@pytest.mark.parametrize(
+    "unit",
+    [
+        "In 2024 we met. ",
+        "Rates changed on 5 March 2024. ",
+        "Q3 2024 ended. ",
+        ".",
+        " ",
+        "1-",
+        "1/1/",
+        "2024",
+        "March ",
+        "early ",
+        "(((",
+        "\n\n",
+        "the end of the ",
+        "99999999 ",
+    ],
+)
 def test_adversarial_100_kb_inputs_finish_in_time(unit):
     text = repeat(unit)
     found = []
@@ -110,8 +209,13 @@ def test_one_sentence_of_100_kb_with_thousands_of_dates_finishes_in_time(unit):
     assert cpu_seconds(lambda: extract(text, date(2025, 1, 1)), BUDGET_S) < BUDGET_S
 
 
-@pytest.mark.parametrize("text", ["Meter readings are taken in January\n\n2024 rates apply from April.",
-                                  "Closed on March 5\n\n2025 was a good year."])
+@pytest.mark.parametrize(
+    "text",
+    [
+        "Meter readings are taken in January\n\n2024 rates apply from April.",
+        "Closed on March 5\n\n2025 was a good year.",
+    ],
+)
 def test_an_expression_never_spans_a_paragraph_break(text):
     # A paragraph break ends a sentence (temporal._sentences); an expression lies inside one sentence.
     for e in extract(text, date(2025, 1, 1)):

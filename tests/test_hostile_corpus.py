@@ -11,10 +11,10 @@ import subprocess
 import sys
 from pathlib import Path
 
+import hostile_corpus
 import numpy as np
 import pytest
 
-import hostile_corpus
 from auditor.store import Store
 
 REPO = Path(__file__).resolve().parent.parent
@@ -22,8 +22,13 @@ REPO = Path(__file__).resolve().parent.parent
 
 def run_cli(args: list[str], cwd: Path) -> subprocess.CompletedProcess:
     env = dict(os.environ, PYTHONPATH=str(REPO))
-    return subprocess.run([sys.executable, "-c", "from auditor.cli import main; main()", *args], cwd=cwd, env=env,
-                          capture_output=True, timeout=600)
+    return subprocess.run(
+        [sys.executable, "-c", "from auditor.cli import main; main()", *args],
+        cwd=cwd,
+        env=env,
+        capture_output=True,
+        timeout=600,
+    )
 
 
 @pytest.fixture(scope="module")
@@ -31,8 +36,9 @@ def ingested(tmp_path_factory):
     base = tmp_path_factory.mktemp("hostile")
     corpus = hostile_corpus.build(base / "kb")
     (base / "audit.toml").write_text("[corpus]\ntimeout_s = 120\n", encoding="utf-8")
-    result = run_cli(["ingest", str(corpus.root), "-c", str(base / "audit.toml"), "--db", str(base / "a.db"), "-q"],
-                     base)
+    result = run_cli(
+        ["ingest", str(corpus.root), "-c", str(base / "audit.toml"), "--db", str(base / "a.db"), "-q"], base
+    )
     return corpus, result, base / "a.db"
 
 
@@ -78,8 +84,11 @@ def test_every_good_file_is_ingested_with_its_words(ingested):
     with Store(db) as store:
         terms = Vocabulary(store).terms()
         for path, word in corpus.good.items():
-            rows = store.query("SELECT p.token_ids FROM passages p JOIN documents d ON d.id = p.document_id "
-                               "WHERE d.path = ? AND d.status = 'active'", [hostile_corpus.storable(path)])
+            rows = store.query(
+                "SELECT p.token_ids FROM passages p JOIN documents d ON d.id = p.document_id "
+                "WHERE d.path = ? AND d.status = 'active'",
+                [hostile_corpus.storable(path)],
+            )
             assert rows, path
             found = {terms[int(i)] for r in rows for i in np.frombuffer(r["token_ids"], dtype="<i4")}
             assert Tokenizer().tokenize(word)[0] in found, (path, word, sorted(found)[:20])

@@ -33,22 +33,29 @@ def make_corpus(root: Path) -> Path:
         "---\ntitle: Meter pit covers " + BREAKOUT.replace('"', "'") + "\nupdated: 2026-10-01\n---\n"
         "# Meter pit covers\n\nThe meter pit cover lifts with a pit key. " + SCRIPT + " " + CLOSER + "\n\n"
         "Report a cracked meter pit cover to the field crew. " + TEMPLATE + " [details](" + LINK + ")\n",
-        encoding="utf-8")
+        encoding="utf-8",
+    )
     (kb / "hostile.html").write_text(
         "<html><head><title>Hydrant flushing</title></head><body><main><h1>Hydrant flushing</h1>"
         "<p>Hydrant flushing runs every autumn. &lt;script&gt;window.__pwned = 5&lt;/script&gt; "
         "&quot;&gt;&lt;img src=x onerror=&quot;window.__pwned = 6&quot;&gt;</p>"
-        f'<p><a href="{LINK}">flushing map</a> {{{{ config }}}}</p></main></body></html>', encoding="utf-8")
+        f'<p><a href="{LINK}">flushing map</a> {{{{ config }}}}</p></main></body></html>',
+        encoding="utf-8",
+    )
     questions = root / "questions.csv"
-    rows = ["id,question,owner,topic,weight",
-            f'h1,"How do I open the meter pit cover? {SCRIPT}",Field Ops,meters,5',
-            f'h2,"When is hydrant flushing? {BREAKOUT.replace(chr(34), chr(34) * 2)}",Field Ops,hydrants,3',
-            f'h3,"Do you sell {TEMPLATE} gift cards {LINK}",{CLOSER.replace(chr(34), "")},misc,1']
+    rows = [
+        "id,question,owner,topic,weight",
+        f'h1,"How do I open the meter pit cover? {SCRIPT}",Field Ops,meters,5',
+        f'h2,"When is hydrant flushing? {BREAKOUT.replace(chr(34), chr(34) * 2)}",Field Ops,hydrants,3',
+        f'h3,"Do you sell {TEMPLATE} gift cards {LINK}",{CLOSER.replace(chr(34), "")},misc,1',
+    ]
     questions.write_text("\n".join(rows) + "\n", encoding="utf-8")
     config = root / "audit.toml"
-    config.write_text('database = "work/a.db"\nas_of = 2026-12-01\nquestions = ["questions.csv"]\n'
-                      '[corpus]\npaths = ["kb"]\n[report]\nout = "work/report"\ntitle = "Hostile ' +
-                      SCRIPT.replace('"', "") + '"\n', encoding="utf-8")
+    config.write_text(
+        'database = "work/a.db"\nas_of = 2026-12-01\nquestions = ["questions.csv"]\n'
+        '[corpus]\npaths = ["kb"]\n[report]\nout = "work/report"\ntitle = "Hostile ' + SCRIPT.replace('"', "") + '"\n',
+        encoding="utf-8",
+    )
     return config
 
 
@@ -89,8 +96,15 @@ CHROMIUM = shutil.which("chromium") or ("/usr/bin/chromium" if Path("/usr/bin/ch
 @pytest.mark.skipif(CHROMIUM is None, reason="headless Chromium is not installed")
 def test_browser_runs_no_injected_script_and_shows_text_literally(hostile_report):
     sync_api = pytest.importorskip("playwright.sync_api")
-    args = ["--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
-            "--disable-background-networking", "--disable-component-update", "--disable-sync"]
+    args = [
+        "--no-sandbox",
+        "--disable-gpu",
+        "--disable-quic",
+        "--no-first-run",
+        "--disable-background-networking",
+        "--disable-component-update",
+        "--disable-sync",
+    ]
     with sync_api.sync_playwright() as p:
         browser = p.chromium.launch(executable_path=CHROMIUM, args=args)
         page = browser.new_page()

@@ -11,10 +11,10 @@ import sys
 from pathlib import Path
 
 import pytest
+from ingest_helpers import config_for, encrypt_pdf, html_page, make_pdf, write_tree
 
 from auditor.ingest import ingest_corpus
 from auditor.store import Store
-from ingest_helpers import config_for, encrypt_pdf, html_page, make_pdf, write_tree
 
 REPO = Path(__file__).resolve().parent.parent
 GOOD = {"good.md", "good.txt", "good.html", "good.pdf"}
@@ -22,20 +22,23 @@ GOOD = {"good.md", "good.txt", "good.html", "good.pdf"}
 
 def build_hostile_corpus(root: Path) -> None:
     pdf = make_pdf(["The hotline takes leak reports day and night."])
-    write_tree(root, {
-        "good.md": "# Leaks\n\nReport a leak on the hotline.\n",
-        "good.txt": "Meter reading\n\nMeters are read every two months.",
-        "good.html": html_page("<main><h1>Outages</h1><p>See the outage map.</p></main>"),
-        "good.pdf": pdf,
-        "truncated.pdf": pdf[: len(pdf) // 2],
-        "locked.pdf": encrypt_pdf(pdf, user_password="s3cret"),
-        "zero.txt": b"",
-        "junk.html": random.Random(7).randbytes(4096),
-        "invalid.txt": b"Rates \xc3\x28 and \x81 more",
-        "deep.html": "<html><body>" + "<div>" * 100_000 + "deep" + "</div>" * 100_000 + "</body></html>",
-        "big.txt": b"rates " * 400_000,  # 2.4 MB, over the 2 MB limit set below
-        "unreadable.md": "# Secret\n\nNobody may read this.\n",
-    })
+    write_tree(
+        root,
+        {
+            "good.md": "# Leaks\n\nReport a leak on the hotline.\n",
+            "good.txt": "Meter reading\n\nMeters are read every two months.",
+            "good.html": html_page("<main><h1>Outages</h1><p>See the outage map.</p></main>"),
+            "good.pdf": pdf,
+            "truncated.pdf": pdf[: len(pdf) // 2],
+            "locked.pdf": encrypt_pdf(pdf, user_password="s3cret"),
+            "zero.txt": b"",
+            "junk.html": random.Random(7).randbytes(4096),
+            "invalid.txt": b"Rates \xc3\x28 and \x81 more",
+            "deep.html": "<html><body>" + "<div>" * 100_000 + "deep" + "</div>" * 100_000 + "</body></html>",
+            "big.txt": b"rates " * 400_000,  # 2.4 MB, over the 2 MB limit set below
+            "unreadable.md": "# Secret\n\nNobody may read this.\n",
+        },
+    )
     os.symlink("loop_b.md", root / "loop_a.md")
     os.symlink("loop_a.md", root / "loop_b.md")
     os.symlink(".", root / "again")  # a folder link back to the root
@@ -74,15 +77,24 @@ def test_hostile_files_are_recorded_and_the_rest_ingested(tmp_path):
     root = tmp_path / "kb"
     build_hostile_corpus(root)
     (tmp_path / "audit.toml").write_text("[corpus]\nfollow_symlinks = true\nmax_file_mb = 2\ntimeout_s = 120\n")
-    result = _run_cli(["ingest", str(root), "-c", str(tmp_path / "audit.toml"), "--db", str(tmp_path / "a.db"), "-q"],
-                      tmp_path)
+    result = _run_cli(
+        ["ingest", str(root), "-c", str(tmp_path / "audit.toml"), "--db", str(tmp_path / "a.db"), "-q"], tmp_path
+    )
     assert result.returncode == 0, result.stderr
-    assert result.stdout.strip().splitlines()[-1] == f"{len(GOOD)} new, 0 changed, 0 unchanged, 0 removed, {len(EXPECTED)} failed"
+    assert (
+        result.stdout.strip().splitlines()[-1]
+        == f"{len(GOOD)} new, 0 changed, 0 unchanged, 0 removed, {len(EXPECTED)} failed"
+    )
     with Store(tmp_path / "a.db") as store:
         docs = {r["path"]: r["status"] for r in store.query("SELECT path, status FROM documents")}
         assert docs == {p: "active" for p in GOOD}
-        assert all(store.query("SELECT count(*) AS n FROM passages p JOIN documents d ON d.id = p.document_id "
-                               "WHERE d.path = ?", [p])[0]["n"] > 0 for p in GOOD)
+        assert all(
+            store.query(
+                "SELECT count(*) AS n FROM passages p JOIN documents d ON d.id = p.document_id WHERE d.path = ?", [p]
+            )[0]["n"]
+            > 0
+            for p in GOOD
+        )
         errors = {r["path"]: r for r in store.query("SELECT * FROM ingest_errors")}
     assert set(errors) == set(EXPECTED)
     for path, (kind, words_) in EXPECTED.items():
@@ -107,16 +119,19 @@ def test_links_are_not_followed_by_default(tmp_path):
         summary = ingest_corpus(store, config_for(root))
         errors = {r["path"]: (r["kind"], r["error"]) for r in store.query("SELECT * FROM ingest_errors")}
         assert summary.line() == "1 new, 0 changed, 0 unchanged, 0 removed, 2 failed"
-        assert errors["inside-link.md"] == ("symlink", f"{str(root / 'inside-link.md')!r}: symbolic link not followed "
-                                                       "(corpus.follow_symlinks is false)")
+        assert errors["inside-link.md"] == (
+            "symlink",
+            f"{str(root / 'inside-link.md')!r}: symbolic link not followed (corpus.follow_symlinks is false)",
+        )
         # Followed inside the root, never out of it.
         summary = ingest_corpus(store, config_for(root, follow_symlinks=True))
         errors = {r["path"]: (r["kind"], r["error"]) for r in store.query("SELECT * FROM ingest_errors")}
         assert set(errors) == {"outside-link.md"}
         assert errors["outside-link.md"][0] == "symlink" and "outside the source root" in errors["outside-link.md"][1]
         # A link to a file already found is that file: ingested once, under its own path.
-        assert {r["path"]: r["status"] for r in store.query("SELECT path, status FROM documents")} == \
-               {"inside.md": "active"}
+        assert {r["path"]: r["status"] for r in store.query("SELECT path, status FROM documents")} == {
+            "inside.md": "active"
+        }
 
 
 def test_fifo_is_never_opened(tmp_path):
@@ -143,10 +158,18 @@ def test_missing_corpus_path_is_an_input_error_and_changes_nothing(tmp_path):
 
 def test_a_linked_folder_is_ingested_once_under_its_own_path(tmp_path):
     root = write_tree(tmp_path / "kb", {"docs/guide.md": "# Guide\n\nText.\n", "docs/sub/more.md": "# More\n\nText.\n"})
-    os.symlink("docs", root / "alias")            # sorts before "docs"
+    os.symlink("docs", root / "alias")  # sorts before "docs"
     os.symlink("..", root / "docs" / "sub" / "up")  # a link to an ancestor: a loop
     with Store(tmp_path / "a.db") as store:
         summary = ingest_corpus(store, config_for(root, follow_symlinks=True))
-        assert sorted(r["path"] for r in store.query("SELECT path FROM documents")) == ["docs/guide.md", "docs/sub/more.md"]
-        assert summary.failures == [{"path": "docs/sub/up", "kind": "unreadable",
-                                     "error": f"{str(root / 'docs/sub/up')!r}: symbolic link loop, not followed"}]
+        assert sorted(r["path"] for r in store.query("SELECT path FROM documents")) == [
+            "docs/guide.md",
+            "docs/sub/more.md",
+        ]
+        assert summary.failures == [
+            {
+                "path": "docs/sub/up",
+                "kind": "unreadable",
+                "error": f"{str(root / 'docs/sub/up')!r}: symbolic link loop, not followed",
+            }
+        ]

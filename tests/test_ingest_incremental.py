@@ -6,13 +6,13 @@ from __future__ import annotations
 import json
 
 import numpy as np
+from ingest_helpers import config_for, write_tree
 
 from auditor.config import RetrievalConfig
 from auditor.ingest import ingest_corpus
-from auditor.store import Store
 from auditor.retrieval.tokenize import Tokenizer
 from auditor.retrieval.vocabulary import Vocabulary
-from ingest_helpers import config_for, write_tree
+from auditor.store import Store
 
 GUIDE = "# Leaks\n\nReport running leaks on the hotline any time.\n"
 
@@ -22,15 +22,21 @@ def test_a_broken_new_version_keeps_the_last_good_one(tmp_path):
     config = config_for(root)
     with Store(tmp_path / "a.db") as store:
         ingest_corpus(store, config)
-        good = store.query("SELECT p.text FROM passages p JOIN documents d ON d.id = p.document_id WHERE d.path = 'leaks.md'")
+        good = store.query(
+            "SELECT p.text FROM passages p JOIN documents d ON d.id = p.document_id WHERE d.path = 'leaks.md'"
+        )
         (root / "leaks.md").write_bytes(b"\x00\x01\x02\x03 binary junk " * 20)
         summary = ingest_corpus(store, config)
         assert summary.line() == "0 new, 0 changed, 1 unchanged, 0 removed, 1 failed"
         doc = store.query("SELECT status, sha256 FROM documents WHERE path = 'leaks.md'")[0]
         assert doc["status"] == "failed"
         # The last good passages stay (and its hash, so the fixed file is seen as changed).
-        assert store.query("SELECT p.text FROM passages p JOIN documents d ON d.id = p.document_id "
-                           "WHERE d.path = 'leaks.md'") == good
+        assert (
+            store.query(
+                "SELECT p.text FROM passages p JOIN documents d ON d.id = p.document_id WHERE d.path = 'leaks.md'"
+            )
+            == good
+        )
         error = store.query("SELECT kind, error FROM ingest_errors WHERE path = 'leaks.md'")[0]
         assert error["kind"] == "not_a_markdown" and error["error"].startswith(repr(str(root / "leaks.md")))
         # Unchanged and still broken: not parsed again, still reported.
@@ -74,17 +80,25 @@ def test_new_tokenizer_fingerprint_retokenizes_every_passage(tmp_path):
 
 
 def test_owner_map_changes_apply_to_unchanged_files(tmp_path):
-    root = write_tree(tmp_path / "kb", {"field/leaks.md": GUIDE,
-                                         "billing/fees.md": "---\nowner: Billing Team\n---\n# Fees\n\nFive percent.\n"})
+    root = write_tree(
+        tmp_path / "kb",
+        {"field/leaks.md": GUIDE, "billing/fees.md": "---\nowner: Billing Team\n---\n# Fees\n\nFive percent.\n"},
+    )
     with Store(tmp_path / "a.db") as store:
         ingest_corpus(store, config_for(root))
         owners = {r["path"]: (r["owner"], r["owner_source"]) for r in store.query("SELECT * FROM documents")}
-        assert owners == {"field/leaks.md": ("unassigned", "default"), "billing/fees.md": ("Billing Team", "front_matter")}
+        assert owners == {
+            "field/leaks.md": ("unassigned", "default"),
+            "billing/fees.md": ("Billing Team", "front_matter"),
+        }
         mapped = config_for(root, owners=(("field/**", "Field Operations"), ("**/*.md", "Everyone")))
         assert ingest_corpus(store, mapped).parsed == 0
         owners = {r["path"]: (r["owner"], r["owner_source"]) for r in store.query("SELECT * FROM documents")}
         # First match wins; front matter wins over the map.
-        assert owners == {"field/leaks.md": ("Field Operations", "config"), "billing/fees.md": ("Billing Team", "front_matter")}
+        assert owners == {
+            "field/leaks.md": ("Field Operations", "config"),
+            "billing/fees.md": ("Billing Team", "front_matter"),
+        }
 
 
 def test_several_roots_keep_paths_unique(tmp_path):
@@ -96,13 +110,24 @@ def test_several_roots_keep_paths_unique(tmp_path):
         assert summary.new == 2
         docs = {r["path"]: (r["source_root"], r["owner"]) for r in store.query("SELECT * FROM documents")}
         # Paths are relative to the roots' common parent; globs match the path within each root.
-        assert docs == {"sites/help/index.md": (str(a), "Root-relative"),
-                        "manuals/help/index.md": (str(b), "Root-relative")}
+        assert docs == {
+            "sites/help/index.md": (str(a), "Root-relative"),
+            "manuals/help/index.md": (str(b), "Root-relative"),
+        }
 
 
 def test_single_file_path_and_include_exclude(tmp_path):
-    root = write_tree(tmp_path / "kb", {"a.md": GUIDE, "drafts/b.md": GUIDE, "_template.md": GUIDE,
-                                         ".hidden/c.md": GUIDE, ".d.md": GUIDE, "notes.csv": "a,b\n"})
+    root = write_tree(
+        tmp_path / "kb",
+        {
+            "a.md": GUIDE,
+            "drafts/b.md": GUIDE,
+            "_template.md": GUIDE,
+            ".hidden/c.md": GUIDE,
+            ".d.md": GUIDE,
+            "notes.csv": "a,b\n",
+        },
+    )
     with Store(tmp_path / "a.db") as store:
         summary = ingest_corpus(store, config_for(root, exclude=("drafts/**", "**/_*")))
         assert summary.new == 1
@@ -119,7 +144,8 @@ def test_meta_dates_are_all_kept(tmp_path):
         row = store.query("SELECT meta_dates FROM documents")[0]
     assert json.loads(row["meta_dates"]) == [
         {"value": "2024-01-02", "kind": "modified", "source": "front_matter:updated"},
-        {"value": "2020-05-06", "kind": "published", "source": "front_matter:date"}]
+        {"value": "2020-05-06", "kind": "published", "source": "front_matter:date"},
+    ]
 
 
 def test_new_parser_code_reparses_everything(tmp_path):

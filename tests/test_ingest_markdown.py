@@ -78,13 +78,16 @@ def test_hand_written_front_matter_date():
     assert [(d.value, d.source) for d in doc.dates] == [(date(2024, 3, 3), "front_matter:updated")]
 
 
-@pytest.mark.parametrize("content, kind, words", [
-    (b"---\ntitle: [unclosed\n---\nText\n", "parse_error", "front matter is not valid YAML"),
-    (b"---\n- a list\n---\nText\n", "parse_error", "not a mapping"),
-    (b"---\nupdated: next tuesday-ish\n---\nText\n", "parse_error", "is not a date"),
-    (b"---\ntitle: Only front matter\n---\n", "empty", "no text"),
-    (b"# Heading only\n", "empty", "no text"),
-])
+@pytest.mark.parametrize(
+    "content, kind, words",
+    [
+        (b"---\ntitle: [unclosed\n---\nText\n", "parse_error", "front matter is not valid YAML"),
+        (b"---\n- a list\n---\nText\n", "parse_error", "not a mapping"),
+        (b"---\nupdated: next tuesday-ish\n---\nText\n", "parse_error", "is not a date"),
+        (b"---\ntitle: Only front matter\n---\n", "empty", "no text"),
+        (b"# Heading only\n", "empty", "no text"),
+    ],
+)
 def test_bad_markdown_is_refused_with_the_file_named(content, kind, words):
     with pytest.raises(IngestFailure) as failure:
         parse_markdown(content, "/kb/bad.md")
@@ -100,6 +103,8 @@ def test_an_impossible_front_matter_date_is_refused():
 
 
 def test_comments_and_stray_brackets():
-    doc = parse_markdown(b"# A\n\nKept <!-- hidden --> text [not a link [x](http://e.org) end.\n\n"
-                         b"Tail <!-- never closed\n\nlost\n", "c.md")
+    doc = parse_markdown(
+        b"# A\n\nKept <!-- hidden --> text [not a link [x](http://e.org) end.\n\nTail <!-- never closed\n\nlost\n",
+        "c.md",
+    )
     assert [b.text for b in doc.blocks] == ["A", "Kept  text [not a link x end.", "Tail"]

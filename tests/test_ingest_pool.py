@@ -4,20 +4,25 @@ from __future__ import annotations
 
 import time
 
+from ingest_helpers import config_for, make_pdf, misbehave, replicate_pages, words, write_tree
+
 from auditor.ingest import ingest_corpus
 from auditor.ingest.pipeline import run_tasks
 from auditor.store import Store
-from ingest_helpers import config_for, make_pdf, misbehave, replicate_pages, words, write_tree
 
 
 def test_hang_crash_and_exception_cost_one_task_each():
     tasks = ["a", "hang", "b", "crash", "c", "raise", "d"]
     started = time.monotonic()
-    outcome = {task: (status, value) for task, status, value in
-               run_tasks(tasks, misbehave, None, jobs=2, timeout=3.0)}
+    outcome = {task: (status, value) for task, status, value in run_tasks(tasks, misbehave, None, jobs=2, timeout=3.0)}
     assert outcome == {
-        "a": ("ok", "A"), "b": ("ok", "B"), "c": ("ok", "C"), "d": ("ok", "D"),
-        "hang": ("timeout", 3.0), "crash": ("crash", 3), "raise": ("error", "ValueError: bad input"),
+        "a": ("ok", "A"),
+        "b": ("ok", "B"),
+        "c": ("ok", "C"),
+        "d": ("ok", "D"),
+        "hang": ("timeout", 3.0),
+        "crash": ("crash", 3),
+        "raise": ("error", "ValueError: bad input"),
     }
     assert time.monotonic() - started < 60  # the hung worker was killed, not waited for
 
@@ -36,7 +41,9 @@ def test_a_slow_file_times_out_and_the_others_are_ingested(tmp_path):
         assert summary.line() == "2 new, 0 changed, 0 unchanged, 0 removed, 1 failed"
         error = store.query("SELECT kind, error FROM ingest_errors")[0]
         assert error["kind"] == "timeout"
-        assert error["error"] == f"{str(root / 'slow.pdf')!r}: parsing took longer than 0.5 s (corpus.timeout_s); stopped"
+        assert (
+            error["error"] == f"{str(root / 'slow.pdf')!r}: parsing took longer than 0.5 s (corpus.timeout_s); stopped"
+        )
         # Unchanged and still too slow for the same limit: not tried again...
         again = ingest_corpus(store, config_for(root, timeout_s=0.5))
         assert (again.parsed, again.failed, again.unchanged) == (0, 1, 2)

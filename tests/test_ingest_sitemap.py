@@ -2,11 +2,12 @@
 
 from __future__ import annotations
 
+from ingest_helpers import config_for, html_page, write_tree
+
 from auditor.config import SitemapConfig
 from auditor.ingest import ingest_corpus
 from auditor.ingest.sitemap import read_sitemap
 from auditor.store import Store
-from ingest_helpers import config_for, html_page, write_tree
 
 # The protocol's example file, with the URLs of our export (sitemaps.org/protocol.html:
 # <lastmod> in W3C Datetime, date-only or full).
@@ -23,8 +24,8 @@ SITEMAP = """<?xml version="1.0" encoding="UTF-8"?>
 
 
 def test_read_sitemap():
-    from pathlib import Path
     import tempfile
+    from pathlib import Path
 
     with tempfile.TemporaryDirectory() as folder:
         path = Path(folder) / "sitemap.xml"
@@ -41,16 +42,22 @@ def test_read_sitemap():
 
 def test_lastmod_dates_files_without_their_own(tmp_path):
     plain = html_page("<main><h1>Page</h1><p>Text.</p></main>")
-    root = write_tree(tmp_path / "kb", {
-        "export/index.html": plain,
-        "export/billing/fees.html": plain,
-        "export/leaks.html": plain,
-        "export/own-date.html": html_page("<main><p>Text.</p></main>",
-                                          head='<meta name="DCTERMS.modified" content="2010-10-10">'),
-        "export/unlisted.html": plain,
-    })
+    root = write_tree(
+        tmp_path / "kb",
+        {
+            "export/index.html": plain,
+            "export/billing/fees.html": plain,
+            "export/leaks.html": plain,
+            "export/own-date.html": html_page(
+                "<main><p>Text.</p></main>", head='<meta name="DCTERMS.modified" content="2010-10-10">'
+            ),
+            "export/unlisted.html": plain,
+        },
+    )
     (tmp_path / "sitemap.xml").write_text(SITEMAP)
-    sitemaps = (SitemapConfig(file=tmp_path / "sitemap.xml", url_prefix="https://help.example.org/site/", folder="export"),)
+    sitemaps = (
+        SitemapConfig(file=tmp_path / "sitemap.xml", url_prefix="https://help.example.org/site/", folder="export"),
+    )
     config = config_for(root, sitemaps=sitemaps)
     with Store(tmp_path / "a.db") as store:
         ingest_corpus(store, config)
@@ -65,11 +72,13 @@ def test_lastmod_dates_files_without_their_own(tmp_path):
         summary = ingest_corpus(store, config)
         assert (summary.changed, summary.unchanged) == (1, 4)
         assert store.query("SELECT doc_date FROM documents WHERE path = 'export/billing/fees.html'") == [
-            {"doc_date": "2006-02-02"}]
+            {"doc_date": "2006-02-02"}
+        ]
 
 
 def test_broken_sitemap_is_an_input_error(tmp_path):
     import pytest
+
     from auditor.errors import InputError
 
     root = write_tree(tmp_path / "kb", {"a.md": "# A\n\nText.\n"})

@@ -12,20 +12,27 @@ from auditor.ingest.walk import IngestFailure
 SAMPLE = "Water rates\n\nCafé prices rose — 5 € per m³.\nSecond line.\n\n\nLast paragraph."
 
 
-@pytest.mark.parametrize("data", [
-    SAMPLE.encode("utf-8"),
-    codecs.BOM_UTF8 + SAMPLE.encode("utf-8"),
-    codecs.BOM_UTF16_LE + SAMPLE.encode("utf-16-le"),
-    codecs.BOM_UTF16_BE + SAMPLE.encode("utf-16-be"),
-    SAMPLE.encode("utf-16-le"),  # no BOM: recognised by its zero bytes
-    SAMPLE.encode("utf-16-be"),
-    codecs.BOM_UTF32_LE + SAMPLE.encode("utf-32-le"),
-    SAMPLE.replace("\n", "\r\n").encode("utf-8"),  # Windows newlines
-], ids=["utf8", "utf8-bom", "utf16le-bom", "utf16be-bom", "utf16le", "utf16be", "utf32le-bom", "crlf"])
+@pytest.mark.parametrize(
+    "data",
+    [
+        SAMPLE.encode("utf-8"),
+        codecs.BOM_UTF8 + SAMPLE.encode("utf-8"),
+        codecs.BOM_UTF16_LE + SAMPLE.encode("utf-16-le"),
+        codecs.BOM_UTF16_BE + SAMPLE.encode("utf-16-be"),
+        SAMPLE.encode("utf-16-le"),  # no BOM: recognised by its zero bytes
+        SAMPLE.encode("utf-16-be"),
+        codecs.BOM_UTF32_LE + SAMPLE.encode("utf-32-le"),
+        SAMPLE.replace("\n", "\r\n").encode("utf-8"),  # Windows newlines
+    ],
+    ids=["utf8", "utf8-bom", "utf16le-bom", "utf16be-bom", "utf16le", "utf16be", "utf32le-bom", "crlf"],
+)
 def test_encodings_give_the_same_paragraphs(data):
     doc = parse_text(data, "rates.txt")
-    assert [b.text for b in doc.blocks] == ["Water rates", "Café prices rose — 5 € per m³.\nSecond line.",
-                                            "Last paragraph."]
+    assert [b.text for b in doc.blocks] == [
+        "Water rates",
+        "Café prices rose — 5 € per m³.\nSecond line.",
+        "Last paragraph.",
+    ]
     assert doc.title == "Water rates"
 
 

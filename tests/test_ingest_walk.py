@@ -6,37 +6,48 @@ import os
 import sys
 
 import pytest
+from ingest_helpers import config_for, make_pdf, write_tree
 
 from auditor.config import CorpusConfig
 from auditor.ingest import ingest_corpus
 from auditor.ingest.walk import discover, glob_match
 from auditor.store import Store
-from ingest_helpers import config_for, make_pdf, write_tree
 
 
-@pytest.mark.parametrize("pattern, path, expected", [
-    ("**/*", "a.md", True),
-    ("**/*", "x/y/a.md", True),
-    ("billing/**", "billing/rates/2024.md", True),
-    ("billing/**", "billing-old/a.md", False),
-    ("billing/*", "billing/rates/2024.md", False),
-    ("*.pdf", "quality/report.pdf", True),       # no "/": matches the name at any depth
-    ("**/_*", "customer-care/_template.md", True),
-    ("**/_*", "_top.md", True),
-    ("**/_*", "care/a_b.md", False),
-    ("rates-?.md", "billing/rates-1.md", True),
-    ("billing/rates-*", "billing/rates-2025-26.md", True),
-    ("/billing/*.md", "billing/a.md", True),
-])
+@pytest.mark.parametrize(
+    "pattern, path, expected",
+    [
+        ("**/*", "a.md", True),
+        ("**/*", "x/y/a.md", True),
+        ("billing/**", "billing/rates/2024.md", True),
+        ("billing/**", "billing-old/a.md", False),
+        ("billing/*", "billing/rates/2024.md", False),
+        ("*.pdf", "quality/report.pdf", True),  # no "/": matches the name at any depth
+        ("**/_*", "customer-care/_template.md", True),
+        ("**/_*", "_top.md", True),
+        ("**/_*", "care/a_b.md", False),
+        ("rates-?.md", "billing/rates-1.md", True),
+        ("billing/rates-*", "billing/rates-2025-26.md", True),
+        ("/billing/*.md", "billing/a.md", True),
+    ],
+)
 def test_glob_semantics(pattern, path, expected):
     assert glob_match(pattern, path) is expected
 
 
 def test_discovery_skips_hidden_and_unknown_types_but_finds_misnamed_pdfs(tmp_path):
-    root = write_tree(tmp_path / "kb", {
-        "a.md": "# A\n", ".git/config.md": "x", ".draft.md": "x", "img.png": b"\x89PNG....",
-        "data.csv": "a,b", "scan.bin": make_pdf(["Text in a PDF with an odd name."]), "page.HTM": "<p>x</p>",
-    })
+    root = write_tree(
+        tmp_path / "kb",
+        {
+            "a.md": "# A\n",
+            ".git/config.md": "x",
+            ".draft.md": "x",
+            "img.png": b"\x89PNG....",
+            "data.csv": "a,b",
+            "scan.bin": make_pdf(["Text in a PDF with an odd name."]),
+            "page.HTM": "<p>x</p>",
+        },
+    )
     found, skipped = discover([root], CorpusConfig())
     assert [(f.doc_path, f.kind) for f in found] == [("a.md", "markdown"), ("page.HTM", "html"), ("scan.bin", "pdf")]
     assert skipped == []

@@ -8,8 +8,19 @@ from hypothesis import strategies as st
 from rank_bm25 import BM25Okapi
 
 from auditor.judgement.answer_types import ANSWER_TYPES, expected_answer_type, has_answer_type
-from auditor.judgement.support import (ANSWER_TYPE_PENALTY, SIGNAL_WEIGHTS, Judged, bm25_share, combine, judge,
-                           passage_support, phrase_coverage, split_sentences, term_coverage, window_coverage)
+from auditor.judgement.support import (
+    ANSWER_TYPE_PENALTY,
+    SIGNAL_WEIGHTS,
+    Judged,
+    bm25_share,
+    combine,
+    judge,
+    passage_support,
+    phrase_coverage,
+    split_sentences,
+    term_coverage,
+    window_coverage,
+)
 from auditor.retrieval.tokenize import Tokenizer
 
 TOKENIZE = Tokenizer().tokenize
@@ -21,8 +32,10 @@ WORDS = st.sampled_from("meter leak bill rate water main pipe valve fee".split()
 
 
 @settings(max_examples=60, deadline=None)
-@given(docs=st.lists(st.lists(WORDS, min_size=1, max_size=12), min_size=2, max_size=8),
-       query=st.lists(WORDS, min_size=1, max_size=4, unique=True))
+@given(
+    docs=st.lists(st.lists(WORDS, min_size=1, max_size=12), min_size=2, max_size=8),
+    query=st.lists(WORDS, min_size=1, max_size=4, unique=True),
+)
 def test_bm25_share_stays_below_one_for_the_reference_scores(docs, query):
     # The bound Σ idf_t·(k1+1) holds because each BM25 term weight tf·(k1+1)/(tf + K) < k1 + 1
     # (Robertson & Zaragoza, "The Probabilistic Relevance Framework: BM25 and Beyond", 2009, §3.4).
@@ -101,13 +114,15 @@ def _support(question, text, score=5.0):
 def test_passage_support_prefers_a_passage_that_answers_in_one_window():
     question = "How do I report a water leak?"
     close = "To report a water leak, call the leak line. Crews come out day and night."
-    far = ("Water use rises in summer. Gardens need care. Meters are read monthly. "
-           "You can report problems online. A leak may raise your bill.")
+    far = (
+        "Water use rises in summer. Gardens need care. Meters are read monthly. "
+        "You can report problems online. A leak may raise your bill."
+    )
     a, b = _support(question, close), _support(question, far)
     assert a.signals["coverage"] == b.signals["coverage"] == 1.0
     assert a.signals["window"] == 1.0 > b.signals["window"]
     assert a.support > b.support
-    assert close[a.window[0]:a.window[1]].startswith("To report a water leak")
+    assert close[a.window[0] : a.window[1]].startswith("To report a water leak")
 
 
 def test_passage_support_downgrades_when_the_answer_type_is_absent():
@@ -121,42 +136,49 @@ def test_passage_support_downgrades_when_the_answer_type_is_absent():
 
 # --- answer types -----------------------------------------------------------------------------------
 
+
 # Coarse classes after Li & Roth (COLING 2002): NUM:date, NUM:money/count, NUM:period, HUM, LOC.
-@pytest.mark.parametrize("question, answer_type", [
-    ("When is the office open?", "date"),
-    ("What time does the lobby close?", "date"),
-    ("How much is the late fee?", "amount"),
-    ("How many meters can one account have?", "amount"),
-    ("What does a new connection cost?", "amount"),
-    ("How long does a reconnection take?", "duration"),
-    ("How often are meters read?", "duration"),
-    ("Who do I call about a burst pipe?", "name"),
-    ("Which team handles rebates?", "name"),
-    ("Where do I drop off my payment?", "place"),
-    ("Can I pay my bill by phone?", None),
-    ("What is a boil-water advisory?", None),
-])
+@pytest.mark.parametrize(
+    "question, answer_type",
+    [
+        ("When is the office open?", "date"),
+        ("What time does the lobby close?", "date"),
+        ("How much is the late fee?", "amount"),
+        ("How many meters can one account have?", "amount"),
+        ("What does a new connection cost?", "amount"),
+        ("How long does a reconnection take?", "duration"),
+        ("How often are meters read?", "duration"),
+        ("Who do I call about a burst pipe?", "name"),
+        ("Which team handles rebates?", "name"),
+        ("Where do I drop off my payment?", "place"),
+        ("Can I pay my bill by phone?", None),
+        ("What is a boil-water advisory?", None),
+    ],
+)
 def test_expected_answer_type(question, answer_type):
     assert expected_answer_type(question) == answer_type
 
 
-@pytest.mark.parametrize("text, answer_type, found", [
-    ("Rates changed on 1 March 2024.", "date", True),
-    ("The lobby is open weekdays 8 a.m. to 5 p.m.", "date", True),
-    ("Rates change from time to time.", "date", False),
-    ("The late fee is $12.50.", "amount", True),
-    ("Connections are free for new homes.", "amount", True),
-    ("There is a fee.", "amount", False),
-    ("Reconnection takes 2 business days.", "duration", True),
-    ("Reconnection takes three to five days.", "duration", True),
-    ("Reconnection is quick.", "duration", False),
-    ("Call Customer Care about burst pipes.", "name", True),
-    ("Our field crew will come out.", "name", True),
-    ("Call us.", "name", False),
-    ("Drop payments at 12 Mill Road.", "place", True),
-    ("Pay on our website.", "place", True),
-    ("Pay it soon.", "place", False),
-])
+@pytest.mark.parametrize(
+    "text, answer_type, found",
+    [
+        ("Rates changed on 1 March 2024.", "date", True),
+        ("The lobby is open weekdays 8 a.m. to 5 p.m.", "date", True),
+        ("Rates change from time to time.", "date", False),
+        ("The late fee is $12.50.", "amount", True),
+        ("Connections are free for new homes.", "amount", True),
+        ("There is a fee.", "amount", False),
+        ("Reconnection takes 2 business days.", "duration", True),
+        ("Reconnection takes three to five days.", "duration", True),
+        ("Reconnection is quick.", "duration", False),
+        ("Call Customer Care about burst pipes.", "name", True),
+        ("Our field crew will come out.", "name", True),
+        ("Call us.", "name", False),
+        ("Drop payments at 12 Mill Road.", "place", True),
+        ("Pay on our website.", "place", True),
+        ("Pay it soon.", "place", False),
+    ],
+)
 def test_has_answer_type(text, answer_type, found):
     assert has_answer_type(text, answer_type) is found
 
@@ -207,8 +229,9 @@ def test_covered_without_flags():
 def test_stale_only_support_is_refreshed_or_retired():
     old = judge([Judged(0.7, False, ("too_old",)), Judged(0.6, False, ("expired",))], threshold=T, weak_margin=M)
     assert old.verdict == "stale" and old.reasons == ["too_old", "expired"] and old.action == "refresh"
-    ended = judge([Judged(0.7, False, ("overtaken",)), Judged(0.6, False, ("expired", "too_old"))],
-                  threshold=T, weak_margin=M)
+    ended = judge(
+        [Judged(0.7, False, ("overtaken",)), Judged(0.6, False, ("expired", "too_old"))], threshold=T, weak_margin=M
+    )
     assert ended.reasons == ["too_old", "expired", "overtaken"] and ended.action == "retire"
 
 

@@ -32,8 +32,9 @@ print("released", flush=True)
 
 
 def start_holder(db: Path) -> subprocess.Popen:
-    child = subprocess.Popen([sys.executable, "-c", HOLDER, str(db), str(REPO)], stdin=subprocess.PIPE,
-                             stdout=subprocess.PIPE, text=True)
+    child = subprocess.Popen(
+        [sys.executable, "-c", HOLDER, str(db), str(REPO)], stdin=subprocess.PIPE, stdout=subprocess.PIPE, text=True
+    )
     assert child.stdout.readline().strip() == "locked"
     return child
 
@@ -48,8 +49,10 @@ def test_second_holder_is_refused_with_the_holders_pid_and_start(tmp_path):
         assert time.monotonic() - started < 2.0  # refused at once, not after a wait
         holder = read_holder(db)
         assert holder["pid"] == child.pid
-        assert str(refused.value) == (f"{str(db)!r}: another scan holds the lock "
-                                      f"(pid {child.pid} since {holder['started']}); wait with --wait SECONDS")
+        assert str(refused.value) == (
+            f"{str(db)!r}: another scan holds the lock "
+            f"(pid {child.pid} since {holder['started']}); wait with --wait SECONDS"
+        )
         assert holder["started"].endswith("Z") and holder["started"][:2] == "20"
     finally:
         child.stdin.write("\n")
@@ -92,8 +95,12 @@ sys.stdin.readline()
 
 def test_workers_forked_by_a_killed_holder_do_not_keep_the_lock(tmp_path):
     db = tmp_path / "audit.db"
-    child = subprocess.Popen([sys.executable, "-c", FORKING_HOLDER, str(db), str(REPO)], stdin=subprocess.PIPE,
-                             stdout=subprocess.PIPE, text=True)
+    child = subprocess.Popen(
+        [sys.executable, "-c", FORKING_HOLDER, str(db), str(REPO)],
+        stdin=subprocess.PIPE,
+        stdout=subprocess.PIPE,
+        text=True,
+    )
     worker, pool_worker = map(int, child.stdout.readline().split())
     try:
         with pytest.raises(StoreError):
@@ -136,8 +143,9 @@ def test_waiting_gives_up_after_the_wait(tmp_path):
         with pytest.raises(StoreError) as refused:
             ScanLock(db, wait=0.5).acquire()
         assert time.monotonic() - started >= 0.5
-        assert str(refused.value).startswith(f"{str(db)!r}: another scan still holds the lock after waiting 0.5 s "
-                                             f"(pid {child.pid} since ")
+        assert str(refused.value).startswith(
+            f"{str(db)!r}: another scan still holds the lock after waiting 0.5 s (pid {child.pid} since "
+        )
         assert str(refused.value).endswith("; try a longer --wait SECONDS")
     finally:
         child.kill()
@@ -158,13 +166,19 @@ def test_two_locks_in_one_process_exclude_each_other(tmp_path):
 
 def test_racing_processes_only_one_wins(tmp_path):
     db = tmp_path / "audit.db"
-    racer = ("import sys; sys.path.insert(0, sys.argv[2]); from auditor.history.lock import ScanLock\n"
-             "from auditor.errors import StoreError\n"
-             "try:\n    lock = ScanLock(sys.argv[1]).acquire()\nexcept StoreError as e:\n"
-             "    print('refused', e); sys.exit(1)\n"
-             "print('won', flush=True); sys.stdin.readline()\n")
-    children = [subprocess.Popen([sys.executable, "-c", racer, str(db), str(REPO)], stdin=subprocess.PIPE,
-                                 stdout=subprocess.PIPE, text=True) for _ in range(4)]
+    racer = (
+        "import sys; sys.path.insert(0, sys.argv[2]); from auditor.history.lock import ScanLock\n"
+        "from auditor.errors import StoreError\n"
+        "try:\n    lock = ScanLock(sys.argv[1]).acquire()\nexcept StoreError as e:\n"
+        "    print('refused', e); sys.exit(1)\n"
+        "print('won', flush=True); sys.stdin.readline()\n"
+    )
+    children = [
+        subprocess.Popen(
+            [sys.executable, "-c", racer, str(db), str(REPO)], stdin=subprocess.PIPE, stdout=subprocess.PIPE, text=True
+        )
+        for _ in range(4)
+    ]
     # The winner holds the lock until told to stop, which happens only once the others have exited,
     # so the outcome does not depend on how fast the processes start.
     deadline = time.monotonic() + 60

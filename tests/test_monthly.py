@@ -17,7 +17,6 @@ import sys
 import time
 
 import pytest
-
 from test_crash_safety import december_edits, environment, make_site, run_scan, wrapped_scan
 
 
@@ -26,8 +25,14 @@ def verdicts(results: dict) -> dict[str, str]:
 
 
 def auditor(root, *args) -> subprocess.CompletedProcess:
-    return subprocess.run([sys.executable, "-m", "auditor.cli", *args], cwd=root, env=environment(),
-                          capture_output=True, text=True, timeout=300)
+    return subprocess.run(
+        [sys.executable, "-m", "auditor.cli", *args],
+        cwd=root,
+        env=environment(),
+        capture_output=True,
+        text=True,
+        timeout=300,
+    )
 
 
 @pytest.mark.slow
@@ -38,8 +43,14 @@ def test_two_monthly_scans_diff_shows_exactly_the_two_changes(tmp_path):
     before = json.loads((root / "reports" / "2026-11-01" / "results.json").read_text())
     # The premises, from the documents' own text: the leak page (updated 2026-08-15) answers q-leak
     # freshly; nothing mentions a rain barrel or paperless statements yet.
-    assert verdicts(before) == {"q-phone": "covered", "q-leak": "covered", "q-stop": "covered",
-                                "q-boil": "covered", "q-barrel": "gap", "q-paperless": "gap"}
+    assert verdicts(before) == {
+        "q-phone": "covered",
+        "q-leak": "covered",
+        "q-stop": "covered",
+        "q-boil": "covered",
+        "q-barrel": "gap",
+        "q-paperless": "gap",
+    }
     assert before["diff"] is None
 
     december_edits(root)
@@ -63,12 +74,16 @@ def test_two_monthly_scans_diff_shows_exactly_the_two_changes(tmp_path):
     shown = auditor(root, "diff", "-c", "audit.toml")
     assert shown.returncode == 0, shown.stderr
     lines = shown.stdout.splitlines()
-    assert lines[0] == ("run 2 (2026-12-01) against run 1 (2026-11-01): 1 newly stale (weight 40), "
-                        "1 resolved gap (weight 12); fallback exposure 0.15 -> 0.09")
+    assert lines[0] == (
+        "run 2 (2026-12-01) against run 1 (2026-11-01): 1 newly stale (weight 40), "
+        "1 resolved gap (weight 12); fallback exposure 0.15 -> 0.09"
+    )
     assert [line.split()[0] for line in lines if line.startswith("  ")] == ["q-leak", "q-barrel"]
     listed = auditor(root, "runs", "-c", "audit.toml")
-    assert [line.split()[:3] for line in listed.stdout.splitlines()[1:]] == [["1", "done", "2026-11-01"],
-                                                                             ["2", "done", "2026-12-01"]]
+    assert [line.split()[:3] for line in listed.stdout.splitlines()[1:]] == [
+        ["1", "done", "2026-11-01"],
+        ["2", "done", "2026-12-01"],
+    ]
     assert os.readlink(root / "reports" / "latest") == "2026-12-01"
 
     # A stored run reported again is the run the scan reported: history, diff and gate included.
@@ -102,9 +117,26 @@ def test_two_scans_at_once_one_runs_the_other_is_refused_or_waits(tmp_path):
         assert refused.stderr.rstrip().endswith("; wait with --wait SECONDS")
         assert refused.stderr.count("\n") == 1  # one line, no traceback
 
-        waiting = subprocess.Popen([sys.executable, "-m", "auditor.cli", "scan", "-c", "audit.toml", "--as-of",
-                                    "2026-11-01", "--quiet", "--wait", "120"], cwd=root, env=environment(),
-                                   stdout=subprocess.PIPE, stderr=subprocess.PIPE, text=True)
+        waiting = subprocess.Popen(
+            [
+                sys.executable,
+                "-m",
+                "auditor.cli",
+                "scan",
+                "-c",
+                "audit.toml",
+                "--as-of",
+                "2026-11-01",
+                "--quiet",
+                "--wait",
+                "120",
+            ],
+            cwd=root,
+            env=environment(),
+            stdout=subprocess.PIPE,
+            stderr=subprocess.PIPE,
+            text=True,
+        )
         time.sleep(1.0)
         assert waiting.poll() is None  # still waiting for the lock
     finally:
@@ -157,8 +189,9 @@ def test_retention_keeps_the_newest_runs_after_a_scan(tmp_path):
 def test_failed_gate_exits_3_with_the_limit_and_keeps_the_report(tmp_path):
     root = make_site(tmp_path / "site")
     config = root / "audit.toml"
-    config.write_text(config.read_text().replace("max_gap_share = 0.9", "max_fallback_exposure = 0.10"),
-                      encoding="utf-8")
+    config.write_text(
+        config.read_text().replace("max_gap_share = 0.9", "max_fallback_exposure = 0.10"), encoding="utf-8"
+    )
     done = run_scan(root, "2026-11-01")
     # November: gaps q-barrel (12) and q-paperless (20) of weight 215 -> 32/215 = 0.149 > 0.10
     assert done.returncode == 3, done.stderr

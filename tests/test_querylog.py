@@ -15,8 +15,8 @@ from scipy.spatial.distance import jaccard as scipy_jaccard_distance
 
 from auditor.errors import InputError
 from auditor.questions.querylog import _prefix, import_query_log, jaccard, tokens
-from auditor.questions.sets import load_questions, store_questions, stored_questions
 from auditor.questions.redact import luhn_valid
+from auditor.questions.sets import load_questions, store_questions, stored_questions
 from auditor.store import Store
 
 # Invented questions to a fictional water utility (demo data, DESIGN.md §5); each has 6+ distinct
@@ -62,16 +62,23 @@ def _card(rng: random.Random) -> str:
     if style == 0:
         return digits
     sep = " " if style == 1 else "-"
-    return sep.join(digits[i:i + 4] for i in range(0, 16, 4))
+    return sep.join(digits[i : i + 4] for i in range(0, 16, 4))
 
 
 def _phone(rng: random.Random) -> str:
     # Numbers set aside for fiction (from memory): NANP 555-01xx, Ofcom 020 7946 0xxx.
     n = rng.randrange(100)
-    return rng.choice([
-        f"(415) 555-01{n:02d}", f"415-555-01{n:02d}", f"+1 415 555 01{n:02d}", f"+14155550{100 + n}",
-        f"020 7946 0{n:03d}", f"+44 20 7946 0{n:03d}", f"0044 20 7946 0{n:03d}",
-    ])
+    return rng.choice(
+        [
+            f"(415) 555-01{n:02d}",
+            f"415-555-01{n:02d}",
+            f"+1 415 555 01{n:02d}",
+            f"+14155550{100 + n}",
+            f"020 7946 0{n:03d}",
+            f"+44 20 7946 0{n:03d}",
+            f"0044 20 7946 0{n:03d}",
+        ]
+    )
 
 
 def _email(rng: random.Random, i: int) -> str:
@@ -113,7 +120,7 @@ def generate_log(path, lines: int, seed: int):
             text = text.replace(" ", ", ", 1)
         if b in PII_KIND:
             kind = PII_KIND[b]
-            value = {"email": lambda: _email(rng, i), "phone": lambda: _phone(rng), "card": lambda: _card(rng)}[kind]()
+            value = {"email": lambda: _email(rng, i), "phone": lambda: _phone(rng), "card": lambda: _card(rng)}[kind]()  # noqa: B023
             personal.append(value)
             planted_kinds[kind] += 1
             text = text.replace("{PII}", "{pii}").replace("{Pii}", "{pii}").replace("{pii}", value)
@@ -122,20 +129,34 @@ def generate_log(path, lines: int, seed: int):
         planted_count[b] += int(count or 1)
         # The session column holds a personal string too: ignored columns must never be stored.
         session = personal[-1] if b in PII_KIND else f"s{rng.randrange(10**6)}"
-        rows.append({"query": text, "count": count,
-                     "timestamp": f"2026-11-{1 + i % 30:02d}T{i % 24:02d}:00:00Z", "session": session})
+        rows.append(
+            {
+                "query": text,
+                "count": count,
+                "timestamp": f"2026-11-{1 + i % 30:02d}T{i % 24:02d}:00:00Z",
+                "session": session,
+            }
+        )
     with open(path, "w", newline="", encoding="utf-8") as fh:
         writer = csv.DictWriter(fh, fieldnames=["query", "count", "timestamp", "session"])
         writer.writeheader()
         writer.writerows(rows)
-    return {"count": planted_count, "kinds": planted_kinds, "personal": personal,
-            "near_keys": near_keys, "empty": empty}
+    return {
+        "count": planted_count,
+        "kinds": planted_kinds,
+        "personal": personal,
+        "near_keys": near_keys,
+        "empty": empty,
+    }
 
 
 def _base_of(question: str) -> int:
     key = tokens(question)
-    best = [b for b in range(len(BASES))
-            if jaccard(key, tokens(BASES[b].replace("{pii}", "[" + PII_KIND.get(b, "") + "]"))) >= 0.85]
+    best = [
+        b
+        for b in range(len(BASES))
+        if jaccard(key, tokens(BASES[b].replace("{pii}", "[" + PII_KIND.get(b, "") + "]"))) >= 0.85
+    ]
     assert len(best) == 1, (question, best)
     return best[0]
 
@@ -219,10 +240,16 @@ def test_load_questions_delegates_with_the_same_result(tmp_path):
 
 # --- normalization and merging rules --------------------------------------------------------------
 
+
 def test_case_punctuation_order_and_filler_merge_exactly(tmp_path):
     log = tmp_path / "log.jsonl"
-    lines = ["How do I pay my bill?", "how do i pay my bill", "PAY MY BILL, HOW DO I!",
-             "please how do I pay my bill", "How  do I pay\tmy bill?"]
+    lines = [
+        "How do I pay my bill?",
+        "how do i pay my bill",
+        "PAY MY BILL, HOW DO I!",
+        "please how do I pay my bill",
+        "How  do I pay\tmy bill?",
+    ]
     log.write_text("\n".join(json.dumps({"text": t, "hits": 2}) for t in lines) + "\n")
     questions, summary = import_query_log(log)
     assert [(q.question, q.weight) for q in questions] == [("How do I pay my bill?", 10.0)]
@@ -233,10 +260,7 @@ def test_case_punctuation_order_and_filler_merge_exactly(tmp_path):
 def test_near_duplicates_merge_by_jaccard_threshold(tmp_path):
     log = tmp_path / "log.csv"
     # 6 words vs 7: Jaccard 6/7 = 0.857; vs a different last word: 5/7 = 0.714.
-    log.write_text("query,count\n"
-                   "how can I pay my bill,5\n"
-                   "how can I pay my bill today,2\n"
-                   "how can I pay my rent,1\n")
+    log.write_text("query,count\nhow can I pay my bill,5\nhow can I pay my bill today,2\nhow can I pay my rent,1\n")
     merged, s1 = import_query_log(log, similarity=0.85)
     assert [(q.question, q.weight) for q in merged] == [("how can I pay my bill", 7.0), ("how can I pay my rent", 1.0)]
     assert s1.merged_near == 1
@@ -260,10 +284,12 @@ def test_leader_clustering_does_not_chain(tmp_path):
 
 def test_owner_topic_carried_and_ids_by_weight(tmp_path):
     log = tmp_path / "log.csv"
-    log.write_text("search,count,owner,topic,user\n"
-                   "stop service,1,Customer Care,service,u1\n"
-                   "report a leak,4,Field Operations,leaks,u2\n"
-                   "Report a leak!,1,,leaks,u3\n")
+    log.write_text(
+        "search,count,owner,topic,user\n"
+        "stop service,1,Customer Care,service,u1\n"
+        "report a leak,4,Field Operations,leaks,u2\n"
+        "Report a leak!,1,,leaks,u3\n"
+    )
     questions, summary = import_query_log(log)
     assert [(q.id, q.question, q.owner, q.topic, q.weight) for q in questions] == [
         ("q-001", "report a leak", "Field Operations", "leaks", 5.0),
@@ -292,17 +318,21 @@ def test_deterministic(tmp_path):
 
 # --- bad logs -------------------------------------------------------------------------------------
 
-@pytest.mark.parametrize("content, kwargs, message", [
-    ("query,count\nfine,2\nbad,two\n", {}, r"line 3: count 'two' is not a whole number"),
-    ("query,count\nfine,2.5\n", {}, r"line 2: count '2.5' is not a whole number"),
-    ("query,count\nzero,0\n", {}, r"line 2: count must be 1 or more"),
-    ("session,timestamp\ns1,2026-01-01\n", {}, r"line 1: no query text column"),
-    ("query,count\nx,1\n", {"text_column": "utterance"}, r"line 1: no text column 'utterance'"),
-    ("query,count\nx,1\n", {"count_column": "hits"}, r"line 1: no count column 'hits'"),
-    ("query,count\n", {}, r"no queries found"),
-    ("query\nann@example.org\n+44 20 7946 0958\n", {}, r"no queries found"),
-    ("query\nx\n", {"similarity": 0.0}, r"similarity must be in \(0, 1\]"),
-])
+
+@pytest.mark.parametrize(
+    "content, kwargs, message",
+    [
+        ("query,count\nfine,2\nbad,two\n", {}, r"line 3: count 'two' is not a whole number"),
+        ("query,count\nfine,2.5\n", {}, r"line 2: count '2.5' is not a whole number"),
+        ("query,count\nzero,0\n", {}, r"line 2: count must be 1 or more"),
+        ("session,timestamp\ns1,2026-01-01\n", {}, r"line 1: no query text column"),
+        ("query,count\nx,1\n", {"text_column": "utterance"}, r"line 1: no text column 'utterance'"),
+        ("query,count\nx,1\n", {"count_column": "hits"}, r"line 1: no count column 'hits'"),
+        ("query,count\n", {}, r"no queries found"),
+        ("query\nann@example.org\n+44 20 7946 0958\n", {}, r"no queries found"),
+        ("query\nx\n", {"similarity": 0.0}, r"similarity must be in \(0, 1\]"),
+    ],
+)
 def test_bad_logs(tmp_path, content, kwargs, message):
     path = tmp_path / "log.csv"
     path.write_text(content)
@@ -325,6 +355,7 @@ def test_bad_jsonl_log_names_the_line(tmp_path):
 
 # --- the similarity measure and its prefix filter -------------------------------------------------
 
+
 @given(st.sets(st.integers(0, 30), max_size=12), st.sets(st.integers(0, 30), max_size=12))
 def test_jaccard_matches_scipy(a, b):
     # scipy's Jaccard–Needham dissimilarity on boolean vectors is 1 − |A∩B|/|A∪B|.
@@ -339,8 +370,10 @@ def test_jaccard_matches_scipy(a, b):
     assert jaccard(A, B) == pytest.approx(1.0 - scipy_jaccard_distance(u, v))
 
 
-@given(st.lists(st.sets(st.sampled_from("abcdefghij"), min_size=1, max_size=8), min_size=2, max_size=30),
-       st.sampled_from([0.5, 0.6, 0.7, 0.8, 0.85, 0.9, 1.0]))
+@given(
+    st.lists(st.sets(st.sampled_from("abcdefghij"), min_size=1, max_size=8), min_size=2, max_size=30),
+    st.sampled_from([0.5, 0.6, 0.7, 0.8, 0.85, 0.9, 1.0]),
+)
 @settings(max_examples=200)
 def test_prefix_filter_never_misses_a_similar_pair(sets, t):
     # Prefix-filter lemma (Chaudhuri et al. 2006): J(A,B) ≥ t ⇒ the t-prefixes (in one global
@@ -357,21 +390,28 @@ def test_normalization_before_redaction(tmp_path):
     log = tmp_path / "log.csv"
     # Fullwidth digits and "＠" (NFKC folds them to ASCII, Unicode UAX #15), a zero-width space and
     # a soft hyphen inside words, personal data in the owner cell.
-    log.write_text("query,count,owner\n"
-                   "card ４１１１ １１１１ １１１１ １１１１ charged,1,ann＠example.org\n"
-                   "card [card] char\u00adged,2,\n"
-                   "lea\u200bk on my street,1,\n", encoding="utf-8")
+    log.write_text(
+        "query,count,owner\n"
+        "card ４１１１ １１１１ １１１１ １１１１ charged,1,ann＠example.org\n"
+        "card [card] char\u00adged,2,\n"
+        "lea\u200bk on my street,1,\n",
+        encoding="utf-8",
+    )
     questions, summary = import_query_log(log)
     assert [(q.question, q.weight, q.owner) for q in questions] == [
-        ("card [card] charged", 3.0, "[email]"), ("leak on my street", 1.0, None)]
+        ("card [card] charged", 3.0, "[email]"),
+        ("leak on my street", 1.0, None),
+    ]
     assert summary.redacted == Counter(card=1, email=1)
     assert summary.redacted_records == 1
 
 
 def test_nested_values_in_dropped_keys_are_fine(tmp_path):
     path = tmp_path / "chat.jsonl"
-    path.write_text('{"utterance": "Leak on Oak Avenue", "ts": 1764547200, "context": {"user": "ann@example.org"}}\n'
-                    '{"utterance": "leak on oak avenue!", "ts": 1764633600, "context": ["x"]}\n')
+    path.write_text(
+        '{"utterance": "Leak on Oak Avenue", "ts": 1764547200, "context": {"user": "ann@example.org"}}\n'
+        '{"utterance": "leak on oak avenue!", "ts": 1764633600, "context": ["x"]}\n'
+    )
     questions, summary = import_query_log(path)
     assert [(q.question, q.weight) for q in questions] == [("Leak on Oak Avenue", 2.0)]
     assert summary.ignored_columns == ["context"]

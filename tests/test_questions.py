@@ -25,11 +25,15 @@ def write(tmp_path, name, content, encoding="utf-8"):
 
 # --- formats --------------------------------------------------------------------------------------
 
+
 def test_csv_all_columns_in_file_order(tmp_path):
-    path = write(tmp_path, "set.csv",
-                 "id,question,owner,topic,weight,horizon_days\n"
-                 "pay-1,Can I pay my bill by phone?,Billing,payments,88,\n"
-                 "leak-2,How do I report a leak?,Field Operations,leaks,12.5,90\n")
+    path = write(
+        tmp_path,
+        "set.csv",
+        "id,question,owner,topic,weight,horizon_days\n"
+        "pay-1,Can I pay my bill by phone?,Billing,payments,88,\n"
+        "leak-2,How do I report a leak?,Field Operations,leaks,12.5,90\n",
+    )
     assert load_questions(path) == [
         Question("pay-1", "Can I pay my bill by phone?", "Billing", "payments", 88.0, None),
         Question("leak-2", "How do I report a leak?", "Field Operations", "leaks", 12.5, 90),
@@ -38,15 +42,22 @@ def test_csv_all_columns_in_file_order(tmp_path):
 
 def test_csv_rfc4180_quoting(tmp_path):
     # RFC 4180 §2 rules 5–7: fields with commas, double quotes (doubled) and line breaks are quoted.
-    path = write(tmp_path, "set.csv",
-                 'question,owner\r\n'
-                 '"Is the fee $5, or $10?",Billing\r\n'
-                 '"What does ""boil water"" mean?",Water Quality\r\n'
-                 '"Two\r\nlines",\r\n'
-                 'Last one,\r\n')
+    path = write(
+        tmp_path,
+        "set.csv",
+        "question,owner\r\n"
+        '"Is the fee $5, or $10?",Billing\r\n'
+        '"What does ""boil water"" mean?",Water Quality\r\n'
+        '"Two\r\nlines",\r\n'
+        "Last one,\r\n",
+    )
     qs = load_questions(path)
-    assert [q.question for q in qs] == ["Is the fee $5, or $10?", 'What does "boil water" mean?',
-                                        "Two lines", "Last one"]
+    assert [q.question for q in qs] == [
+        "Is the fee $5, or $10?",
+        'What does "boil water" mean?',
+        "Two lines",
+        "Last one",
+    ]
     assert [q.id for q in qs] == ["q-001", "q-002", "q-003", "q-004"]
     assert qs[2].owner is None
 
@@ -93,14 +104,17 @@ def test_demo_question_set_loads():
     with open(demo, newline="", encoding="utf-8") as fh:
         rows = list(csv.DictReader(fh))
     assert [(q.id, q.question, q.owner, q.topic, q.weight) for q in qs] == [
-        (r["id"], r["question"], r["owner"] or None, r["topic"] or None, float(r["weight"] or 1)) for r in rows]
+        (r["id"], r["question"], r["owner"] or None, r["topic"] or None, float(r["weight"] or 1)) for r in rows
+    ]
     assert len({q.id for q in qs}) == len(rows) > 0
 
 
 def test_jsonl_same_keys(tmp_path):
     # JSON Lines (jsonlines.org): UTF-8, one JSON value per line; blank lines tolerated.
-    lines = [{"id": 7, "question": "Who reads the meter?", "weight": 4, "horizon_days": 30},
-             {"question": "Wie melde ich ein Leck?", "topic": "leaks", "owner": None}]
+    lines = [
+        {"id": 7, "question": "Who reads the meter?", "weight": 4, "horizon_days": 30},
+        {"question": "Wie melde ich ein Leck?", "topic": "leaks", "owner": None},
+    ]
     path = write(tmp_path, "set.jsonl", "\n".join(json.dumps(x, ensure_ascii=False) for x in lines) + "\n\n")
     assert load_questions(path) == [
         Question("7", "Who reads the meter?", weight=4.0, horizon_days=30),
@@ -110,7 +124,10 @@ def test_jsonl_same_keys(tmp_path):
 
 def test_plain_text_skips_blank_and_comment_lines(tmp_path):
     path = write(tmp_path, "set.txt", "# contact centre, November\n\nCan I pay by phone?\n  How do I stop service?  \n")
-    assert load_questions(path) == [Question("q-001", "Can I pay by phone?"), Question("q-002", "How do I stop service?")]
+    assert load_questions(path) == [
+        Question("q-001", "Can I pay by phone?"),
+        Question("q-002", "How do I stop service?"),
+    ]
 
 
 def test_content_sniffing_without_a_known_extension(tmp_path):
@@ -144,10 +161,15 @@ def test_query_log_is_delegated(tmp_path):
 
 
 def test_read_question_file_returns_the_log_summary(tmp_path, caplog):
-    log = write(tmp_path, "log.jsonl", '{"utterance": "Leak on my street", "count": 2}\n'
-                                       '{"utterance": "call 020 7946 0123", "count": 1}\n')
+    log = write(
+        tmp_path,
+        "log.jsonl",
+        '{"utterance": "Leak on my street", "count": 2}\n{"utterance": "call 020 7946 0123", "count": 1}\n',
+    )
     questions, summary = read_question_file(log)
-    assert summary.line() == "2 log lines -> 2 questions (0 exact and 0 near duplicates merged, 0 empty); redacted 1 phone"
+    assert (
+        summary.line() == "2 log lines -> 2 questions (0 exact and 0 near duplicates merged, 0 empty); redacted 1 phone"
+    )
     with caplog.at_level("INFO", logger="auditor.questions.sets"):
         assert load_questions(log) == questions
     assert "redacted 1 phone" in caplog.text
@@ -162,32 +184,40 @@ def test_question_with_count_column_is_a_query_log(tmp_path):
 
 # --- bad files: one clear error naming the file and the line --------------------------------------
 
-@pytest.mark.parametrize("name, content, message", [
-    ("dup.csv", "id,question\na,One?\nb,Two?\na,Three?\n", r"line 4: duplicate id 'a' \(first on line 2\)"),
-    ("dupgen.csv", "id,question\nq-002,One?\n,Two?\n", r"line 3: duplicate id 'q-002' \(first on line 2\)"),
-    ("w0.csv", "question,weight\nOne?,0\n", r"line 2: weight must be a finite number above 0"),
-    ("wneg.csv", "question,weight\nOne?,-3\n", r"line 2: weight must be a finite number above 0"),
-    ("wnan.csv", "question,weight\nOne?,nan\n", r"line 2: weight must be a finite number above 0"),
-    ("wtext.jsonl", '{"question": "One?", "weight": "lots"}\n', r"line 1: weight 'lots' is not a number"),
-    ("wbool.jsonl", '{"question": "One?", "weight": true}\n', r"line 1: weight True is not a number"),
-    ("hz.csv", "question,horizon_days\nOne?,30.5\n", r"line 2: horizon_days '30.5' is not a whole number"),
-    ("hz0.jsonl", '{"question": "One?", "horizon_days": 0}\n', r"line 1: horizon_days must be above 0"),
-    ("unknown.csv", "question,wieght\nOne?,3\n", r"line 1: unknown column 'wieght'"),
-    ("unknown_header_only.csv", "question,wieght\n", r"line 1: unknown column 'wieght'"),
-    ("late_header.csv", "\n\nquestion,wieght\nOne?,1\n", r"line 3: unknown column 'wieght'"),
-    ("unknown.jsonl", '{"question": "One?"}\n{"question": "Two?", "ownr": "x"}\n', r"line 2: unknown column 'ownr'"),
-    ("noquestion.csv", "id,owner\n1,Billing\n", r"line 1: the header needs a 'question' column"),
-    ("emptyq.csv", "id,question\n1,\n", r"line 2: empty question"),
-    ("extra.csv", "question,owner\nOne?,Billing,surplus\n", r"line 2: 3 fields but the header has 2"),
-    ("dupcol.csv", "question,Question\nOne?,Two?\n", r"line 1: column 'question' appears twice"),
-    ("emptycol.csv", "question,,weight\nOne?,,1\n", r"line 1: empty column name in the header"),
-    ("badjson.jsonl", '{"question": "One?"}\n{"question": \n', r"line 2: not valid JSON"),
-    ("array.jsonl", '["One?"]\n', r"line 1: expected a JSON object, got list"),
-    ("empty.txt", "", r"no questions found"),
-    ("blank.txt", "\n  \n# only a comment\n", r"no questions found"),
-    ("header_only.csv", "question,weight\n", r"no questions found"),
-    ("empty.jsonl", "", r"no questions found"),
-])
+
+@pytest.mark.parametrize(
+    "name, content, message",
+    [
+        ("dup.csv", "id,question\na,One?\nb,Two?\na,Three?\n", r"line 4: duplicate id 'a' \(first on line 2\)"),
+        ("dupgen.csv", "id,question\nq-002,One?\n,Two?\n", r"line 3: duplicate id 'q-002' \(first on line 2\)"),
+        ("w0.csv", "question,weight\nOne?,0\n", r"line 2: weight must be a finite number above 0"),
+        ("wneg.csv", "question,weight\nOne?,-3\n", r"line 2: weight must be a finite number above 0"),
+        ("wnan.csv", "question,weight\nOne?,nan\n", r"line 2: weight must be a finite number above 0"),
+        ("wtext.jsonl", '{"question": "One?", "weight": "lots"}\n', r"line 1: weight 'lots' is not a number"),
+        ("wbool.jsonl", '{"question": "One?", "weight": true}\n', r"line 1: weight True is not a number"),
+        ("hz.csv", "question,horizon_days\nOne?,30.5\n", r"line 2: horizon_days '30.5' is not a whole number"),
+        ("hz0.jsonl", '{"question": "One?", "horizon_days": 0}\n', r"line 1: horizon_days must be above 0"),
+        ("unknown.csv", "question,wieght\nOne?,3\n", r"line 1: unknown column 'wieght'"),
+        ("unknown_header_only.csv", "question,wieght\n", r"line 1: unknown column 'wieght'"),
+        ("late_header.csv", "\n\nquestion,wieght\nOne?,1\n", r"line 3: unknown column 'wieght'"),
+        (
+            "unknown.jsonl",
+            '{"question": "One?"}\n{"question": "Two?", "ownr": "x"}\n',
+            r"line 2: unknown column 'ownr'",
+        ),
+        ("noquestion.csv", "id,owner\n1,Billing\n", r"line 1: the header needs a 'question' column"),
+        ("emptyq.csv", "id,question\n1,\n", r"line 2: empty question"),
+        ("extra.csv", "question,owner\nOne?,Billing,surplus\n", r"line 2: 3 fields but the header has 2"),
+        ("dupcol.csv", "question,Question\nOne?,Two?\n", r"line 1: column 'question' appears twice"),
+        ("emptycol.csv", "question,,weight\nOne?,,1\n", r"line 1: empty column name in the header"),
+        ("badjson.jsonl", '{"question": "One?"}\n{"question": \n', r"line 2: not valid JSON"),
+        ("array.jsonl", '["One?"]\n', r"line 1: expected a JSON object, got list"),
+        ("empty.txt", "", r"no questions found"),
+        ("blank.txt", "\n  \n# only a comment\n", r"no questions found"),
+        ("header_only.csv", "question,weight\n", r"no questions found"),
+        ("empty.jsonl", "", r"no questions found"),
+    ],
+)
 def test_bad_question_files(tmp_path, name, content, message):
     path = write(tmp_path, name, content)
     with pytest.raises(InputError, match=message) as info:
@@ -212,6 +242,7 @@ def test_undecodable_file_names_the_line(tmp_path):
 
 
 # --- storing --------------------------------------------------------------------------------------
+
 
 def test_store_questions_replaces_the_set_in_one_transaction(tmp_path):
     store = Store(tmp_path / "audit.db")

@@ -31,8 +31,8 @@ import re
 from pathlib import Path
 
 import pytest
-
 from cpu_budget import OverBudget, cpu_seconds
+
 import auditor
 
 SIZE = 100_000
@@ -49,8 +49,7 @@ BOUNDED = {
 
 # Patterns that fail the budget today: the bug and the fix are in the hardening report; the owner
 # fixes the pattern and removes the entry (strict: a fixed pattern makes its entry fail).
-KNOWN_SLOW = {
-}
+KNOWN_SLOW = {}
 
 
 def _collect() -> dict[str, re.Pattern]:
@@ -85,8 +84,12 @@ def _collect() -> dict[str, re.Pattern]:
 
 PATTERNS = _collect()
 # The package's code less its import statements (a name imported elsewhere is not a use).
-SOURCE = re.sub(r"^\s*from\s+\S+\s+import\s+(?:\([^)]*\)|[^\n]*)", "",
-                "\n".join(p.read_text(encoding="utf-8") for p in PACKAGE.rglob("*.py")), flags=re.M)
+SOURCE = re.sub(
+    r"^\s*from\s+\S+\s+import\s+(?:\([^)]*\)|[^\n]*)",
+    "",
+    "\n".join(p.read_text(encoding="utf-8") for p in PACKAGE.rglob("*.py")),
+    flags=re.M,
+)
 
 
 def uses(name: str) -> set[str]:
@@ -95,20 +98,79 @@ def uses(name: str) -> set[str]:
     if "[" in short:  # inside a container: called through a loop variable; assume the worst
         return {"search", "match", "fullmatch"}
     methods = set(re.findall(rf"\b{re.escape(short)}\.(\w+)\(", SOURCE))
-    kinds = {"match" if m == "match" else "fullmatch" if m == "fullmatch" else "search"
-             for m in methods if m in ("search", "finditer", "findall", "sub", "subn", "split", "match", "fullmatch")}
-    escapes = re.search(rf"\b{re.escape(short)}\b(?!\.(?:search|finditer|findall|sub|subn|split|match|fullmatch|pattern|flags)\()",
-                        SOURCE.replace(f"{short} = re.compile", ""))
+    kinds = {
+        "match" if m == "match" else "fullmatch" if m == "fullmatch" else "search"
+        for m in methods
+        if m in ("search", "finditer", "findall", "sub", "subn", "split", "match", "fullmatch")
+    }
+    escapes = re.search(
+        rf"\b{re.escape(short)}\b(?!\.(?:search|finditer|findall|sub|subn|split|match|fullmatch|pattern|flags)\()",
+        SOURCE.replace(f"{short} = re.compile", ""),
+    )
     if not kinds or escapes:  # passed around, or built into another pattern: assume the worst
         kinds |= {"search", "match", "fullmatch"}
     return kinds
 
 
-GENERIC = ["1", " ", "\t", "\n", "\n ", "1-", "1/", "1.", "1:", "1 ", "1-1 ", "1.1.", "+1 ", "(1) ", "00",
-           "a", "a ", "a.", "a-", "a@", "a@a.", "@a", ".", "!", "?", "-", "*", "_", "#", "# ", "|", "'", '"',
-           "[", "[a](", "![", "(", "([", "<", "<!--", "<http://", "<meta ", "---\n", "[\n",
-           "March ", "May 5 ", "Q1 2024 ", "2024 ", "2024-", "2024-01-01 ", "early ", "the end of ",
-           "from ", "(Ab, ", "x\u00a0", "\u00e9.", "Jan. "]
+GENERIC = [
+    "1",
+    " ",
+    "\t",
+    "\n",
+    "\n ",
+    "1-",
+    "1/",
+    "1.",
+    "1:",
+    "1 ",
+    "1-1 ",
+    "1.1.",
+    "+1 ",
+    "(1) ",
+    "00",
+    "a",
+    "a ",
+    "a.",
+    "a-",
+    "a@",
+    "a@a.",
+    "@a",
+    ".",
+    "!",
+    "?",
+    "-",
+    "*",
+    "_",
+    "#",
+    "# ",
+    "|",
+    "'",
+    '"',
+    "[",
+    "[a](",
+    "![",
+    "(",
+    "([",
+    "<",
+    "<!--",
+    "<http://",
+    "<meta ",
+    "---\n",
+    "[\n",
+    "March ",
+    "May 5 ",
+    "Q1 2024 ",
+    "2024 ",
+    "2024-",
+    "2024-01-01 ",
+    "early ",
+    "the end of ",
+    "from ",
+    "(Ab, ",
+    "x\u00a0",
+    "\u00e9.",
+    "Jan. ",
+]
 
 
 def literals(pattern: re.Pattern) -> list[str]:
@@ -162,6 +224,7 @@ def inputs(pattern: re.Pattern, size: int) -> list[str]:
 
 def run_within_budget(pattern: re.Pattern, text, kinds: set[str], budget: float) -> float:
     """CPU seconds for the pattern's uses on `text`; raises OverBudget past `budget`."""
+
     def uses():
         if "search" in kinds:
             for _ in pattern.finditer(text):
@@ -176,8 +239,13 @@ def run_within_budget(pattern: re.Pattern, text, kinds: set[str], budget: float)
 
 def test_patterns_are_collected():
     # The walk must find the package's main patterns, or the budget test below checks nothing.
-    for name in ("auditor.temporal.patterns.CANDIDATES", "auditor.questions.redact.EMAIL", "auditor.questions.redact.DIGIT_RUN",
-                 "auditor.ingest.markdown._ATX", "auditor.ingest.text._CONTROL"):
+    for name in (
+        "auditor.temporal.patterns.CANDIDATES",
+        "auditor.questions.redact.EMAIL",
+        "auditor.questions.redact.DIGIT_RUN",
+        "auditor.ingest.markdown._ATX",
+        "auditor.ingest.text._CONTROL",
+    ):
         assert name in PATTERNS, name
     assert len(PATTERNS) >= 60
     assert uses("auditor.ingest.markdown._ATX") == {"match"}
@@ -208,12 +276,13 @@ def test_pattern_is_linear_enough(name, pattern):
     kinds = uses(name)
 
     def timed(text: str) -> float:
-        subject = text.encode("utf-8")[:len(text)] if isinstance(pattern.pattern, bytes) else text
+        subject = text.encode("utf-8")[: len(text)] if isinstance(pattern.pattern, bytes) else text
         try:
             return run_within_budget(pattern, subject, kinds, BUDGET_S)
         except OverBudget:
-            pytest.fail(f"{name} ({sorted(kinds)}) exceeded {BUDGET_S} s CPU on {len(text):,} chars of "
-                        f"{text[:24]!r}...")
+            pytest.fail(
+                f"{name} ({sorted(kinds)}) exceeded {BUDGET_S} s CPU on {len(text):,} chars of {text[:24]!r}..."
+            )
 
     full = inputs(pattern, size)
     screened = sorted(((timed(text[: max(1, size // 10)]), i) for i, text in enumerate(full)), reverse=True)

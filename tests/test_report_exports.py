@@ -6,11 +6,18 @@ import csv
 import json
 
 import pytest
-
 import report_samples as samples
+
 from auditor.report import write_report
-from auditor.report.exports import (CSV_COLUMNS, FORMAT1_KEYS, all_owners, owner_slugs,
-                                    question_owner, results_json, slugify)
+from auditor.report.exports import (
+    CSV_COLUMNS,
+    FORMAT1_KEYS,
+    all_owners,
+    owner_slugs,
+    question_owner,
+    results_json,
+    slugify,
+)
 
 
 @pytest.fixture(scope="module")
@@ -57,15 +64,25 @@ def test_gaps_csv_lists_gap_and_stale_questions_by_weight(out):
     assert tuple(rows[0]) == CSV_COLUMNS
     body = [dict(zip(rows[0], r)) for r in rows[1:]]
     run = samples.sample_run()
-    expected = sorted((q for q in run["questions"] if q["verdict"] in ("gap", "stale")),
-                      key=lambda q: -q["weight"])
+    expected = sorted((q for q in run["questions"] if q["verdict"] in ("gap", "stale")), key=lambda q: -q["weight"])
     assert [r["id"] for r in body] == [q["id"] for q in expected]
     first = body[0]  # q-002, the autopay gap, weight 140
-    assert first == {"id": "q-002", "question": "How do I set up autopay?", "owner": "Billing",
-                     "topic": "payments", "weight": "140", "verdict": "gap", "reasons": "",
-                     "flags": "", "support": "0.22", "missing_terms": "autopay", "action": "write",
-                     "best_document": "billing/payment-options.md",
-                     "best_section": "Paying › Options", "best_as_of": "2026-03-31"}
+    assert first == {
+        "id": "q-002",
+        "question": "How do I set up autopay?",
+        "owner": "Billing",
+        "topic": "payments",
+        "weight": "140",
+        "verdict": "gap",
+        "reasons": "",
+        "flags": "",
+        "support": "0.22",
+        "missing_terms": "autopay",
+        "action": "write",
+        "best_document": "billing/payment-options.md",
+        "best_section": "Paying › Options",
+        "best_as_of": "2026-03-31",
+    }
     rebate = next(r for r in body if r["id"] == "q-003")
     assert rebate["reasons"] == "too_old;expired" and rebate["action"] == "retire"
     assert rebate["owner"] == "Conservation Programs"
@@ -109,33 +126,46 @@ def test_owner_files_hold_only_that_owners_questions(out):
 
 def test_owner_with_documents_only_gets_files(tmp_path):
     run = samples.sample_run()
-    run["documents"].append({"path": "eng/pumps.md", "owner": "Engineering", "status": "active",
-                             "as_of": "2020-01-01", "fresh": False, "reasons": ["too_old"]})
+    run["documents"].append(
+        {
+            "path": "eng/pumps.md",
+            "owner": "Engineering",
+            "status": "active",
+            "as_of": "2020-01-01",
+            "fresh": False,
+            "reasons": ["too_old"],
+        }
+    )
     write_report(run, tmp_path)
     assert read_csv(tmp_path / "owners" / "engineering.csv") == [list(CSV_COLUMNS)]
     assert (tmp_path / "owners" / "engineering.html").exists()
 
 
-@pytest.mark.parametrize("name, slug", [
-    ("Billing", "billing"),
-    ("Field Operations", "field-operations"),
-    ("Énergie & Eau — Nord", "energie-eau-nord"),
-    ("../../etc/passwd", "etc-passwd"),
-    ("", "owner"),
-    ("水道", "owner"),
-])
+@pytest.mark.parametrize(
+    "name, slug",
+    [
+        ("Billing", "billing"),
+        ("Field Operations", "field-operations"),
+        ("Énergie & Eau — Nord", "energie-eau-nord"),
+        ("../../etc/passwd", "etc-passwd"),
+        ("", "owner"),
+        ("水道", "owner"),
+    ],
+)
 def test_slugify(name, slug):
     assert slugify(name) == slug
 
 
 def test_owner_slugs_never_collide():
     assert owner_slugs(["Billing", "billing", "BILLING!"]) == {
-        "BILLING!": "billing", "Billing": "billing-2", "billing": "billing-3"}
+        "BILLING!": "billing",
+        "Billing": "billing-2",
+        "billing": "billing-3",
+    }
 
 
 def test_question_owner_rule():
-    q = {"owner": None, "evidence": [{"owner": "A", "supporting": False},
-                                     {"owner": "B", "supporting": True}]}
+    q = {"owner": None, "evidence": [{"owner": "A", "supporting": False}, {"owner": "B", "supporting": True}]}
     assert question_owner(q) == "B"  # the best *supporting* evidence
     q["evidence"][1]["supporting"] = False
     assert question_owner(q) == "A"  # else the top evidence item

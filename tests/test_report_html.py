@@ -9,11 +9,11 @@ import os
 import re
 
 import pytest
+import report_samples as samples
+from bs4 import BeautifulSoup
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
-from bs4 import BeautifulSoup
 
-import report_samples as samples
 from auditor.report import html as report_html
 from auditor.report import write_report
 from auditor.report.charts import age_histogram, trend, verdicts_by_owner
@@ -41,10 +41,20 @@ def page_data(soup):
 def test_write_report_returns_index_and_writes_every_file(report):
     out, _, results = report
     names = sorted(p.relative_to(out).as_posix() for p in out.rglob("*") if p.is_file())
-    owners = ["billing", "conservation-programs", "customer-care", "field-operations",
-              "unassigned", "water-quality", "web-team-img-src-x-onerror-window-pwned-owner"]
-    expected = sorted(["index.html", "results.json", "gaps.csv"]
-                      + [f"owners/{o}.csv" for o in owners] + [f"owners/{o}.html" for o in owners])
+    owners = [
+        "billing",
+        "conservation-programs",
+        "customer-care",
+        "field-operations",
+        "unassigned",
+        "water-quality",
+        "web-team-img-src-x-onerror-window-pwned-owner",
+    ]
+    expected = sorted(
+        ["index.html", "results.json", "gaps.csv"]
+        + [f"owners/{o}.csv" for o in owners]
+        + [f"owners/{o}.html" for o in owners]
+    )
     assert names == expected  # and no temporary file is left behind
 
 
@@ -58,10 +68,14 @@ def test_headline_figures_equal_results_json(report):
     assert float(figure(soup, "freshness")) == pytest.approx(corpus["freshness"])
     assert float(figure(soup, "mean_age_days")) == pytest.approx(corpus["mean_age_days"])
     # Shown text agrees with the machine value: 3 gaps of 13 questions, 27.6 % fallback exposure.
-    assert soup.select_one('[data-figure="fallback_exposure"] data').get_text() == \
-        f"{summary['fallback_exposure'] * 100:.1f}%"
-    assert soup.select_one('[data-figure="gap"] .note').get_text() == \
-        f"{summary['gap'] / summary['questions'] * 100:.1f}% of questions"
+    assert (
+        soup.select_one('[data-figure="fallback_exposure"] data').get_text()
+        == f"{summary['fallback_exposure'] * 100:.1f}%"
+    )
+    assert (
+        soup.select_one('[data-figure="gap"] .note').get_text()
+        == f"{summary['gap'] / summary['questions'] * 100:.1f}% of questions"
+    )
 
 
 def test_header_facts_equal_results_json(report):
@@ -236,8 +250,9 @@ def test_diff_and_gate_are_shown(report):
     assert gate.select_one(".gate-message").get_text() == results["gate"]["message"]
     rows = gate.select("tbody tr")
     assert [r.find_all("td")[-1].get_text() for r in rows] == ["failed", "passed", "failed"]
-    assert [("failed" in (r.get("class") or [])) for r in rows] == [False if c["passed"] else True
-                                                                    for c in results["gate"]["checks"]]
+    assert [("failed" in (r.get("class") or [])) for r in rows] == [
+        False if c["passed"] else True for c in results["gate"]["checks"]
+    ]
     diff = results["diff"]
     groups = [g["data-diff"] for g in soup.select("[data-diff]")]
     assert groups == ["new_gaps", "newly_stale", "resolved_gaps", "refreshed", "added", "removed"]
@@ -302,8 +317,7 @@ def test_owner_page_holds_only_that_owner(report):
     docs = [tr.td.get_text() for tr in soup.select("#inv-oldest tbody tr")]
     assert sorted(docs) == ["field/alder-street-main.txt", "field/leaks-2021.md", "field/leaks.md"]
     assert soup.select_one("section.gate") is None  # the gate is about the whole release
-    assert {a["href"] for a in soup.select(".links a")} == {"../index.html", "field-operations.csv",
-                                                            "../results.json"}
+    assert {a["href"] for a in soup.select(".links a")} == {"../index.html", "field-operations.csv", "../results.json"}
     index = BeautifulSoup((out / "index.html").read_text(encoding="utf-8"), "lxml")
     row = next(tr for tr in index.select("#owners tbody tr") if tr.td.get_text() == "Field Operations")
     cells = [td.get_text() for td in row.find_all("td")]
@@ -378,14 +392,18 @@ def test_a_bare_format1_run_renders(tmp_path):
     assert soup.h1.get_text() == "Knowledge base"  # no title in the run
     assert soup.select_one("#rows-note") is None  # every row is in the HTML
     assert sorted(p.name for p in (tmp_path / "owners").iterdir()) == [
-        "billing.csv", "billing.html", "unassigned.csv", "unassigned.html"]
+        "billing.csv",
+        "billing.html",
+        "unassigned.csv",
+        "unassigned.html",
+    ]
     data = page_data(soup)
     assert data["q"][0]["e"][0][7] == [] and data["sk"] == []  # no terms, no signals
 
 
 def _luminance(hex_colour: str) -> float:
     # WCAG 2.1, "relative luminance" (https://www.w3.org/TR/WCAG21/#dfn-relative-luminance).
-    rgb = [int(hex_colour[i:i + 2], 16) / 255 for i in (1, 3, 5)]
+    rgb = [int(hex_colour[i : i + 2], 16) / 255 for i in (1, 3, 5)]
     lin = [c / 12.92 if c <= 0.04045 else ((c + 0.055) / 1.055) ** 2.4 for c in rgb]
     return 0.2126 * lin[0] + 0.7152 * lin[1] + 0.0722 * lin[2]
 
@@ -398,14 +416,24 @@ def _contrast(a: str, b: str) -> float:
 
 def test_text_colours_meet_wcag_aa_contrast():
     css = report_html._static()[0]
-    root = css[css.index(":root {"):css.index("}", css.index(":root {"))]
+    root = css[css.index(":root {") : css.index("}", css.index(":root {"))]
     var = dict(re.findall(r"--([\w-]+):\s*(#[0-9a-fA-F]{6})", root))
     white = "#ffffff"
     pairs = [  # (text, background) as the stylesheet uses them
-        (white, var["covered"]), (white, var["stale"]), (white, var["gap"]), (white, var["ink-2"]),
-        (var["text"], var["paper"]), (var["muted"], var["paper"]), (var["muted"], white),
-        (var["gap"], var["gap-bg"]), (var["stale"], var["stale-bg"]), (var["covered"], var["covered-bg"]),
-        (var["accent"], white), (var["ink"], var["mark"]), ("#9fd6d2", var["ink"]), ("#b9c8cc", var["ink"]),
+        (white, var["covered"]),
+        (white, var["stale"]),
+        (white, var["gap"]),
+        (white, var["ink-2"]),
+        (var["text"], var["paper"]),
+        (var["muted"], var["paper"]),
+        (var["muted"], white),
+        (var["gap"], var["gap-bg"]),
+        (var["stale"], var["stale-bg"]),
+        (var["covered"], var["covered-bg"]),
+        (var["accent"], white),
+        (var["ink"], var["mark"]),
+        ("#9fd6d2", var["ink"]),
+        ("#b9c8cc", var["ink"]),
     ]
     # WCAG 2.1 success criterion 1.4.3: at least 4.5:1 for normal text.
     low = [(t, b, round(_contrast(t, b), 2)) for t, b in pairs if _contrast(t, b) < 4.5]

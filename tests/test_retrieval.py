@@ -12,17 +12,23 @@ import json
 import math
 
 import numpy as np
-
 import pytest
 import rank_bm25
 
 from auditor.config import RetrievalConfig
 from auditor.errors import ConfigError, StoreError
-from auditor.retrieval.index import (ALL_MISSING, NO_PASSAGES, NO_TERMS, PassageIndex, corpus_fingerprint, describe_hits,
-                               index_folder)
-from auditor.store import Store
+from auditor.retrieval.index import (
+    ALL_MISSING,
+    NO_PASSAGES,
+    NO_TERMS,
+    PassageIndex,
+    corpus_fingerprint,
+    describe_hits,
+    index_folder,
+)
 from auditor.retrieval.tokenize import Tokenizer
 from auditor.retrieval.vocabulary import Vocabulary
+from auditor.store import Store
 
 DOCS = {
     "billing/payment-options.md": [
@@ -42,21 +48,25 @@ DOCS = {
 }
 
 
-def add_document(store: Store, path: str, passages, tokenizer: Tokenizer, status: str = "active",
-                 sha: str | None = None) -> int:
+def add_document(
+    store: Store, path: str, passages, tokenizer: Tokenizer, status: str = "active", sha: str | None = None
+) -> int:
     """Insert one document and its passages per the schema in auditor/store.py."""
     vocabulary = Vocabulary(store)
     with store.transaction():
         doc_id = store.db.execute(
             "INSERT INTO documents(path, source_root, kind, sha256, size, mtime, status, first_seen, "
             "last_seen, ingested_at) VALUES (?, '/kb', 'markdown', ?, 1, '2026-01-01T00:00:00', ?, "
-            "'2026-01-01', '2026-01-01', '2026-01-01')", [path, sha or f"sha-{path}", status]).lastrowid
+            "'2026-01-01', '2026-01-01', '2026-01-01')",
+            [path, sha or f"sha-{path}", status],
+        ).lastrowid
         for ordinal, (heading, text) in enumerate(passages):
             ids = vocabulary.ids(tokenizer.tokenize(text))
             store.db.execute(
                 "INSERT INTO passages(document_id, ordinal, text, heading_path, page, char_start, char_end, "
                 "token_ids, token_count) VALUES (?, ?, ?, ?, NULL, 0, ?, ?, ?)",
-                [doc_id, ordinal, text, json.dumps(heading), len(text), ids.astype("<i4").tobytes(), len(ids)])
+                [doc_id, ordinal, text, json.dumps(heading), len(text), ids.astype("<i4").tobytes(), len(ids)],
+            )
     return doc_id
 
 
@@ -69,8 +79,10 @@ def make_store(tmp_path, docs=DOCS, name="kb.db") -> Store:
 
 
 def all_passages(store):
-    return store.query("SELECT p.id, p.text FROM passages p JOIN documents d ON d.id = p.document_id "
-                       "WHERE d.status = 'active' ORDER BY p.id")
+    return store.query(
+        "SELECT p.id, p.text FROM passages p JOIN documents d ON d.id = p.document_id "
+        "WHERE d.status = 'active' ORDER BY p.id"
+    )
 
 
 def test_scores_equal_rank_bm25_on_a_store(tmp_path):
@@ -124,8 +136,9 @@ def test_index_saved_beside_database_reused_and_rebuilt_on_change(tmp_path):
     assert not again.rebuilt
     assert type(again.index.weights).__name__ == "memmap"  # memory-mapped, not read
     question = "late fee on an unpaid bill"
-    assert [(h.passage_id, h.score) for h in again.search(question).hits] == \
-           [(h.passage_id, h.score) for h in first.search(question).hits]
+    assert [(h.passage_id, h.score) for h in again.search(question).hits] == [
+        (h.passage_id, h.score) for h in first.search(question).hits
+    ]
 
     # Parameters changed: rebuilt, and the saved parameters follow.
     other = PassageIndex.load_or_build(store, RetrievalConfig(k1=0.9))
@@ -133,8 +146,7 @@ def test_index_saved_beside_database_reused_and_rebuilt_on_change(tmp_path):
     assert json.loads((folder / "index.json").read_text())["params"]["k1"] == 0.9
 
     # Corpus changed: a new document is found after the rebuild.
-    add_document(store, "care/autopay.md", [(["Customer Care"], "Autopay takes the bill from your bank.")],
-                 Tokenizer())
+    add_document(store, "care/autopay.md", [(["Customer Care"], "Autopay takes the bill from your bank.")], Tokenizer())
     later = PassageIndex.load_or_build(store, RetrievalConfig(k1=0.9))
     assert later.rebuilt and later.passage_count == 7
     assert later.search("autopay").hits

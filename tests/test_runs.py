@@ -12,8 +12,18 @@ import os
 import pytest
 
 from auditor.errors import AuditorError, StoreError
-from auditor.history.runs import (apply_retention, diff_runs, format_diff, format_runs, history, list_runs,
-                          load_run, previous_run, record_gate, update_latest)
+from auditor.history.runs import (
+    apply_retention,
+    diff_runs,
+    format_diff,
+    format_runs,
+    history,
+    list_runs,
+    load_run,
+    previous_run,
+    record_gate,
+    update_latest,
+)
 from auditor.store import dumps
 
 QUESTIONS = {  # id -> (question, owner, weight)
@@ -30,11 +40,21 @@ QUESTIONS = {  # id -> (question, owner, weight)
 
 def question(qid: str, verdict: str, reasons=None, weight=None) -> dict:
     text, owner, w = QUESTIONS[qid]
-    return {"id": qid, "question": text, "owner": owner, "topic": None,
-            "weight": w if weight is None else weight, "verdict": verdict,
-            "reasons": reasons if reasons is not None else (["too_old"] if verdict == "stale" else []),
-            "support": 0.0 if verdict == "gap" else 0.7, "missing_terms": [], "evidence": [],
-            "flags": [], "action": {"gap": "write", "stale": "refresh"}.get(verdict), "horizon_days": 365}
+    return {
+        "id": qid,
+        "question": text,
+        "owner": owner,
+        "topic": None,
+        "weight": w if weight is None else weight,
+        "verdict": verdict,
+        "reasons": reasons if reasons is not None else (["too_old"] if verdict == "stale" else []),
+        "support": 0.0 if verdict == "gap" else 0.7,
+        "missing_terms": [],
+        "evidence": [],
+        "flags": [],
+        "action": {"gap": "write", "stale": "refresh"}.get(verdict),
+        "horizon_days": 365,
+    }
 
 
 def make_run(as_of: str, questions: list[dict]) -> dict:
@@ -42,25 +62,50 @@ def make_run(as_of: str, questions: list[dict]) -> dict:
     share = lambda v: sum(q["weight"] for q in questions if q["verdict"] == v) / weight if weight else 0.0
     return {
         "format": 1,
-        "run": {"id": None, "as_of": as_of, "horizon_days": 365, "started": f"{as_of}T06:00:00Z",
-                "finished": f"{as_of}T06:01:00Z", "title": "Fernhollow help centre",
-                "tokenizer": {"language": "english", "stopwords": "english"},
-                "corpus": {"documents": 25, "passages": 310, "failed": 1, "freshness": 0.8,
-                           "mean_age_days": 40.0},
-                "thresholds": {"support": 0.45, "weak_margin": 0.05, "source": "default"},
-                "config_fingerprint": "c0ffee", "corpus_fingerprint": f"corpus-{as_of}"},
-        "summary": {"questions": len(questions),
-                    **{v: sum(q["verdict"] == v for q in questions) for v in ("covered", "stale", "gap")},
-                    "weight": weight, "fallback_exposure": share("gap"), "stale_exposure": share("stale")},
+        "run": {
+            "id": None,
+            "as_of": as_of,
+            "horizon_days": 365,
+            "started": f"{as_of}T06:00:00Z",
+            "finished": f"{as_of}T06:01:00Z",
+            "title": "Fernhollow help centre",
+            "tokenizer": {"language": "english", "stopwords": "english"},
+            "corpus": {"documents": 25, "passages": 310, "failed": 1, "freshness": 0.8, "mean_age_days": 40.0},
+            "thresholds": {"support": 0.45, "weak_margin": 0.05, "source": "default"},
+            "config_fingerprint": "c0ffee",
+            "corpus_fingerprint": f"corpus-{as_of}",
+        },
+        "summary": {
+            "questions": len(questions),
+            **{v: sum(q["verdict"] == v for q in questions) for v in ("covered", "stale", "gap")},
+            "weight": weight,
+            "fallback_exposure": share("gap"),
+            "stale_exposure": share("stale"),
+        },
         "questions": questions,
         "ingest_errors": [{"document": "quality/scan.pdf", "error": "encrypted PDF, no password given"}],
-        "documents": [{"path": "billing/payment-options.md", "title": "Payment options", "kind": "markdown",
-                       "owner": "Billing", "status": "active", "doc_date": "2026-01-10",
-                       "doc_date_source": "front_matter:updated", "expires": None, "passages": 4,
-                       "as_of": "2026-01-10", "fresh": True, "reasons": []}],
-        "briefs": [{"title": "autopay", "terms": ["autopay"], "weight": 60.0, "owner": "Billing",
-                    "questions": ["q-007"]}],
-        "history": [], "diff": None, "gate": None,
+        "documents": [
+            {
+                "path": "billing/payment-options.md",
+                "title": "Payment options",
+                "kind": "markdown",
+                "owner": "Billing",
+                "status": "active",
+                "doc_date": "2026-01-10",
+                "doc_date_source": "front_matter:updated",
+                "expires": None,
+                "passages": 4,
+                "as_of": "2026-01-10",
+                "fresh": True,
+                "reasons": [],
+            }
+        ],
+        "briefs": [
+            {"title": "autopay", "terms": ["autopay"], "weight": 60.0, "owner": "Billing", "questions": ["q-007"]}
+        ],
+        "history": [],
+        "diff": None,
+        "gate": None,
     }
 
 
@@ -72,50 +117,104 @@ def store_run(store, run: dict, status: str = "done", gate: dict | None = None) 
             "INSERT INTO runs (started, finished, status, as_of, horizon_days, config_fingerprint, "
             "corpus_fingerprint, thresholds, corpus, summary, gate, ingest_errors, extras) "
             "VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)",
-            [head["started"], head["finished"], status, head["as_of"], head["horizon_days"],
-             head["config_fingerprint"], head["corpus_fingerprint"], dumps(head["thresholds"]),
-             dumps(head["corpus"]), dumps(run["summary"]), dumps(gate) if gate else None,
-             dumps(run["ingest_errors"]),
-             dumps({"documents": run["documents"], "briefs": run["briefs"], "title": head["title"],
-                    "tokenizer": head["tokenizer"]})])
+            [
+                head["started"],
+                head["finished"],
+                status,
+                head["as_of"],
+                head["horizon_days"],
+                head["config_fingerprint"],
+                head["corpus_fingerprint"],
+                dumps(head["thresholds"]),
+                dumps(head["corpus"]),
+                dumps(run["summary"]),
+                dumps(gate) if gate else None,
+                dumps(run["ingest_errors"]),
+                dumps(
+                    {
+                        "documents": run["documents"],
+                        "briefs": run["briefs"],
+                        "title": head["title"],
+                        "tokenizer": head["tokenizer"],
+                    }
+                ),
+            ],
+        )
         head["id"] = cursor.lastrowid
         for i, q in enumerate(run["questions"]):
-            store.db.execute("INSERT INTO results (run_id, position, qid, verdict, weight, result) "
-                             "VALUES (?, ?, ?, ?, ?, ?)", [head["id"], i, q["id"], q["verdict"], q["weight"], dumps(q)])
+            store.db.execute(
+                "INSERT INTO results (run_id, position, qid, verdict, weight, result) VALUES (?, ?, ?, ?, ?, ?)",
+                [head["id"], i, q["id"], q["verdict"], q["weight"], dumps(q)],
+            )
     return head["id"]
 
 
 # November and December: every kind of change once, q-001 and q-005 unchanged.
-NOVEMBER = [question("q-001", "covered"), question("q-002", "covered"), question("q-003", "gap"),
-            question("q-004", "stale"), question("q-005", "covered"), question("q-006", "stale"),
-            question("q-008", "covered")]
-DECEMBER = [question("q-001", "covered"), question("q-002", "gap"), question("q-003", "covered"),
-            question("q-004", "covered"), question("q-005", "covered"), question("q-006", "gap"),
-            question("q-007", "gap"), question("q-008", "stale", ["expired"])]
+NOVEMBER = [
+    question("q-001", "covered"),
+    question("q-002", "covered"),
+    question("q-003", "gap"),
+    question("q-004", "stale"),
+    question("q-005", "covered"),
+    question("q-006", "stale"),
+    question("q-008", "covered"),
+]
+DECEMBER = [
+    question("q-001", "covered"),
+    question("q-002", "gap"),
+    question("q-003", "covered"),
+    question("q-004", "covered"),
+    question("q-005", "covered"),
+    question("q-006", "gap"),
+    question("q-007", "gap"),
+    question("q-008", "stale", ["expired"]),
+]
 
 
 def test_diff_sorts_every_verdict_change_into_exactly_one_list():
     diff = diff_runs(make_run("2026-11-01", NOVEMBER), make_run("2026-12-01", DECEMBER))
-    ids = {name: [i["id"] for i in diff[name]] for name in
-           ("new_gaps", "newly_stale", "resolved_gaps", "refreshed", "added", "removed")}
+    ids = {
+        name: [i["id"] for i in diff[name]]
+        for name in ("new_gaps", "newly_stale", "resolved_gaps", "refreshed", "added", "removed")
+    }
     # q-002 covered->gap and q-006 stale->gap are new gaps; q-008 covered->stale; q-003 gap->covered;
     # q-004 stale->covered; q-007 is new to the set; nothing was dropped.
-    assert ids == {"new_gaps": ["q-002", "q-006"], "newly_stale": ["q-008"], "resolved_gaps": ["q-003"],
-                   "refreshed": ["q-004"], "added": ["q-007"], "removed": []}
-    assert diff["new_gaps"][1] == {"id": "q-006", "question": "When is the main on Alder Street replaced?",
-                                   "owner": "Field Operations", "weight": 5.0, "before": "stale",
-                                   "after": "gap", "reasons": []}
+    assert ids == {
+        "new_gaps": ["q-002", "q-006"],
+        "newly_stale": ["q-008"],
+        "resolved_gaps": ["q-003"],
+        "refreshed": ["q-004"],
+        "added": ["q-007"],
+        "removed": [],
+    }
+    assert diff["new_gaps"][1] == {
+        "id": "q-006",
+        "question": "When is the main on Alder Street replaced?",
+        "owner": "Field Operations",
+        "weight": 5.0,
+        "before": "stale",
+        "after": "gap",
+        "reasons": [],
+    }
     assert diff["newly_stale"][0]["reasons"] == ["expired"]
     assert diff["added"][0]["before"] is None and diff["added"][0]["after"] == "gap"
     # weights: new gaps 40 + 5 = 45; the others one question each
-    assert diff["weights"] == {"new_gaps": 45.0, "newly_stale": 7.0, "resolved_gaps": 12.0,
-                               "refreshed": 25.0, "added": 60.0, "removed": 0.0}
+    assert diff["weights"] == {
+        "new_gaps": 45.0,
+        "newly_stale": 7.0,
+        "resolved_gaps": 12.0,
+        "refreshed": 25.0,
+        "added": 60.0,
+        "removed": 0.0,
+    }
     assert diff["counts"]["new_gaps"] == 2
     # fallback exposure: November 12/207 = 0.058, December (40+5+60)/267 = 0.393
     assert diff["exposure"]["fallback"] == pytest.approx([12 / 207, 105 / 267])
-    assert diff["summary"] == ("2 new gaps (weight 45), 1 newly stale (weight 7), 1 resolved gap (weight 12), "
-                               "1 refreshed (weight 25), 1 question added (weight 60); "
-                               "fallback exposure 0.06 -> 0.39")
+    assert diff["summary"] == (
+        "2 new gaps (weight 45), 1 newly stale (weight 7), 1 resolved gap (weight 12), "
+        "1 refreshed (weight 25), 1 question added (weight 60); "
+        "fallback exposure 0.06 -> 0.39"
+    )
 
 
 def test_diff_of_removed_question_and_of_identical_runs():
@@ -145,7 +244,10 @@ def test_list_runs_and_load_run_round_trip(store):
 
     runs = list_runs(store)
     assert [(r["id"], r["status"], r["as_of"]) for r in runs] == [
-        (first, "done", "2026-11-01"), (second, "done", "2026-12-01"), (second + 1, "running", "2026-12-02")]
+        (first, "done", "2026-11-01"),
+        (second, "done", "2026-12-01"),
+        (second + 1, "running", "2026-12-02"),
+    ]
     assert runs[1]["summary"]["gap"] == 3 and runs[1]["horizon_days"] == 365
 
     loaded = load_run(store)  # newest done, not the running one
@@ -190,8 +292,11 @@ def test_load_run_errors_name_the_database_and_the_run(store):
 
 def test_record_gate(store):
     run_id = store_run(store, make_run("2026-12-01", DECEMBER))
-    gate = {"passed": False, "checks": [{"limit": "max_new_gaps", "max": 1, "value": 3, "passed": False}],
-            "message": "gate failed: new_gaps 3 > max 1"}
+    gate = {
+        "passed": False,
+        "checks": [{"limit": "max_new_gaps", "max": 1, "value": 3, "passed": False}],
+        "message": "gate failed: new_gaps 3 > max 1",
+    }
     record_gate(store, run_id, gate)
     assert json.loads(store.query("SELECT gate FROM runs WHERE id = ?", [run_id])[0]["gate"]) == gate
     assert load_run(store, run_id)["gate"] == gate
@@ -248,14 +353,37 @@ def test_format_runs_and_diff(store):
     store_run(store, make_run("2026-11-01", NOVEMBER))
     store_run(store, make_run("2026-12-01", DECEMBER))
     table = format_runs(list_runs(store)).splitlines()
-    assert table[0].split() == ["run", "status", "as", "of", "started", "finished", "questions", "covered",
-                                "stale", "gap", "fallback", "stale", "exp."]
+    assert table[0].split() == [
+        "run",
+        "status",
+        "as",
+        "of",
+        "started",
+        "finished",
+        "questions",
+        "covered",
+        "stale",
+        "gap",
+        "fallback",
+        "stale",
+        "exp.",
+    ]
     # December: 8 questions, 4 covered, 1 stale, 3 gap; fallback 105/267 = 0.39, stale 7/267 = 0.03
-    assert table[2].split() == ["2", "done", "2026-12-01", "2026-12-01T06:00:00Z", "2026-12-01T06:01:00Z",
-                                "8", "4", "1", "3", "0.39", "0.03"]
+    assert table[2].split() == [
+        "2",
+        "done",
+        "2026-12-01",
+        "2026-12-01T06:00:00Z",
+        "2026-12-01T06:01:00Z",
+        "8",
+        "4",
+        "1",
+        "3",
+        "0.39",
+        "0.03",
+    ]
     text = format_diff(load_run(store)["diff"]).splitlines()
     assert text[0].startswith("run 2 (2026-12-01) against run 1 (2026-11-01): 2 new gaps (weight 45)")
     assert "new gaps (2, weight 45):" in text
-    assert any(line.split()[:5] == ["q-008", "weight", "7", "covered", "->"] and "(expired)" in line
-               for line in text)
+    assert any(line.split()[:5] == ["q-008", "weight", "7", "covered", "->"] and "(expired)" in line for line in text)
     assert format_diff(None) == "no earlier finished run to compare with"

@@ -21,8 +21,12 @@ from auditor.config import load_config
 # The classic injection shapes (OWASP SQL Injection Prevention Cheat Sheet lists quote breaking,
 # statement stacking and comment truncation); the marker makes them findable in SQL text.
 MARKER = "Zq9x"
-PAYLOADS = [f"{MARKER}'); DROP TABLE documents; --", f'{MARKER}" OR "1"="1', f"{MARKER}' OR 1=1 /*",
-            f"{MARKER}\\'; SELECT load_extension('x'); --"]
+PAYLOADS = [
+    f"{MARKER}'); DROP TABLE documents; --",
+    f'{MARKER}" OR "1"="1',
+    f"{MARKER}' OR 1=1 /*",
+    f"{MARKER}\\'; SELECT load_extension('x'); --",
+]
 
 
 class RecordingConnection(sqlite3.Connection):
@@ -62,8 +66,9 @@ def recorded(monkeypatch):
 
     real = sqlite3.connect
     RecordingConnection.statements = []
-    monkeypatch.setattr(auditor.store.sqlite3, "connect",
-                        lambda *a, **k: real(*a, **dict(k, factory=RecordingConnection)))
+    monkeypatch.setattr(
+        auditor.store.sqlite3, "connect", lambda *a, **k: real(*a, **dict(k, factory=RecordingConnection))
+    )
     return RecordingConnection.statements
 
 
@@ -74,13 +79,19 @@ def test_sql_payloads_are_bound_never_spliced_into_statements(demo_copy, recorde
     kb = demo_copy / "kb" / "billing"
     name = PAYLOADS[0].replace("/", "_") + ".md"  # a file name may hold anything but "/"
     title, owner = PAYLOADS[1], PAYLOADS[2]
-    (kb / name).write_text(f"---\ntitle: '{title.replace(chr(39), chr(39) * 2)}'\nowner: '{owner.replace(chr(39), chr(39) * 2)}'\n"
-                           f"updated: 2026-10-01\n---\n\n# Autopay {MARKER}\n\nAutopay withdraws the bill "
-                           f"on its due date. {PAYLOADS[3]}\n", encoding="utf-8")
+    (kb / name).write_text(
+        f"---\ntitle: '{title.replace(chr(39), chr(39) * 2)}'\nowner: '{owner.replace(chr(39), chr(39) * 2)}'\n"
+        f"updated: 2026-10-01\n---\n\n# Autopay {MARKER}\n\nAutopay withdraws the bill "
+        f"on its due date. {PAYLOADS[3]}\n",
+        encoding="utf-8",
+    )
     questions = demo_copy / "questions.csv"
     with questions.open("a", encoding="utf-8") as handle:
-        handle.write('"{0}","How does autopay {1} work?","{2}","{3}",5,\n'.format(
-            *(p.replace('"', '""') for p in (PAYLOADS[0], PAYLOADS[3], PAYLOADS[1], PAYLOADS[2]))))
+        handle.write(
+            '"{}","How does autopay {} work?","{}","{}",5,\n'.format(
+                *(p.replace('"', '""') for p in (PAYLOADS[0], PAYLOADS[3], PAYLOADS[1], PAYLOADS[2]))
+            )
+        )
     config = load_config(demo_copy / "audit.toml", env={})
     outcome = scan(config)
 
@@ -89,14 +100,18 @@ def test_sql_payloads_are_bound_never_spliced_into_statements(demo_copy, recorde
     assert spliced == []
     with Store(config.database) as store:
         # Nothing dropped, and every payload stored as the literal value it was.
-        assert store.query("SELECT title, owner FROM documents WHERE path = ?", [f"billing/{name}"]) == \
-            [{"title": title, "owner": owner}]
+        assert store.query("SELECT title, owner FROM documents WHERE path = ?", [f"billing/{name}"]) == [
+            {"title": title, "owner": owner}
+        ]
         texts = " ".join(r["text"] for r in store.query("SELECT text FROM passages"))
         assert PAYLOADS[3] in texts
     run = json.loads((outcome.out_dir / "results.json").read_text(encoding="utf-8"))
     question = next(q for q in run["questions"] if q["id"] == PAYLOADS[0])
-    assert (question["question"], question["owner"], question["topic"]) == \
-        (f"How does autopay {PAYLOADS[3]} work?", PAYLOADS[1], PAYLOADS[2])
+    assert (question["question"], question["owner"], question["topic"]) == (
+        f"How does autopay {PAYLOADS[3]} work?",
+        PAYLOADS[1],
+        PAYLOADS[2],
+    )
 
 
 def test_the_recorder_sees_spliced_sql(recorded, tmp_path):
@@ -118,8 +133,12 @@ def test_include_globs_never_reach_outside_the_source_root(tmp_path):
     outside.mkdir()
     (root / "inside.md").write_text("# Inside\n\nMeters are read monthly.\n", encoding="utf-8")
     (outside / "secret.md").write_text("# Secret\n\nNot part of the corpus.\n", encoding="utf-8")
-    corpus = CorpusConfig(paths=(root,), include=("**/*", "../**", "../outside/*", str(outside / "*"), "/**"),
-                          follow_symlinks=True, jobs=1)
+    corpus = CorpusConfig(
+        paths=(root,),
+        include=("**/*", "../**", "../outside/*", str(outside / "*"), "/**"),
+        follow_symlinks=True,
+        jobs=1,
+    )
     with Store(tmp_path / "a.db") as store:
         ingest_corpus(store, Config(corpus=corpus), jobs=1)
         paths = [r["path"] for r in store.query("SELECT path FROM documents")]
@@ -131,6 +150,7 @@ def test_include_globs_never_reach_outside_the_source_root(tmp_path):
 @pytest.mark.parametrize("owner", ["../../escaped", "/etc/cron.d/x", "..", "owners/../../x", "C:\\evil", "\x00nul"])
 def test_report_files_for_hostile_owner_names_stay_inside_the_report_folder(tmp_path, owner):
     import report_samples as samples
+
     from auditor.report import write_report
 
     run = samples.sample_run()

@@ -5,11 +5,12 @@ from __future__ import annotations
 
 import re
 
-from hypothesis import given, settings, strategies as st
-
-from auditor.models import Block
-from auditor.ingest.segment import MAX_WORDS, document_text, segment
+from hypothesis import given, settings
+from hypothesis import strategies as st
 from ingest_helpers import words
+
+from auditor.ingest.segment import MAX_WORDS, document_text, segment
+from auditor.models import Block
 
 
 def n_words(text: str) -> int:
@@ -17,9 +18,13 @@ def n_words(text: str) -> int:
 
 
 def test_headings_start_passages_and_keep_their_path():
-    blocks = [Block("Billing", ("Billing",)), Block("Late fees", ("Billing", "Late fees")),
-              Block(words(120), ("Billing", "Late fees")), Block("Paying", ("Billing", "Paying")),
-              Block(words(30, "pay"), ("Billing", "Paying"))]
+    blocks = [
+        Block("Billing", ("Billing",)),
+        Block("Late fees", ("Billing", "Late fees")),
+        Block(words(120), ("Billing", "Late fees")),
+        Block("Paying", ("Billing", "Paying")),
+        Block(words(30, "pay"), ("Billing", "Paying")),
+    ]
     passages = segment(blocks)
     assert [p.heading_path for p in passages] == [("Billing", "Late fees"), ("Billing", "Paying")]
     assert passages[0].text.startswith("Billing\n\nLate fees\n\n")
@@ -27,10 +32,15 @@ def test_headings_start_passages_and_keep_their_path():
 
 
 def test_short_sections_join_the_next_under_their_shared_path():
-    blocks = [Block("Report", ("Report",)), Block("Sources", ("Report", "Sources")),
-              Block(words(40), ("Report", "Sources")), Block("Lead", ("Report", "Lead")),
-              Block(words(50, "lead"), ("Report", "Lead")), Block("Hardness", ("Report", "Hardness")),
-              Block(words(30, "hard"), ("Report", "Hardness"))]
+    blocks = [
+        Block("Report", ("Report",)),
+        Block("Sources", ("Report", "Sources")),
+        Block(words(40), ("Report", "Sources")),
+        Block("Lead", ("Report", "Lead")),
+        Block(words(50, "lead"), ("Report", "Lead")),
+        Block("Hardness", ("Report", "Hardness")),
+        Block(words(30, "hard"), ("Report", "Hardness")),
+    ]
     passages = segment(blocks)
     # 40 + 50 words: below MIN_WORDS when "Hardness" comes, so all three sections share a passage.
     assert len(passages) == 1 and passages[0].heading_path == ("Report",)
@@ -45,7 +55,7 @@ def test_long_sections_are_cut_at_paragraph_ends_within_the_limit():
     # Every cut is at a paragraph end: no block is split.
     text = document_text(blocks)
     for p in passages:
-        assert p.char_start == 0 or text[p.char_start - 2:p.char_start] == "\n\n"
+        assert p.char_start == 0 or text[p.char_start - 2 : p.char_start] == "\n\n"
 
 
 def test_one_huge_paragraph_is_cut_at_sentence_ends():
@@ -74,10 +84,10 @@ def test_offsets_always_slice_the_document_text(spec):
     passages = segment(blocks)
     assert [p.ordinal for p in passages] == list(range(len(passages)))
     for p in passages:
-        assert text[p.char_start:p.char_end] == p.text
+        assert text[p.char_start : p.char_end] == p.text
         assert n_words(p.text) <= MAX_WORDS + 0
     # Nothing but separators and trailing headings is left out.
-    covered = " ".join(text[p.char_start:p.char_end] for p in passages)
+    covered = " ".join(text[p.char_start : p.char_end] for p in passages)
     assert n_words(covered) >= sum(n_words(b.text) for b in blocks if not b.heading_path)
 
 

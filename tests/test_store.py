@@ -12,8 +12,17 @@ def test_schema_created_with_version_and_wal(tmp_path):
     with Store(tmp_path / "a.db") as store:
         assert store.get_meta("schema_version") == str(SCHEMA_VERSION)
         assert store.db.journal_mode == "wal"
-        assert {"documents", "passages", "statements", "questions", "runs", "results", "ingest_errors",
-                "terms", "calibrations"} <= set(store.db.table_names())
+        assert {
+            "documents",
+            "passages",
+            "statements",
+            "questions",
+            "runs",
+            "results",
+            "ingest_errors",
+            "terms",
+            "calibrations",
+        } <= set(store.db.table_names())
         assert store.db.execute("PRAGMA integrity_check").fetchone()[0] == "ok"
 
 

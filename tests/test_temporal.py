@@ -6,23 +6,26 @@ from datetime import date
 from unittest import mock
 
 import pytest
-from hypothesis import given, settings, strategies as st
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
-from auditor.temporal import patterns as temporal_patterns
 from auditor.models import GRANULARITIES, ROLES
+from auditor.temporal import patterns as temporal_patterns
 from auditor.temporal.extract import extract
 
 REF = date(2024, 11, 1)
 
-PASSAGE = ("Billing › Rates\n\nAs of Mar. 1, 2024, the base charge is $18.40. New rates take effect on "
-           "July 1, 2025!\n- Applications close on Jan. 31, 2025.\n- The 2023 schedule is archived.")
+PASSAGE = (
+    "Billing › Rates\n\nAs of Mar. 1, 2024, the base charge is $18.40. New rates take effect on "
+    "July 1, 2025!\n- Applications close on Jan. 31, 2025.\n- The 2023 schedule is archived."
+)
 
 
 def test_offsets_index_the_text_and_order_is_text_order():
     found = extract(PASSAGE, REF)
     assert [e.expression for e in found] == ["Mar. 1, 2024", "July 1, 2025", "Jan. 31, 2025", "2023"]
     for e in found:
-        assert PASSAGE[e.char_start:e.char_end] == e.expression
+        assert PASSAGE[e.char_start : e.char_end] == e.expression
     assert [e.char_start for e in found] == sorted(e.char_start for e in found)
 
 
@@ -38,8 +41,14 @@ def test_sentence_of_each_expression():
 
 def test_as_json_fields_of_the_dates_command():
     (e,) = extract("Updated 2024-10-02.", REF)
-    assert e.as_json() == {"text": "Updated 2024-10-02.", "expression": "2024-10-02", "start": "2024-10-02",
-                           "end": "2024-10-02", "granularity": "day", "role": "as_of"}
+    assert e.as_json() == {
+        "text": "Updated 2024-10-02.",
+        "expression": "2024-10-02",
+        "start": "2024-10-02",
+        "end": "2024-10-02",
+        "granularity": "day",
+        "role": "as_of",
+    }
 
 
 def test_relative_and_yearless_need_a_reference_date():
@@ -57,11 +66,15 @@ def test_relative_expressions_follow_the_reference_date():
     text = "Meters were read two weeks ago and will be read again next quarter."
     first = extract(text, date(2024, 11, 1))
     later = extract(text, date(2025, 5, 20))
-    assert [(e.start, e.end) for e in first] == [(date(2024, 10, 14), date(2024, 10, 20)),
-                                                 (date(2025, 1, 1), date(2025, 3, 31))]
+    assert [(e.start, e.end) for e in first] == [
+        (date(2024, 10, 14), date(2024, 10, 20)),
+        (date(2025, 1, 1), date(2025, 3, 31)),
+    ]
     # 2025-05-20 − 14 days = 2025-05-06, a Tuesday: its ISO week runs Mon 5 May .. Sun 11 May
-    assert [(e.start, e.end) for e in later] == [(date(2025, 5, 5), date(2025, 5, 11)),
-                                                 (date(2025, 7, 1), date(2025, 9, 30))]
+    assert [(e.start, e.end) for e in later] == [
+        (date(2025, 5, 5), date(2025, 5, 11)),
+        (date(2025, 7, 1), date(2025, 9, 30)),
+    ]
     assert [e.role for e in first] == ["event", "planned"]
 
 
@@ -136,8 +149,10 @@ def test_dateparser_sees_only_spans():
         text = "We may call you. The sun is out. Your meter was read 3 days ago; a crew comes in two weeks."
         found = extract(text, REF)
     assert calls == ["3 days ago", "in 2 weeks"]
-    assert [(e.expression, e.start) for e in found] == [("3 days ago", date(2024, 10, 29)),
-                                                       ("in two weeks", date(2024, 11, 11))]
+    assert [(e.expression, e.start) for e in found] == [
+        ("3 days ago", date(2024, 10, 29)),
+        ("in two weeks", date(2024, 11, 11)),
+    ]
 
 
 def test_dateparser_span_cache_is_keyed_by_reference():
@@ -184,9 +199,44 @@ def test_publication_year_in_parentheses_is_other():
 
 # Arbitrary text, with date-like pieces mixed in, never breaks the extractor and always yields
 # well-formed expressions.
-_PIECES = st.sampled_from(["March", "May", "2024", "-", "–", "/", "Q3", "FY", "winter", "next", "ago", "two",
-                           "weeks", "the", "end of", "12", "31", "02/29/", ", ", " ", ".", "\n", "W53", "(", ")",
-                           "through", "from", "to", "and", "between", "early", "mid-", "'90s", "1990s"])
+_PIECES = st.sampled_from(
+    [
+        "March",
+        "May",
+        "2024",
+        "-",
+        "–",
+        "/",
+        "Q3",
+        "FY",
+        "winter",
+        "next",
+        "ago",
+        "two",
+        "weeks",
+        "the",
+        "end of",
+        "12",
+        "31",
+        "02/29/",
+        ", ",
+        " ",
+        ".",
+        "\n",
+        "W53",
+        "(",
+        ")",
+        "through",
+        "from",
+        "to",
+        "and",
+        "between",
+        "early",
+        "mid-",
+        "'90s",
+        "1990s",
+    ]
+)
 
 
 @settings(max_examples=300, deadline=None)
@@ -194,7 +244,7 @@ _PIECES = st.sampled_from(["March", "May", "2024", "-", "–", "/", "Q3", "FY", 
 def test_any_text_yields_well_formed_expressions(pieces, with_reference, day_first):
     text = "".join(pieces)
     for e in extract(text, REF if with_reference else None, day_first=day_first, fiscal_year_start=4):
-        assert text[e.char_start:e.char_end] == e.expression
+        assert text[e.char_start : e.char_end] == e.expression
         assert e.start <= e.end
         assert e.granularity in GRANULARITIES and e.role in ROLES
         assert e.expression.strip() and e.expression in text
@@ -238,6 +288,8 @@ def test_two_digit_years_pivot_like_posix_strptime():
 
 
 def test_lower_case_month_names_except_the_verbs():
-    assert [e.start for e in extract("updated january 5, 2024 and june 2024.", REF)] == [date(2024, 1, 5),
-                                                                                         date(2024, 6, 1)]
+    assert [e.start for e in extract("updated january 5, 2024 and june 2024.", REF)] == [
+        date(2024, 1, 5),
+        date(2024, 6, 1),
+    ]
     assert extract("Crews may 5 times a day march 12 blocks and mar 2 walls.", REF) == []

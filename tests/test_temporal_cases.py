@@ -62,12 +62,17 @@ def score(case):
     expected = [tuple(item) for item in case["expect"]]
     used, pairs, false_positives = set(), [], []
     for expression in found:
-        for i, (written, start, end, granularity, role) in enumerate(expected):
+        for i, (written, start, end, granularity, _role) in enumerate(expected):
             if i in used:
                 continue
-            overlaps = any(expression.char_start < e and s < expression.char_end for s, e in spans(case["text"], written))
-            if overlaps and (expression.start.isoformat(), expression.end.isoformat(),
-                             expression.granularity) == (start, end, granularity):
+            overlaps = any(
+                expression.char_start < e and s < expression.char_end for s, e in spans(case["text"], written)
+            )
+            if overlaps and (expression.start.isoformat(), expression.end.isoformat(), expression.granularity) == (
+                start,
+                end,
+                granularity,
+            ):
                 used.add(i)
                 pairs.append((expression, expected[i]))
                 break
@@ -96,8 +101,9 @@ def figures(cases):
         right_role += sum(1 for found, expected in pairs if found.role == expected[4])
         problems += [f"line {case['line']}: extra {e.expression!r} {e.start}..{e.end} {e.granularity}" for e in extra]
         problems += [f"line {case['line']}: missed {m}" for m in missed]
-        problems += [f"line {case['line']}: {f.expression!r} role {f.role}, expected {x[4]}"
-                     for f, x in pairs if f.role != x[4]]
+        problems += [
+            f"line {case['line']}: {f.expression!r} role {f.role}, expected {x[4]}" for f, x in pairs if f.role != x[4]
+        ]
     precision = true_positive / (true_positive + false_positive)
     recall = true_positive / (true_positive + false_negative)
     counts = f"{len(cases)} sentences, {true_positive} matched, {false_positive} extra, {false_negative} missed"
@@ -108,12 +114,16 @@ def test_precision_recall_and_role_accuracy(capsys):
     cases = load_cases()
     precision, recall, role_accuracy, counts, problems = figures(cases)
     with capsys.disabled():
-        print(f"\ntemporal cases: precision {precision:.3f}, recall {recall:.3f}, "
-              f"role accuracy {role_accuracy:.3f} ({counts})")
+        print(
+            f"\ntemporal cases: precision {precision:.3f}, recall {recall:.3f}, "
+            f"role accuracy {role_accuracy:.3f} ({counts})"
+        )
         for name in sorted({c["set"] for c in cases if c.get("set")}):
             held = figures([c for c in cases if c.get("set") == name])
-            print(f"  of which {name}: precision {held[0]:.3f}, recall {held[1]:.3f}, "
-                  f"role accuracy {held[2]:.3f} ({held[3]})")
+            print(
+                f"  of which {name}: precision {held[0]:.3f}, recall {held[1]:.3f}, "
+                f"role accuracy {held[2]:.3f} ({held[3]})"
+            )
         for problem in problems:
             print("  " + problem)
     assert precision >= 0.95

@@ -6,7 +6,8 @@ import calendar
 from datetime import date, datetime, timedelta
 
 import pytest
-from hypothesis import given, settings, strategies as st
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 from auditor.temporal.extract import extract, timex3
 
@@ -26,13 +27,17 @@ def only(text, **options):
 # 1985-04-12 is ordinal 1985-102 and week date 1985-W15-5; the year boundary cases below are the
 # well-known ones (2008-12-29 is 2009-W01-1; 2010-01-03 is 2009-W53-7).
 
-@pytest.mark.parametrize("written, expected", [
-    ("2009-W01-1", date(2008, 12, 29)),
-    ("2009-W53-7", date(2010, 1, 3)),
-    ("1985-W15-5", date(1985, 4, 12)),
-    ("1985W155", date(1985, 4, 12)),
-    ("2020-W53-5", date(2021, 1, 1)),
-])
+
+@pytest.mark.parametrize(
+    "written, expected",
+    [
+        ("2009-W01-1", date(2008, 12, 29)),
+        ("2009-W53-7", date(2010, 1, 3)),
+        ("1985-W15-5", date(1985, 4, 12)),
+        ("1985W155", date(1985, 4, 12)),
+        ("2020-W53-5", date(2021, 1, 1)),
+    ],
+)
 def test_iso_week_dates(written, expected):
     e = only(f"Notice {written}.")
     assert (e.start, e.end, e.granularity) == (expected, expected, "day")
@@ -50,8 +55,15 @@ def test_week_53_only_in_long_years():
     assert extract("Week 2021-W53.", REF) == []
 
 
-@pytest.mark.parametrize("written, expected", [("1985-102", date(1985, 4, 12)), ("2024-060", date(2024, 2, 29)),
-                                               ("2023-060", date(2023, 3, 1)), ("2024-366", date(2024, 12, 31))])
+@pytest.mark.parametrize(
+    "written, expected",
+    [
+        ("1985-102", date(1985, 4, 12)),
+        ("2024-060", date(2024, 2, 29)),
+        ("2023-060", date(2023, 3, 1)),
+        ("2024-366", date(2024, 12, 31)),
+    ],
+)
 def test_iso_ordinal_dates(written, expected):
     assert only(f"Logged on {written}.").start == expected
 
@@ -71,6 +83,7 @@ def test_week_and_ordinal_dates_match_the_standard_library(day):
 
 # --- leap years, with the standard library's calendar as reference ---------------------------------
 
+
 @settings(max_examples=200, deadline=None)
 @given(st.integers(min_value=1900, max_value=2099))
 def test_february_has_the_right_length(year):
@@ -86,9 +99,13 @@ def test_february_has_the_right_length(year):
 def test_written_forms_round_trip_through_datetime(day):
     month = calendar.month_name[day.month]
     abbr = calendar.month_abbr[day.month]
-    for text in (f"Updated {day.isoformat()}.", f"Effective {month} {day.day}, {day.year}.",
-                 f"Effective {day.day} {month} {day.year}.", f"Closed on {abbr}. {day.day}, {day.year}.",
-                 f"Dated {day.month:02d}/{day.day:02d}/{day.year}."):
+    for text in (
+        f"Updated {day.isoformat()}.",
+        f"Effective {month} {day.day}, {day.year}.",
+        f"Effective {day.day} {month} {day.year}.",
+        f"Closed on {abbr}. {day.day}, {day.year}.",
+        f"Dated {day.month:02d}/{day.day:02d}/{day.year}.",
+    ):
         e = only(text)
         assert (e.start, e.end, e.granularity) == (day, day, "day"), text
     e = only(f"Dated {day.day:02d}/{day.month:02d}/{day.year}.", day_first=True)
@@ -101,20 +118,24 @@ def test_written_forms_round_trip_through_datetime(day):
 # and a decade written with its first three digits ("199" for the 1990s). A quarter is three calendar
 # months and a half six, as in ISO 8601-2:2019's sub-year groupings (codes 33–36 for quarters).
 
-@pytest.mark.parametrize("text, value, start, end, granularity", [
-    ("Results for the third quarter of 1999.", "1999-Q3", date(1999, 7, 1), date(1999, 9, 30), "quarter"),
-    ("Results for Q1 2024.", "2024-Q1", date(2024, 1, 1), date(2024, 3, 31), "quarter"),
-    ("Results for 2024-Q4.", "2024-Q4", date(2024, 10, 1), date(2024, 12, 31), "quarter"),
-    ("Targets for H1 2025.", "2025-H1", date(2025, 1, 1), date(2025, 6, 30), "half"),
-    ("Targets for the second half of 2025.", "2025-H2", date(2025, 7, 1), date(2025, 12, 31), "half"),
-    ("Works in spring 2025.", "2025-SP", date(2025, 3, 1), date(2025, 5, 31), "season"),
-    ("Works in the summer of 1964.", "1964-SU", date(1964, 6, 1), date(1964, 8, 31), "season"),
-    ("Works in fall 2023.", "2023-FA", date(2023, 9, 1), date(2023, 11, 30), "season"),
-    ("Works in winter 2023.", "2023-WI", date(2023, 12, 1), date(2024, 2, 29), "season"),
-    ("Pipes laid in the 1990s.", "199", date(1990, 1, 1), date(1999, 12, 31), "decade"),
-    ("Rates for March 2024.", "2024-03", date(2024, 3, 1), date(2024, 3, 31), "month"),
-    ("During 2023 we grew.", "2023", date(2023, 1, 1), date(2023, 12, 31), "year"),
-])
+
+@pytest.mark.parametrize(
+    "text, value, start, end, granularity",
+    [
+        ("Results for the third quarter of 1999.", "1999-Q3", date(1999, 7, 1), date(1999, 9, 30), "quarter"),
+        ("Results for Q1 2024.", "2024-Q1", date(2024, 1, 1), date(2024, 3, 31), "quarter"),
+        ("Results for 2024-Q4.", "2024-Q4", date(2024, 10, 1), date(2024, 12, 31), "quarter"),
+        ("Targets for H1 2025.", "2025-H1", date(2025, 1, 1), date(2025, 6, 30), "half"),
+        ("Targets for the second half of 2025.", "2025-H2", date(2025, 7, 1), date(2025, 12, 31), "half"),
+        ("Works in spring 2025.", "2025-SP", date(2025, 3, 1), date(2025, 5, 31), "season"),
+        ("Works in the summer of 1964.", "1964-SU", date(1964, 6, 1), date(1964, 8, 31), "season"),
+        ("Works in fall 2023.", "2023-FA", date(2023, 9, 1), date(2023, 11, 30), "season"),
+        ("Works in winter 2023.", "2023-WI", date(2023, 12, 1), date(2024, 2, 29), "season"),
+        ("Pipes laid in the 1990s.", "199", date(1990, 1, 1), date(1999, 12, 31), "decade"),
+        ("Rates for March 2024.", "2024-03", date(2024, 3, 1), date(2024, 3, 31), "month"),
+        ("During 2023 we grew.", "2023", date(2023, 1, 1), date(2023, 12, 31), "year"),
+    ],
+)
 def test_timex3_values_and_intervals(text, value, start, end, granularity):
     e = only(text)
     assert (e.start, e.end, e.granularity) == (start, end, granularity)
@@ -139,8 +160,16 @@ def test_timex3_of_fiscal_quarters_is_the_calendar_one_or_none():
 # agree with it on the forms both understand.
 
 dateparser = pytest.importorskip("dateparser")
-FORMS = ["{month} {day}, {year}", "{day} {month} {year}", "{abbr} {day} {year}", "{weekday}, {month} {day}, {year}",
-         "{month} {year}", "{iso}", "{m:02d}/{day:02d}/{year}", "the {day}{suffix} of {month} {year}"]
+FORMS = [
+    "{month} {day}, {year}",
+    "{day} {month} {year}",
+    "{abbr} {day} {year}",
+    "{weekday}, {month} {day}, {year}",
+    "{month} {year}",
+    "{iso}",
+    "{m:02d}/{day:02d}/{year}",
+    "the {day}{suffix} of {month} {year}",
+]
 
 
 def _suffix(day):
@@ -150,12 +179,26 @@ def _suffix(day):
 @settings(max_examples=150, deadline=None)
 @given(dates, st.sampled_from(FORMS))
 def test_agrees_with_dateparser_on_absolute_forms(day, form):
-    span = form.format(month=calendar.month_name[day.month], abbr=calendar.month_abbr[day.month],
-                       weekday=calendar.day_name[day.weekday()], day=day.day, year=day.year, m=day.month,
-                       iso=day.isoformat(), suffix=_suffix(day.day))
-    reference = dateparser.parse(span, languages=["en"], settings={
-        "DATE_ORDER": "MDY", "PREFER_DAY_OF_MONTH": "first", "RELATIVE_BASE": datetime(2024, 11, 1),
-        "REQUIRE_PARTS": ["month", "year"]})
+    span = form.format(
+        month=calendar.month_name[day.month],
+        abbr=calendar.month_abbr[day.month],
+        weekday=calendar.day_name[day.weekday()],
+        day=day.day,
+        year=day.year,
+        m=day.month,
+        iso=day.isoformat(),
+        suffix=_suffix(day.day),
+    )
+    reference = dateparser.parse(
+        span,
+        languages=["en"],
+        settings={
+            "DATE_ORDER": "MDY",
+            "PREFER_DAY_OF_MONTH": "first",
+            "RELATIVE_BASE": datetime(2024, 11, 1),
+            "REQUIRE_PARTS": ["month", "year"],
+        },
+    )
     assert reference is not None, span
     e = only(f"Dated {span}.")
     assert e.start == reference.date(), span

@@ -13,7 +13,9 @@ def test_snowball_english_examples():
     # "consign" and "consist" families all stem to one root (from memory of that page).
     plain = Tokenizer(stopwords="none")
     assert set(plain.tokenize("consign consigned consigning consignment")) == {"consign"}
-    assert set(plain.tokenize("consist consisted consistency consistent consistently consisting consists")) == {"consist"}
+    assert set(plain.tokenize("consist consisted consistency consistent consistently consisting consists")) == {
+        "consist"
+    }
     # Porter (1980) step 1a examples: caresses -> caress, ponies -> poni.
     assert plain.tokenize("caresses ponies") == ["caress", "poni"]
 
@@ -43,8 +45,12 @@ def test_stopwords_dropped_before_stemming():
 
 
 def test_fingerprint_names_the_settings():
-    prints = {Tokenizer().fingerprint(), Tokenizer(stopwords="lucene").fingerprint(),
-              Tokenizer(language="none").fingerprint(), Tokenizer(language="german").fingerprint()}
+    prints = {
+        Tokenizer().fingerprint(),
+        Tokenizer(stopwords="lucene").fingerprint(),
+        Tokenizer(language="none").fingerprint(),
+        Tokenizer(language="german").fingerprint(),
+    }
     assert len(prints) == 4
     assert Tokenizer().fingerprint() == Tokenizer("english", "english").fingerprint()
 

@@ -63,8 +63,7 @@ def evaluate_gate(run: dict, diff: dict | None, limits: GateConfig) -> dict:
         if maximum is None:
             continue
         value = figures[figure]
-        checks.append({"limit": limit, "figure": figure, "max": maximum, "value": value,
-                       "passed": value <= maximum})
+        checks.append({"limit": limit, "figure": figure, "max": maximum, "value": value, "passed": value <= maximum})
     failed = [c for c in checks if not c["passed"]]
     if failed:
         message = "gate failed: " + ", ".join(_describe(c, ">") for c in failed)

@@ -19,7 +19,7 @@ import os
 import socket
 import time
 import weakref
-from datetime import datetime, timezone
+from datetime import UTC, datetime
 from pathlib import Path
 
 from auditor.errors import StoreError
@@ -29,7 +29,7 @@ POLL_SECONDS = 0.1  # how often a waiting scan retries; flock(2) itself has no t
 # Locks held by this process. A forked child (a parser worker) inherits the lock's descriptor,
 # and a flock lives until every descriptor of it is closed: a worker outliving a killed scan would
 # keep the database locked. So forked children close their copies at once.
-_HELD: "weakref.WeakSet[ScanLock]" = weakref.WeakSet()
+_HELD: weakref.WeakSet[ScanLock] = weakref.WeakSet()
 
 
 def _forget_in_child() -> None:
@@ -61,7 +61,7 @@ class ScanLock:
         self._fd: int | None = None
 
     # -- acquire / release ---------------------------------------------------------------------
-    def acquire(self) -> "ScanLock":
+    def acquire(self) -> ScanLock:
         if self._fd is not None:
             raise StoreError(f"{str(self.db_path)!r}: this scan already holds the lock")
         try:
@@ -102,7 +102,7 @@ class ScanLock:
         finally:
             os.close(fd)
 
-    def __enter__(self) -> "ScanLock":
+    def __enter__(self) -> ScanLock:
         return self.acquire()
 
     def __exit__(self, *exc) -> None:
@@ -123,8 +123,10 @@ class ScanLock:
             holder = _read_holder(fd)
         who = describe_holder(holder)
         if self.wait:
-            return (f"{str(self.db_path)!r}: another scan still holds the lock after waiting "
-                    f"{self.wait:g} s ({who}); try a longer --wait SECONDS")
+            return (
+                f"{str(self.db_path)!r}: another scan still holds the lock after waiting "
+                f"{self.wait:g} s ({who}); try a longer --wait SECONDS"
+            )
         return f"{str(self.db_path)!r}: another scan holds the lock ({who}); wait with --wait SECONDS"
 
 
@@ -167,4 +169,4 @@ def _write(fd: int, text: str) -> None:
 
 
 def _utc_now() -> str:
-    return datetime.now(timezone.utc).strftime("%Y-%m-%dT%H:%M:%SZ")
+    return datetime.now(UTC).strftime("%Y-%m-%dT%H:%M:%SZ")

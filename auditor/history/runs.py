@@ -31,11 +31,10 @@ _LABELS = {  # singular, plural
 
 # --- reading runs ---------------------------------------------------------------------------------
 
+
 def list_runs(store: Store) -> list[dict]:
     """Every stored run, oldest first: {id, started, finished, status, as_of, horizon_days, summary}."""
-    rows = store.query(
-        "SELECT id, started, finished, status, as_of, horizon_days, summary FROM runs ORDER BY id"
-    )
+    rows = store.query("SELECT id, started, finished, status, as_of, horizon_days, summary FROM runs ORDER BY id")
     for row in rows:
         row["summary"] = _json(store, row["id"], "summary", row["summary"], {})
     return rows
@@ -52,17 +51,21 @@ def load_run(store: Store, run_id: int | None = None) -> dict:
     if run_id is None:
         row = _one(store, "SELECT * FROM runs WHERE status = 'done' ORDER BY id DESC LIMIT 1")
         if row is None:
-            raise StoreError(f"{str(store.path)!r}: no finished run in this database; "
-                             f"run `auditor scan` or `auditor audit` first")
+            raise StoreError(
+                f"{str(store.path)!r}: no finished run in this database; run `auditor scan` or `auditor audit` first"
+            )
     else:
         row = _one(store, "SELECT * FROM runs WHERE id = ?", [run_id])
         if row is None:
-            raise StoreError(f"{str(store.path)!r}: no run {run_id} in this database; "
-                             f"`auditor runs` lists the stored runs")
+            raise StoreError(
+                f"{str(store.path)!r}: no run {run_id} in this database; `auditor runs` lists the stored runs"
+            )
         if row["status"] != "done":
             # A running or failed run has partial results; a report of it would mislead.
-            raise StoreError(f"{str(store.path)!r}: run {run_id} is {row['status']}, not done; "
-                             f"only finished runs can be reported or compared")
+            raise StoreError(
+                f"{str(store.path)!r}: run {run_id} is {row['status']}, not done; "
+                f"only finished runs can be reported or compared"
+            )
     run = _run_object(store, row)
     run["history"] = history(store, row["id"])
     base_id = previous_run(store, row["id"])
@@ -78,18 +81,17 @@ def previous_run(store: Store, run_id: int) -> int | None:
     "Before" is by run id, i.e. the order the runs were made in, not by audit date: a re-audit of
     an older date is still compared with the run made just before it.
     """
-    row = _one(store, "SELECT id FROM runs WHERE status = 'done' AND id < ? ORDER BY id DESC LIMIT 1",
-               [run_id])
+    row = _one(store, "SELECT id FROM runs WHERE status = 'done' AND id < ? ORDER BY id DESC LIMIT 1", [run_id])
     return row["id"] if row else None
 
 
 def history(store: Store, run_id: int) -> list[dict]:
     """Done runs before `run_id`, oldest first, as {id, as_of, summary} for the report's trend chart."""
-    rows = store.query(
-        "SELECT id, as_of, summary FROM runs WHERE status = 'done' AND id < ? ORDER BY id", [run_id]
-    )
-    return [{"id": r["id"], "as_of": r["as_of"], "summary": _json(store, r["id"], "summary", r["summary"], {})}
-            for r in rows]
+    rows = store.query("SELECT id, as_of, summary FROM runs WHERE status = 'done' AND id < ? ORDER BY id", [run_id])
+    return [
+        {"id": r["id"], "as_of": r["as_of"], "summary": _json(store, r["id"], "summary", r["summary"], {})}
+        for r in rows
+    ]
 
 
 def _run_object(store: Store, row: dict) -> dict:
@@ -97,8 +99,7 @@ def _run_object(store: Store, row: dict) -> dict:
     extras = _json(store, run_id, "extras", row["extras"], {})
     questions = [
         _json(store, run_id, f"results[{r['position']}]", r["result"], None)
-        for r in store.query("SELECT position, result FROM results WHERE run_id = ? ORDER BY position",
-                             [run_id])
+        for r in store.query("SELECT position, result FROM results WHERE run_id = ? ORDER BY position", [run_id])
     ]
     return {
         "format": 1,
@@ -137,17 +138,21 @@ def _json(store: Store, run_id: int, column: str, text: str | None, default):
     try:
         return json.loads(text)
     except ValueError as exc:
-        raise StoreError(f"{str(store.path)!r}: run {run_id} has an unreadable {column} ({exc}); "
-                         f"delete the run or restore the database from a backup") from None
+        raise StoreError(
+            f"{str(store.path)!r}: run {run_id} has an unreadable {column} ({exc}); "
+            f"delete the run or restore the database from a backup"
+        ) from None
 
 
 # --- writing around a run -------------------------------------------------------------------------
 
+
 def record_gate(store: Store, run_id: int, gate: dict | None) -> None:
     """Store a gate outcome (evaluate_gate's dict) with its run."""
     with store.transaction():
-        cursor = store.db.execute("UPDATE runs SET gate = ? WHERE id = ?",
-                                  [dumps(gate) if gate is not None else None, run_id])
+        cursor = store.db.execute(
+            "UPDATE runs SET gate = ? WHERE id = ?", [dumps(gate) if gate is not None else None, run_id]
+        )
     if cursor.rowcount == 0:
         raise StoreError(f"{str(store.path)!r}: no run {run_id} to record the gate outcome on")
 
@@ -168,8 +173,10 @@ def apply_retention(store: Store, keep: int) -> list[int]:
             return []
         oldest_kept = done[:keep][-1]
         newest = store.query("SELECT max(id) AS id FROM runs")[0]["id"]
-        doomed = [r["id"] for r in store.query("SELECT id FROM runs WHERE id < ? AND id != ? ORDER BY id",
-                                               [oldest_kept, newest])]
+        doomed = [
+            r["id"]
+            for r in store.query("SELECT id FROM runs WHERE id < ? AND id != ? ORDER BY id", [oldest_kept, newest])
+        ]
         if doomed:
             marks = ",".join("?" * len(doomed))
             # Results first: the foreign key cascades only when PRAGMA foreign_keys is on.
@@ -189,8 +196,9 @@ def update_latest(out_dir: str | Path, link: str | Path | None = None) -> Path:
     out_dir = Path(out_dir)
     link = Path(link) if link is not None else out_dir.parent / "latest"
     if link.is_dir() and not link.is_symlink():
-        raise AuditorError(f"{str(link)!r}: is a folder, not the link to the newest report; "
-                           f"move it away so the link can be made")
+        raise AuditorError(
+            f"{str(link)!r}: is a folder, not the link to the newest report; move it away so the link can be made"
+        )
     try:
         target = os.path.relpath(out_dir.resolve(), link.parent.resolve())
     except ValueError:  # another drive (Windows)
@@ -214,7 +222,7 @@ def _remove_dead_temporaries(link: Path) -> None:
     """Drop temporary links left by a scan killed inside update_latest (its pid no longer runs)."""
     for leftover in link.parent.glob(f".{link.name}.*.tmp"):
         try:
-            pid = int(leftover.name[len(link.name) + 2:-4])
+            pid = int(leftover.name[len(link.name) + 2 : -4])
             os.kill(pid, 0)
         except ValueError:
             continue
@@ -228,6 +236,7 @@ def _remove_dead_temporaries(link: Path) -> None:
 
 
 # --- diff -----------------------------------------------------------------------------------------
+
 
 def diff_runs(base: dict, head: dict) -> dict:
     """What changed from run `base` to run `head`, question by question (matched by question id).
@@ -298,9 +307,15 @@ def _keyed(questions: list[dict]) -> dict[tuple[str, int], dict]:
 
 
 def _item(q: dict, before: str | None, after: str | None) -> dict:
-    return {"id": q["id"], "question": q.get("question"), "owner": q.get("owner"),
-            "weight": float(q.get("weight", 1.0)), "before": before, "after": after,
-            "reasons": list(q.get("reasons") or [])}
+    return {
+        "id": q["id"],
+        "question": q.get("question"),
+        "owner": q.get("owner"),
+        "weight": float(q.get("weight", 1.0)),
+        "before": before,
+        "after": after,
+        "reasons": list(q.get("reasons") or []),
+    }
 
 
 def _round(value: float) -> float:
@@ -328,20 +343,42 @@ def _figure(value: float) -> str:
 
 # --- text for the CLI -----------------------------------------------------------------------------
 
+
 def format_runs(runs: list[dict]) -> str:
     """The run history as an aligned text table, one run a line."""
     if not runs:
         return "no runs yet"
-    header = ("run", "status", "as of", "started", "finished", "questions", "covered", "stale", "gap",
-              "fallback", "stale exp.")
+    header = (
+        "run",
+        "status",
+        "as of",
+        "started",
+        "finished",
+        "questions",
+        "covered",
+        "stale",
+        "gap",
+        "fallback",
+        "stale exp.",
+    )
     rows = [header]
     for r in runs:
         s = r.get("summary") or {}
-        rows.append((
-            str(r["id"]), r["status"], r["as_of"] or "", r["started"] or "", r["finished"] or "-",
-            _count(s, "questions"), _count(s, "covered"), _count(s, "stale"), _count(s, "gap"),
-            _share(s, "fallback_exposure"), _share(s, "stale_exposure"),
-        ))
+        rows.append(
+            (
+                str(r["id"]),
+                r["status"],
+                r["as_of"] or "",
+                r["started"] or "",
+                r["finished"] or "-",
+                _count(s, "questions"),
+                _count(s, "covered"),
+                _count(s, "stale"),
+                _count(s, "gap"),
+                _share(s, "fallback_exposure"),
+                _share(s, "stale_exposure"),
+            )
+        )
     widths = [max(len(row[i]) for row in rows) for i in range(len(header))]
     numeric = set(range(5, len(header))) | {0}
     lines = []
@@ -365,8 +402,10 @@ def format_diff(diff: dict | None) -> str:
     """The diff as text: the one-line summary, then each non-empty list, one question a line."""
     if diff is None:
         return "no earlier finished run to compare with"
-    lines = [f"run {diff['head_run']} ({diff['head_as_of']}) against run {diff['base_run']} "
-             f"({diff['base_as_of']}): {diff['summary']}"]
+    lines = [
+        f"run {diff['head_run']} ({diff['head_as_of']}) against run {diff['base_run']} "
+        f"({diff['base_as_of']}): {diff['summary']}"
+    ]
     for name in DIFF_CATEGORIES:
         items = diff[name]
         if not items:
@@ -378,6 +417,8 @@ def format_diff(diff: dict | None) -> str:
             change = f"{i['before'] or '-'} -> {i['after'] or '-'}"
             reasons = f" ({', '.join(i['reasons'])})" if i["reasons"] and i["after"] == "stale" else ""
             owner = i["owner"] or "unassigned"
-            lines.append(f"  {str(i['id']).ljust(width)}  weight {_figure(i['weight'])}  {change}{reasons}  "
-                         f"[{owner}]  {i['question']}")
+            lines.append(
+                f"  {str(i['id']).ljust(width)}  weight {_figure(i['weight'])}  {change}{reasons}  "
+                f"[{owner}]  {i['question']}"
+            )
     return "\n".join(lines)

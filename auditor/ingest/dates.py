@@ -10,7 +10,7 @@ for freshness).
 from __future__ import annotations
 
 import re
-from datetime import date, datetime, timezone
+from datetime import UTC, date, datetime
 
 # ISO 32000-1 §7.9.4: (D:YYYYMMDDHHmmSSOHH'mm), every part after the year optional; O is +, - or Z.
 # PDF 1.x writers often add a trailing apostrophe (HH'mm'), which the older spec showed, and write
@@ -65,8 +65,9 @@ def parse_w3c_datetime(value: str | None) -> date | None:
     return _calendar_date(m)
 
 
-_MONTHS = {m: i for i, m in enumerate(
-    ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"], 1)}
+_MONTHS = {
+    m: i for i, m in enumerate(["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"], 1)
+}
 # RFC 9110 §5.6.7: IMF-fixdate "Sun, 06 Nov 1994 08:49:37 GMT", and the obsolete forms a recipient
 # must still accept: rfc850-date "Sunday, 06-Nov-94 08:49:37 GMT" and asctime "Sun Nov  6 08:49:37 1994".
 _IMF = re.compile(r"^\s*[A-Za-z]{3},\s+(\d{2})\s+([A-Za-z]{3})\s+(\d{4})\s+\d{2}:\d{2}:\d{2}\s+GMT\s*$")
@@ -144,17 +145,30 @@ def parse_meta_value(value) -> date | None:
     # never on running text (DESIGN.md §3.2).
     import dateparser  # slow import, only needed for the unusual cases
 
-    parsed = dateparser.parse(text, languages=["en"], settings={
-        "STRICT_PARSING": True, "REQUIRE_PARTS": ["year", "month", "day"],
-        "RETURN_AS_TIMEZONE_AWARE": False, "PREFER_DAY_OF_MONTH": "first"})
+    parsed = dateparser.parse(
+        text,
+        languages=["en"],
+        settings={
+            "STRICT_PARSING": True,
+            "REQUIRE_PARTS": ["year", "month", "day"],
+            "RETURN_AS_TIMEZONE_AWARE": False,
+            "PREFER_DAY_OF_MONTH": "first",
+        },
+    )
     return parsed.date() if parsed else None
 
 
 def file_time_date(mtime: float) -> date:
     """The UTC calendar date of a file modification time (seconds since the epoch); UTC so that
     the same file gives the same date wherever the audit runs."""
-    return datetime.fromtimestamp(mtime, timezone.utc).date()
+    return datetime.fromtimestamp(mtime, UTC).date()
 
 
-__all__ = ["parse_pdf_date", "parse_w3c_datetime", "parse_http_date", "parse_time_element",
-           "parse_meta_value", "file_time_date"]
+__all__ = [
+    "parse_pdf_date",
+    "parse_w3c_datetime",
+    "parse_http_date",
+    "parse_time_element",
+    "parse_meta_value",
+    "file_time_date",
+]

@@ -21,33 +21,80 @@ import re
 
 from bs4 import BeautifulSoup, Comment, Doctype, NavigableString, ProcessingInstruction, Tag
 
-from auditor.models import Block, MetaDate, ParsedDocument
 from auditor.ingest.dates import parse_http_date, parse_time_element, parse_w3c_datetime
 from auditor.ingest.text import decode_text, sniff_bom
 from auditor.ingest.walk import IngestFailure
+from auditor.models import Block, MetaDate, ParsedDocument
 
 # Chromium's HTML parser stops nesting at 512 levels (kMaximumHTMLParserDOMTreeDepth, from
 # memory); deeper documents are not real pages, and walking them costs time for nothing.
 MAX_DEPTH = 512
 
-_DROP = {"nav", "aside", "script", "style", "noscript", "template", "form", "button", "select",
-         "textarea", "iframe", "svg", "canvas", "dialog", "object", "embed", "head", "input"}
+_DROP = {
+    "nav",
+    "aside",
+    "script",
+    "style",
+    "noscript",
+    "template",
+    "form",
+    "button",
+    "select",
+    "textarea",
+    "iframe",
+    "svg",
+    "canvas",
+    "dialog",
+    "object",
+    "embed",
+    "head",
+    "input",
+}
 _CHROME = {"header", "footer"}
 # Cookie/consent banners by their usual id or class words ("cookie-banner", "consent-popup",
 # "cookieconsent"...), not any name holding "cookie": a page about http.cookiejar is content.
-_BANNER = re.compile(r"(?<![\w.])(?:cookies?|consent|gdpr|privacy)[-_]?(?:banner|bar|notice|popup|modal|dialog|"
-                     r"overlay|wall|message|consent|container|prompt)(?![\w.])|(?<![\w.])(?:cookieconsent|"
-                     r"cookie-?law|onetrust[-\w]*|cc-(?:banner|window)|skip-link|newsletter-signup)(?![\w.])", re.I)
+_BANNER = re.compile(
+    r"(?<![\w.])(?:cookies?|consent|gdpr|privacy)[-_]?(?:banner|bar|notice|popup|modal|dialog|"
+    r"overlay|wall|message|consent|container|prompt)(?![\w.])|(?<![\w.])(?:cookieconsent|"
+    r"cookie-?law|onetrust[-\w]*|cc-(?:banner|window)|skip-link|newsletter-signup)(?![\w.])",
+    re.I,
+)
 _HEADINGS = {"h1": 1, "h2": 2, "h3": 3, "h4": 4, "h5": 5, "h6": 6}
-_BLOCKS = {"p", "div", "section", "article", "main", "blockquote", "pre", "ul", "ol", "dl", "table",
-           "figure", "figcaption", "address", "details", "summary", "fieldset", "hr", "body",
-           "caption", "thead", "tbody", "tfoot", "center"}
+_BLOCKS = {
+    "p",
+    "div",
+    "section",
+    "article",
+    "main",
+    "blockquote",
+    "pre",
+    "ul",
+    "ol",
+    "dl",
+    "table",
+    "figure",
+    "figcaption",
+    "address",
+    "details",
+    "summary",
+    "fieldset",
+    "hr",
+    "body",
+    "caption",
+    "thead",
+    "tbody",
+    "tfoot",
+    "center",
+}
 _LINES = {"li", "tr", "dt", "dd", "br"}
 _CELLS = {"td", "th"}
 # WHATWG HTML §13.2.3.2 prescan: <meta charset> or <meta http-equiv content="...; charset=...">;
 # an XHTML file's XML declaration names its encoding the same way.
-_META_CHARSET = re.compile(rb"""<meta[^>]+charset\s*=\s*["']?([A-Za-z0-9_\-:.]+)"""
-                           rb"""|<\?xml[^>]+encoding\s*=\s*["']([A-Za-z0-9_\-:.]+)""", re.I)
+_META_CHARSET = re.compile(
+    rb"""<meta[^>]+charset\s*=\s*["']?([A-Za-z0-9_\-:.]+)"""
+    rb"""|<\?xml[^>]+encoding\s*=\s*["']([A-Za-z0-9_\-:.]+)""",
+    re.I,
+)
 _WS = re.compile(r"[ \t\r\n\f\u00a0]+")
 
 _JSONLD_KEYS = [("dateModified", "modified"), ("datePublished", "published"), ("expires", "expires")]
@@ -65,9 +112,11 @@ _META = [
     ("name", "dcterms.created", "created", "dcterms:created"),
     ("name", "dcterms.valid", "expires", "dcterms:valid"),
 ]
-_TIME_HINTS = [("modified", re.compile(r"updat|modif|revis|review|changed", re.I)),
-               ("published", re.compile(r"publish|posted|issued|created", re.I)),
-               ("expires", re.compile(r"expir|valid until|valid through", re.I))]
+_TIME_HINTS = [
+    ("modified", re.compile(r"updat|modif|revis|review|changed", re.I)),
+    ("published", re.compile(r"publish|posted|issued|created", re.I)),
+    ("expires", re.compile(r"expir|valid until|valid through", re.I)),
+]
 
 
 def _charset(data: bytes) -> str | None:
@@ -121,7 +170,9 @@ def _scan(soup: BeautifulSoup, path: str) -> _Scan:
     while stack:
         node, depth = stack.pop()
         if depth > MAX_DEPTH:
-            raise IngestFailure("parse_error", path, f"HTML nested deeper than {MAX_DEPTH} elements; not a page a browser would show")
+            raise IngestFailure(
+                "parse_error", path, f"HTML nested deeper than {MAX_DEPTH} elements; not a page a browser would show"
+            )
         name = node.name
         if name == "meta":
             scan.metas.append(node)
@@ -160,7 +211,11 @@ def _dropped(tag: Tag, inside_root: bool) -> bool:
     # Documentation generators append permalink anchors ("¶") to headings and definitions.
     if tag.name == "a" and (tag.get("href") or "").startswith("#") and tag.get_text().strip() in _PERMALINK:
         return True
-    if tag.get("hidden") is not None or tag.get("aria-hidden") == "true" or tag.get("role") in ("navigation", "banner", "contentinfo"):
+    if (
+        tag.get("hidden") is not None
+        or tag.get("aria-hidden") == "true"
+        or tag.get("role") in ("navigation", "banner", "contentinfo")
+    ):
         return True
     style = tag.get("style")
     if style and "display:none" in style.replace(" ", "").lower():
@@ -279,8 +334,17 @@ def _dates(scan: _Scan) -> list[MetaDate]:
     for time in scan.times:
         if id(time) in used:
             continue
-        hint = " ".join(filter(None, [time.get("itemprop"), time.get("class"),
-                                      "updated" if time.has_attr("pubdate") else None, _preceding_text(time)]))
+        hint = " ".join(
+            filter(
+                None,
+                [
+                    time.get("itemprop"),
+                    time.get("class"),
+                    "updated" if time.has_attr("pubdate") else None,
+                    _preceding_text(time),
+                ],
+            )
+        )
         for kind, pattern in _TIME_HINTS:
             if pattern.search(hint):
                 d = parse_time_element(time.get("datetime") or time.get_text())

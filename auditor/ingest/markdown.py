@@ -12,10 +12,10 @@ import re
 
 import yaml
 
-from auditor.models import Block, MetaDate, ParsedDocument
 from auditor.ingest.dates import parse_meta_value
 from auditor.ingest.text import decode_text
 from auditor.ingest.walk import IngestFailure
+from auditor.models import Block, MetaDate, ParsedDocument
 
 _FRONT_MATTER = re.compile(r"\A---[ \t]*\n(.*?\n)?(?:---|\.\.\.)[ \t]*(?:\n|\Z)", re.S)
 _ATX = re.compile(r"^ {0,3}(#{1,6})(?:[ \t]+(.*?))?(?:[ \t]+#+)?[ \t]*$")
@@ -42,10 +42,17 @@ def _strip_comments(text: str) -> str:
     out.append(text[at:])
     return "".join(out)
 
+
 # front matter key -> (MetaDate kind, order of specificity: DESIGN.md §3.1 lists updated,
 # last_reviewed, date)
-DATE_KEYS = [("updated", "modified"), ("last_reviewed", "reviewed"), ("modified", "modified"),
-             ("reviewed", "reviewed"), ("date", "published"), ("expires", "expires")]
+DATE_KEYS = [
+    ("updated", "modified"),
+    ("last_reviewed", "reviewed"),
+    ("modified", "modified"),
+    ("reviewed", "reviewed"),
+    ("date", "published"),
+    ("expires", "expires"),
+]
 
 
 def front_matter(text: str, path: str) -> tuple[dict, str]:
@@ -66,7 +73,7 @@ def front_matter(text: str, path: str) -> tuple[dict, str]:
     if not isinstance(data, dict):
         raise IngestFailure("parse_error", path, "front matter is not a mapping of keys to values")
     # Keep offsets simple: the body replaces front matter by as many newlines (line numbers hold).
-    return data, "\n" * m.group(0).count("\n") + text[m.end():]
+    return data, "\n" * m.group(0).count("\n") + text[m.end() :]
 
 
 def _inline(text: str) -> str:
@@ -124,7 +131,12 @@ def parse_markdown(data: bytes, path: str) -> ParsedDocument:
             flush()
             heading(len(m.group(1)), m.group(2) or "")
             continue
-        if paragraph and _SETEXT.match(line) and len(paragraph) >= 1 and not paragraph[-1].lstrip().startswith(("-", "*", ">")):
+        if (
+            paragraph
+            and _SETEXT.match(line)
+            and len(paragraph) >= 1
+            and not paragraph[-1].lstrip().startswith(("-", "*", ">"))
+        ):
             title = "\n".join(paragraph)
             paragraph.clear()
             heading(1 if line.strip()[0] == "=" else 2, title.replace("\n", " "))

@@ -14,9 +14,9 @@ import io
 import logging
 import re
 
-from auditor.models import Block, MetaDate, ParsedDocument
 from auditor.ingest.dates import parse_pdf_date
 from auditor.ingest.walk import IngestFailure
+from auditor.models import Block, MetaDate, ParsedDocument
 
 logging.getLogger("pypdf").setLevel(logging.ERROR)  # its warnings would flood the progress bar
 
@@ -39,7 +39,9 @@ def parse_pdf(data: bytes, path: str) -> ParsedDocument:
             except (NotImplementedError, DependencyMissing) as exc:
                 raise IngestFailure("encrypted", path, f"encrypted PDF; cannot decrypt ({exc})") from None
             if not ok:
-                raise IngestFailure("encrypted", path, "encrypted PDF, no password given (the empty password does not open it)")
+                raise IngestFailure(
+                    "encrypted", path, "encrypted PDF, no password given (the empty password does not open it)"
+                )
         runs: list[list[tuple[str, float, bool]]] = []
         pages = [_page_text(page, runs) for page in reader.pages]
         outline = _outline(reader)
@@ -49,16 +51,33 @@ def parse_pdf(data: bytes, path: str) -> ParsedDocument:
         raise
     except FileNotDecryptedError:
         raise IngestFailure("encrypted", path, "encrypted PDF, no password given") from None
-    except (PdfReadError, PyPdfError, ValueError, KeyError, TypeError, AttributeError, IndexError, OSError,
-            RecursionError, AssertionError, ZeroDivisionError, NotImplementedError, LookupError,
-            ArithmeticError, UnicodeError, MemoryError) as exc:
+    except (
+        PdfReadError,
+        PyPdfError,
+        ValueError,
+        KeyError,
+        TypeError,
+        AttributeError,
+        IndexError,
+        OSError,
+        RecursionError,
+        AssertionError,
+        ZeroDivisionError,
+        NotImplementedError,
+        LookupError,
+        ArithmeticError,
+        UnicodeError,
+        MemoryError,
+    ) as exc:
         # A damaged or hostile file can make pypdf raise nearly anything (an unknown /Filter is
         # NotImplementedError, a deep page tree LimitReachedError): it is the file's failure.
         raise IngestFailure("parse_error", path, f"damaged PDF ({type(exc).__name__}: {_one_line(exc)})") from None
     if not pages:
         raise IngestFailure("empty", path, "PDF has no pages")
     if not any(p.strip() for p in pages):
-        raise IngestFailure("needs_ocr", path, f"PDF has no text layer on any of its {len(pages)} pages (scanned?); needs OCR")
+        raise IngestFailure(
+            "needs_ocr", path, f"PDF has no text layer on any of its {len(pages)} pages (scanned?); needs OCR"
+        )
     if outline:
         blocks = _blocks(pages, _outline_headings(outline))
     else:
@@ -69,6 +88,7 @@ def parse_pdf(data: bytes, path: str) -> ParsedDocument:
 try:  # pypdf >= 3.x raises this when AES needs the cryptography package
     from pypdf.errors import DependencyError as DependencyMissing
 except ImportError:  # pragma: no cover
+
     class DependencyMissing(Exception):
         pass
 
@@ -162,8 +182,10 @@ def _font_headings(runs: list[list[tuple[str, float, bool]]]) -> dict[int, list[
             return False
         return size >= body * 1.15 or (bold_headings and bold and size >= body * 0.95)
 
-    sizes = sorted({size for page in runs for text, size, bold in page if is_heading(text, size, bold)
-                    and size >= body * 1.15}, reverse=True)
+    sizes = sorted(
+        {size for page in runs for text, size, bold in page if is_heading(text, size, bold) and size >= body * 1.15},
+        reverse=True,
+    )
     level_of = {size: i + 1 for i, size in enumerate(sizes)}
     out: dict[int, list[tuple[str, int]]] = {}
     for index, page in enumerate(runs):
@@ -208,8 +230,9 @@ def _blocks(pages: list[str], headings: dict[int, list[tuple[str, int]]], *, pre
         at: dict[int, tuple[str, int]] = {}
         position = 0
         for title, level in expected:
-            found = next((i for i in range(position, len(lines)) if i not in at
-                          and _same_line(lines[i], title, prefix)), None)
+            found = next(
+                (i for i in range(position, len(lines)) if i not in at and _same_line(lines[i], title, prefix)), None
+            )
             if found is None:
                 if not prefix:  # a font heading not found as a line: not a heading after all
                     continue
@@ -222,9 +245,10 @@ def _blocks(pages: list[str], headings: dict[int, list[tuple[str, int]]], *, pre
         paragraph: list[str] = []
 
         def flush() -> None:
-            if paragraph:
-                blocks.append(Block(" ".join(paragraph), tuple(h for _, h in stack), index + 1))
-                paragraph.clear()
+            # Called inside the loop over pages: `paragraph` and `index` are the current page's.
+            if paragraph:  # noqa: B023
+                blocks.append(Block(" ".join(paragraph), tuple(h for _, h in stack), index + 1))  # noqa: B023
+                paragraph.clear()  # noqa: B023
 
         for i, raw in enumerate(lines):
             line = raw.strip()

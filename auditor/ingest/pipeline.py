@@ -31,13 +31,22 @@ import sys
 import time
 from collections.abc import Callable, Iterator
 from dataclasses import dataclass, field
-from datetime import datetime, timezone
+from datetime import UTC, datetime
 from multiprocessing.connection import wait
 from pathlib import Path
 
 from auditor.errors import AuditorError, InputError
+from auditor.ingest.walk import (
+    IngestFailure,
+    SourceFile,
+    detect_kind,
+    discover,
+    glob_match,
+    read_file,
+    sha256,
+    storable,
+)
 from auditor.models import MetaDate
-from auditor.ingest.walk import IngestFailure, SourceFile, detect_kind, discover, glob_match, read_file, sha256, storable
 
 # The code whose output is stored per file: when any of it changes, every file is parsed again
 # (a better date pattern or parser must reach documents that did not change).
@@ -53,6 +62,7 @@ def parser_fingerprint() -> str:
             digest.update(source.name.encode() + b"\0" + source.read_bytes())
     return digest.hexdigest()[:16]
 
+
 DATE_KINDS_FOR_DOC_DATE = ("modified", "reviewed", "published", "created")
 
 
@@ -62,7 +72,6 @@ DATE_KINDS_FOR_DOC_DATE = ("modified", "reviewed", "published", "created")
 # worker (killed and replaced) and its one file, and the run goes on. Workers are started with
 # "spawn" (safe beside an open SQLite connection) and report when ready, so their start-up (imports)
 # does not count against the first file's timeout.
-
 
 
 def _serve(conn, target: Callable, settings, init: Callable | None) -> None:
@@ -110,8 +119,9 @@ class _Worker:
         self.conn.close()
 
 
-def run_tasks(tasks: list, target: Callable, settings, *, jobs: int, timeout: float,
-              init: Callable | None = None) -> Iterator[tuple[object, str, object]]:
+def run_tasks(
+    tasks: list, target: Callable, settings, *, jobs: int, timeout: float, init: Callable | None = None
+) -> Iterator[tuple[object, str, object]]:
     """Run target(task, settings) for every task in `jobs` worker processes; each worker first
     runs init(settings) (imports, warm-up) before its first task's clock starts.
 
@@ -154,7 +164,9 @@ def run_tasks(tasks: list, target: Callable, settings, *, jobs: int, timeout: fl
                         else:
                             startup_failures += 1
                             if startup_failures > 3:
-                                raise AuditorError(f"ingest worker processes fail to start (exit code {code})")
+                                raise AuditorError(
+                                    f"ingest worker processes fail to start (exit code {code})"
+                                ) from None
                         continue
                     if status == "ready":
                         w.ready = True
@@ -176,6 +188,7 @@ def run_tasks(tasks: list, target: Callable, settings, *, jobs: int, timeout: fl
 
 # --- the work of one file (runs in a worker process) --------------------------------------------
 
+
 @dataclass
 class _Settings:
     language: str
@@ -191,16 +204,20 @@ _TOKENIZERS: dict = {}
 def warm_up(settings: _Settings) -> None:
     """Import the parsers and run each costly first call once, so that a worker's start-up does
     not count against the per-file timeout."""
-    from auditor.temporal import extract as temporal
-    from auditor.retrieval.tokenize import Tokenizer
     from auditor.ingest import html, markdown, pdf, text  # noqa: F401
+    from auditor.retrieval.tokenize import Tokenizer
+    from auditor.temporal import extract as temporal
 
     try:
         key = (settings.language, settings.stopwords)
         _TOKENIZERS.setdefault(key, Tokenizer(*key)).tokenize("warm up the stemmer")
-        temporal.extract("Updated 1 March 2024, effective next month.", reference_date=None,
-                         day_first=settings.day_first, fiscal_year_start=settings.fiscal_year_start,
-                         hemisphere=settings.hemisphere)
+        temporal.extract(
+            "Updated 1 March 2024, effective next month.",
+            reference_date=None,
+            day_first=settings.day_first,
+            fiscal_year_start=settings.fiscal_year_start,
+            hemisphere=settings.hemisphere,
+        )
     except Exception:  # the same error will be reported for each file, with its name
         pass
 
@@ -220,14 +237,14 @@ def parse_file(task: dict, settings: _Settings) -> dict:
 
     Returns {"ok": True, ...document fields, "passages": [...]} or {"ok": False, "kind", "message"}.
     """
-    from auditor.temporal import extract as temporal
-    from auditor.ingest.segment import segment
-    from auditor.retrieval.tokenize import Tokenizer
     from auditor.ingest.dates import file_time_date
     from auditor.ingest.html import parse_html
     from auditor.ingest.markdown import parse_markdown
     from auditor.ingest.pdf import parse_pdf
+    from auditor.ingest.segment import segment
     from auditor.ingest.text import parse_text
+    from auditor.retrieval.tokenize import Tokenizer
+    from auditor.temporal import extract as temporal
 
     parsers = {"pdf": parse_pdf, "html": parse_html, "markdown": parse_markdown, "text": parse_text}
     cpu = time.process_time()
@@ -261,19 +278,32 @@ def _parse_file(task, settings, parsers, segment, temporal, Tokenizer, file_time
     tokenizer = _TOKENIZERS.get(key) or _TOKENIZERS.setdefault(key, Tokenizer(*key))
     passages = []
     for p in segment(parsed.blocks):
-        statements = temporal.extract(p.text, reference_date=doc_date, day_first=settings.day_first,
-                                      fiscal_year_start=settings.fiscal_year_start,
-                                      hemisphere=settings.hemisphere)
+        statements = temporal.extract(
+            p.text,
+            reference_date=doc_date,
+            day_first=settings.day_first,
+            fiscal_year_start=settings.fiscal_year_start,
+            hemisphere=settings.hemisphere,
+        )
         passages.append((p, tokenizer.tokenize(p.text), statements))
     return {
-        "ok": True, "kind": kind, "sha256": sha256(data), "size": len(data),
-        "title": parsed.title, "owner": parsed.owner, "tags": list(parsed.tags), "dates": dates,
-        "doc_date": doc_date, "doc_date_source": doc_date_source, "expires": expires,
+        "ok": True,
+        "kind": kind,
+        "sha256": sha256(data),
+        "size": len(data),
+        "title": parsed.title,
+        "owner": parsed.owner,
+        "tags": list(parsed.tags),
+        "dates": dates,
+        "doc_date": doc_date,
+        "doc_date_source": doc_date_source,
+        "expires": expires,
         "passages": passages,
     }
 
 
 # --- the main process ---------------------------------------------------------------------------
+
 
 @dataclass
 class IngestSummary:
@@ -300,12 +330,14 @@ class IngestSummary:
         self.failures.append({"path": path, "kind": kind, "error": message})
 
     def line(self) -> str:
-        return (f"{self.new} new, {self.changed} changed, {self.unchanged} unchanged, "
-                f"{self.removed} removed, {self.failed} failed")
+        return (
+            f"{self.new} new, {self.changed} changed, {self.unchanged} unchanged, "
+            f"{self.removed} removed, {self.failed} failed"
+        )
 
 
 def _now() -> str:
-    return datetime.now(timezone.utc).isoformat(timespec="seconds").replace("+00:00", "Z")
+    return datetime.now(UTC).isoformat(timespec="seconds").replace("+00:00", "Z")
 
 
 def owner_from_config(config, rel: str) -> str | None:
@@ -337,10 +369,10 @@ def ingest_corpus(store, config, *, paths=None, jobs=None, progress=False) -> In
 
 
 def _ingest(store, config, given: list, jobs, progress) -> IngestSummary:
-    from auditor.retrieval.tokenize import Tokenizer
-    from auditor.retrieval.vocabulary import Vocabulary
     from auditor.ingest.sitemap import lastmod_dates
     from auditor.ingest.walk import resolve_roots
+    from auditor.retrieval.tokenize import Tokenizer
+    from auditor.retrieval.vocabulary import Vocabulary
 
     started = time.monotonic()
     corpus = config.corpus
@@ -352,8 +384,10 @@ def _ingest(store, config, given: list, jobs, progress) -> IngestSummary:
     parser = parser_fingerprint()
     parser_changed = store.get_meta("ingest:parser") != parser
     failed_before = json.loads(store.get_meta("ingest:failed", "{}"))
-    known = {row["path"]: row for row in store.query(
-        "SELECT id, path, sha256, status, meta_dates, owner, owner_source FROM documents")}
+    known = {
+        row["path"]: row
+        for row in store.query("SELECT id, path, sha256, status, meta_dates, owner, owner_source FROM documents")
+    }
     now = _now()
     seen: set[str] = set()
     tasks, unchanged, by_path = [], [], {}
@@ -365,9 +399,12 @@ def _ingest(store, config, given: list, jobs, progress) -> IngestSummary:
                 "INSERT INTO ingest_errors(path, source_root, kind, error, recorded_at) VALUES (?,?,?,?,?) "
                 "ON CONFLICT(path) DO UPDATE SET source_root=excluded.source_root, kind=excluded.kind, "
                 "error=excluded.error, recorded_at=excluded.recorded_at",
-                [doc_path, storable(str(root)), kind, storable(message), now])
-            store.db.execute("UPDATE documents SET status='failed', last_seen=? WHERE path=? AND status != 'removed'",
-                             [now, doc_path])
+                [doc_path, storable(str(root)), kind, storable(message), now],
+            )
+            store.db.execute(
+                "UPDATE documents SET status='failed', last_seen=? WHERE path=? AND status != 'removed'",
+                [now, doc_path],
+            )
         if sha is not None:
             failed_before[doc_path] = [sha, kind, corpus.timeout_s]
         else:
@@ -389,12 +426,21 @@ def _ingest(store, config, given: list, jobs, progress) -> IngestSummary:
         row = known.get(f.doc_path)
         site = sitemap.get(str(f.file))
         earlier = failed_before.get(f.doc_path)
-        if (row and row["status"] == "active" and row["sha256"] == sha and not parser_changed
-                and _sitemap_date(row["meta_dates"]) == (site.value.isoformat() if site else None)):
+        if (
+            row
+            and row["status"] == "active"
+            and row["sha256"] == sha
+            and not parser_changed
+            and _sitemap_date(row["meta_dates"]) == (site.value.isoformat() if site else None)
+        ):
             unchanged.append((f, row))
             continue
-        if earlier and earlier[0] == sha and not parser_changed and not (
-                earlier[1] == "timeout" and corpus.timeout_s > earlier[2]):
+        if (
+            earlier
+            and earlier[0] == sha
+            and not parser_changed
+            and not (earlier[1] == "timeout" and corpus.timeout_s > earlier[2])
+        ):
             error = store.query("SELECT kind, error FROM ingest_errors WHERE path = ?", [f.doc_path])
             if error:
                 summary.fail(f.doc_path, error[0]["kind"], error[0]["error"])
@@ -408,15 +454,21 @@ def _ingest(store, config, given: list, jobs, progress) -> IngestSummary:
     _touch_unchanged(store, config, unchanged, now)
     summary.unchanged = len(unchanged)
 
-    settings = _Settings(config.retrieval.language, config.retrieval.stopwords, corpus.day_first,
-                         corpus.fiscal_year_start, corpus.hemisphere)
+    settings = _Settings(
+        config.retrieval.language,
+        config.retrieval.stopwords,
+        corpus.day_first,
+        corpus.fiscal_year_start,
+        corpus.hemisphere,
+    )
     jobs = jobs or corpus.jobs or os.cpu_count() or 1
     # Largest files first: with a few big files among many small ones, the pool stays busy to the end.
     tasks.sort(key=lambda t: -by_path[t["doc_path"]].size)
     vocabulary = Vocabulary(store)
     bar = _Progress(len(tasks)) if progress and sys.stderr.isatty() else None
-    for task, status, value in run_tasks(tasks, parse_file, settings, jobs=jobs, timeout=corpus.timeout_s,
-                                         init=warm_up):
+    for task, status, value in run_tasks(
+        tasks, parse_file, settings, jobs=jobs, timeout=corpus.timeout_s, init=warm_up
+    ):
         f = by_path[task["doc_path"]]
         summary.parsed += 1
         if status == "ok":
@@ -445,7 +497,10 @@ def _ingest(store, config, given: list, jobs, progress) -> IngestSummary:
         if status == "ok":
             kind, message = value["kind"], value["message"]
         elif status == "timeout":
-            kind, message = "timeout", f"{str(f.file)!r}: parsing took longer than {value:g} s (corpus.timeout_s); stopped"
+            kind, message = (
+                "timeout",
+                f"{str(f.file)!r}: parsing took longer than {value:g} s (corpus.timeout_s); stopped",
+            )
         elif status == "crash":
             kind, message = "parse_error", f"{str(f.file)!r}: the parser crashed (worker exit code {value})"
         else:
@@ -483,8 +538,9 @@ def _touch_unchanged(store, config, unchanged, now: str) -> None:
             if source != "front_matter":
                 mapped = owner_from_config(config, f.rel)
                 owner, source = (mapped, "config") if mapped else ("unassigned", "default")
-            store.db.execute("UPDATE documents SET last_seen=?, owner=?, owner_source=? WHERE id=?",
-                             [now, owner, source, row["id"]])
+            store.db.execute(
+                "UPDATE documents SET last_seen=?, owner=?, owner_source=? WHERE id=?", [now, owner, source, row["id"]]
+            )
 
 
 def _write_document(store, config, vocabulary, f: SourceFile, value: dict, row, now: str) -> int:
@@ -497,38 +553,71 @@ def _write_document(store, config, vocabulary, f: SourceFile, value: dict, row, 
         owner, owner_source = "unassigned", "default"
     meta_dates = [{"value": d.value.isoformat(), "kind": d.kind, "source": d.source} for d in value["dates"]]
     fields = {
-        "path": f.doc_path, "source_root": storable(str(f.root)), "kind": value["kind"], "sha256": value["sha256"],
+        "path": f.doc_path,
+        "source_root": storable(str(f.root)),
+        "kind": value["kind"],
+        "sha256": value["sha256"],
         "size": value["size"],
-        "mtime": datetime.fromtimestamp(f.mtime, timezone.utc).isoformat(timespec="seconds"),
-        "title": value["title"], "owner": owner, "owner_source": owner_source,
-        "doc_date": value["doc_date"].isoformat(), "doc_date_source": value["doc_date_source"],
+        "mtime": datetime.fromtimestamp(f.mtime, UTC).isoformat(timespec="seconds"),
+        "title": value["title"],
+        "owner": owner,
+        "owner_source": owner_source,
+        "doc_date": value["doc_date"].isoformat(),
+        "doc_date_source": value["doc_date_source"],
         "expires": value["expires"].isoformat() if value["expires"] else None,
-        "meta_dates": json.dumps(meta_dates), "tags": json.dumps(value["tags"]),
-        "status": "active", "last_seen": now, "ingested_at": now,
+        "meta_dates": json.dumps(meta_dates),
+        "tags": json.dumps(value["tags"]),
+        "status": "active",
+        "last_seen": now,
+        "ingested_at": now,
     }
     with store.transaction():
         if row is None:
             fields["first_seen"] = now
             names = ", ".join(fields)
-            doc_id = store.db.execute(f"INSERT INTO documents({names}) VALUES ({','.join('?' * len(fields))})",
-                                      list(fields.values())).lastrowid
+            doc_id = store.db.execute(
+                f"INSERT INTO documents({names}) VALUES ({','.join('?' * len(fields))})", list(fields.values())
+            ).lastrowid
         else:
             doc_id = row["id"]
-            store.db.execute(f"UPDATE documents SET {', '.join(k + '=?' for k in fields)} WHERE id=?",
-                             [*fields.values(), doc_id])
+            store.db.execute(
+                f"UPDATE documents SET {', '.join(k + '=?' for k in fields)} WHERE id=?", [*fields.values(), doc_id]
+            )
             store.db.execute("DELETE FROM passages WHERE document_id=?", [doc_id])
         for passage, tokens, statements in value["passages"]:
             pid = store.db.execute(
                 "INSERT INTO passages(document_id, ordinal, text, heading_path, page, char_start, char_end, "
                 "token_ids, token_count) VALUES (?,?,?,?,?,?,?,?,?)",
-                [doc_id, passage.ordinal, passage.text, json.dumps(list(passage.heading_path), ensure_ascii=False),
-                 passage.page, passage.char_start, passage.char_end, vocabulary.ids(tokens).tobytes(), len(tokens)],
+                [
+                    doc_id,
+                    passage.ordinal,
+                    passage.text,
+                    json.dumps(list(passage.heading_path), ensure_ascii=False),
+                    passage.page,
+                    passage.char_start,
+                    passage.char_end,
+                    vocabulary.ids(tokens).tobytes(),
+                    len(tokens),
+                ],
             ).lastrowid
             store.db.conn.executemany(
                 "INSERT INTO statements(passage_id, expression, sentence, start, end, granularity, role, "
                 "char_start, char_end) VALUES (?,?,?,?,?,?,?,?,?)",
-                [(pid, s.expression, s.text, s.start.isoformat(), s.end.isoformat(), s.granularity, s.role,
-                  s.char_start, s.char_end) for s in statements])
+                [
+                    (
+                        pid,
+                        s.expression,
+                        s.text,
+                        s.start.isoformat(),
+                        s.end.isoformat(),
+                        s.granularity,
+                        s.role,
+                        s.char_start,
+                        s.char_end,
+                    )
+                    for s in statements
+                ],
+            )
         store.db.execute("DELETE FROM ingest_errors WHERE path=?", [f.doc_path])
     return len(value["passages"])
 
@@ -557,8 +646,10 @@ def _retokenize_if_needed(store, tokenizer) -> int:
             vocabulary = Vocabulary(store)
             for row in rows:
                 tokens = tokenizer.tokenize(row["text"])
-                store.db.execute("UPDATE passages SET token_ids=?, token_count=? WHERE id=?",
-                                 [vocabulary.ids(tokens).tobytes(), len(tokens), row["id"]])
+                store.db.execute(
+                    "UPDATE passages SET token_ids=?, token_count=? WHERE id=?",
+                    [vocabulary.ids(tokens).tobytes(), len(tokens), row["id"]],
+                )
         store.set_meta("tokenizer", fingerprint)
     return len(rows)
 
@@ -573,11 +664,13 @@ class _Progress:
         self.count += 1
         width = 30
         filled = int(width * self.count / max(1, self.total))
-        sys.stderr.write(f"\ringest [{'#' * filled}{'.' * (width - filled)}] {self.count}/{self.total} "
-                         f"{name[-40:]:<40}")
+        sys.stderr.write(
+            f"\ringest [{'#' * filled}{'.' * (width - filled)}] {self.count}/{self.total} {name[-40:]:<40}"
+        )
         sys.stderr.flush()
 
     def done(self) -> None:
-        sys.stderr.write(f"\ringest: parsed {self.count} files in {time.monotonic() - self.started:.1f} s"
-                         + " " * 60 + "\n")
+        sys.stderr.write(
+            f"\ringest: parsed {self.count} files in {time.monotonic() - self.started:.1f} s" + " " * 60 + "\n"
+        )
         sys.stderr.flush()

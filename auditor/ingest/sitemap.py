@@ -14,8 +14,8 @@ from urllib.parse import unquote, urlsplit
 from lxml import etree
 
 from auditor.errors import InputError
-from auditor.models import MetaDate
 from auditor.ingest.dates import parse_w3c_datetime
+from auditor.models import MetaDate
 
 _NS = "{http://www.sitemaps.org/schemas/sitemap/0.9}"
 
@@ -54,7 +54,11 @@ def lastmod_dates(sitemaps, roots: list[Path]) -> dict[str, MetaDate]:
         for loc, lastmod in read_sitemap(entry.file).items():
             if not loc.startswith(entry.url_prefix):
                 continue
-            rest = urlsplit(loc[len(entry.url_prefix):]).path if "://" in loc[len(entry.url_prefix):] else loc[len(entry.url_prefix):].split("?")[0].split("#")[0]
+            rest = (
+                urlsplit(loc[len(entry.url_prefix) :]).path
+                if "://" in loc[len(entry.url_prefix) :]
+                else loc[len(entry.url_prefix) :].split("?")[0].split("#")[0]
+            )
             for root in roots:
                 for rel in _candidates(rest):
                     file = (root / entry.folder / rel) if entry.folder else root / rel

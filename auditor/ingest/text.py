@@ -11,12 +11,15 @@ from __future__ import annotations
 import codecs
 import re
 
-from auditor.models import Block, ParsedDocument
 from auditor.ingest.walk import IngestFailure
+from auditor.models import Block, ParsedDocument
 
 _BOMS = [
-    (codecs.BOM_UTF32_LE, "utf-32-le"), (codecs.BOM_UTF32_BE, "utf-32-be"),
-    (codecs.BOM_UTF8, "utf-8"), (codecs.BOM_UTF16_LE, "utf-16-le"), (codecs.BOM_UTF16_BE, "utf-16-be"),
+    (codecs.BOM_UTF32_LE, "utf-32-le"),
+    (codecs.BOM_UTF32_BE, "utf-32-be"),
+    (codecs.BOM_UTF8, "utf-8"),
+    (codecs.BOM_UTF16_LE, "utf-16-le"),
+    (codecs.BOM_UTF16_BE, "utf-16-be"),
 ]
 # C0 control characters that never occur in text (tab, LF, FF, CR and ESC-free text only).
 _CONTROL = re.compile(r"[\x00-\x08\x0b\x0e-\x1a\x1c-\x1f\x7f]")
@@ -56,7 +59,9 @@ def decode_text(data: bytes, path: str, *, declared: str | None = None, kind: st
         try:
             text = data[length:].decode(bom)
         except UnicodeDecodeError as exc:
-            raise IngestFailure("parse_error", path, f"invalid {bom} text after its byte-order mark ({exc.reason} at byte {exc.start})") from None
+            raise IngestFailure(
+                "parse_error", path, f"invalid {bom} text after its byte-order mark ({exc.reason} at byte {exc.start})"
+            ) from None
     encodings = [declared] if declared else []
     encodings += ["utf-8"]
     for encoding in encodings if text is None else []:
@@ -75,13 +80,18 @@ def decode_text(data: bytes, path: str, *, declared: str | None = None, kind: st
             text = data.decode("cp1252")
         except UnicodeDecodeError as exc:
             raise IngestFailure(
-                "parse_error", path,
-                f"neither UTF-8, UTF-16 nor cp1252 text (byte 0x{data[exc.start]:02x} at offset {exc.start})") from None
+                "parse_error",
+                path,
+                f"neither UTF-8, UTF-16 nor cp1252 text (byte 0x{data[exc.start]:02x} at offset {exc.start})",
+            ) from None
     text = text.replace("\r\n", "\n").replace("\r", "\n")
     bad = _CONTROL.search(text[:65536])
     if bad:
-        raise IngestFailure(f"not_a_{kind}", path,
-                            f"binary data, not {kind} (control character U+{ord(bad.group()):04X} at offset {bad.start()})")
+        raise IngestFailure(
+            f"not_a_{kind}",
+            path,
+            f"binary data, not {kind} (control character U+{ord(bad.group()):04X} at offset {bad.start()})",
+        )
     return text
 
 

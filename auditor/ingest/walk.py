@@ -29,17 +29,30 @@ from auditor.errors import InputError
 # Extensions we parse; content (magic bytes) has the last word (see detect_kind).
 EXTENSIONS = {
     ".pdf": "pdf",
-    ".html": "html", ".htm": "html", ".xhtml": "html", ".shtml": "html",
-    ".md": "markdown", ".markdown": "markdown", ".mdown": "markdown", ".mkd": "markdown",
-    ".txt": "text", ".text": "text",
+    ".html": "html",
+    ".htm": "html",
+    ".xhtml": "html",
+    ".shtml": "html",
+    ".md": "markdown",
+    ".markdown": "markdown",
+    ".mdown": "markdown",
+    ".mkd": "markdown",
+    ".txt": "text",
+    ".text": "text",
 }
 KINDS = ("pdf", "html", "markdown", "text")
 # Binary formats that are sometimes misnamed; matched against the first bytes.
 _BINARY_MAGIC = [
-    (b"\x89PNG", "a PNG image"), (b"\xff\xd8\xff", "a JPEG image"), (b"GIF8", "a GIF image"),
-    (b"PK\x03\x04", "a ZIP archive (or an Office document)"), (b"\x1f\x8b", "a gzip file"),
-    (b"\x7fELF", "an ELF executable"), (b"\xd0\xcf\x11\xe0", "an OLE2 (old Office) document"),
-    (b"BZh", "a bzip2 file"), (b"\xfd7zXZ\x00", "an xz file"), (b"7z\xbc\xaf", "a 7-Zip archive"),
+    (b"\x89PNG", "a PNG image"),
+    (b"\xff\xd8\xff", "a JPEG image"),
+    (b"GIF8", "a GIF image"),
+    (b"PK\x03\x04", "a ZIP archive (or an Office document)"),
+    (b"\x1f\x8b", "a gzip file"),
+    (b"\x7fELF", "an ELF executable"),
+    (b"\xd0\xcf\x11\xe0", "an OLE2 (old Office) document"),
+    (b"BZh", "a bzip2 file"),
+    (b"\xfd7zXZ\x00", "an xz file"),
+    (b"7z\xbc\xaf", "a 7-Zip archive"),
 ]
 
 
@@ -188,8 +201,12 @@ def discover(paths, corpus) -> tuple[list[SourceFile], list[SkippedFile]]:
                         os.stat(path)
                     except OSError as exc:
                         loop = exc.errno == 40  # ELOOP
-                        skip(path, root, "unreadable",
-                             "symbolic link loop, not followed" if loop else f"broken symbolic link ({exc.strerror})")
+                        skip(
+                            path,
+                            root,
+                            "unreadable",
+                            "symbolic link loop, not followed" if loop else f"broken symbolic link ({exc.strerror})",
+                        )
                         continue
                     if os.path.commonpath([target, real_root]) != real_root:
                         skip(path, root, "symlink", "symbolic link points outside the source root; not followed")
@@ -230,8 +247,12 @@ def discover(paths, corpus) -> tuple[list[SourceFile], list[SkippedFile]]:
                 continue
             seen_real.add(real)
             if st.st_size > limit:
-                skip(file, root, "too_large",
-                     f"file is {st.st_size / 1048576:.1f} MB, over the {corpus.max_file_mb:g} MB limit (corpus.max_file_mb)")
+                skip(
+                    file,
+                    root,
+                    "too_large",
+                    f"file is {st.st_size / 1048576:.1f} MB, over the {corpus.max_file_mb:g} MB limit (corpus.max_file_mb)",
+                )
                 continue
             dp = doc_path(file)
             skipped.pop(dp, None)
@@ -300,8 +321,11 @@ def detect_kind(data: bytes, declared: str, file: str) -> str:
         sample = data[:8192]
         controls = sum(sample.count(bytes([b])) for b in _BINARY_BYTES)
         if controls > max(1, len(sample) // 200):  # text has (almost) none of these
-            raise IngestFailure(f"not_a_{declared}", file,
-                                f"binary data, not {declared} ({controls} control bytes in the first {len(sample)})")
+            raise IngestFailure(
+                f"not_a_{declared}",
+                file,
+                f"binary data, not {declared} ({controls} control bytes in the first {len(sample)})",
+            )
     return declared
 
 

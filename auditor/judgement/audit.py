@@ -15,13 +15,13 @@ import dataclasses
 import hashlib
 import json
 from collections import defaultdict
-from datetime import date, datetime, timezone
+from datetime import UTC, date, datetime
 from pathlib import Path
 
 from auditor.config import Config, SupportConfig
+from auditor.ingest.pipeline import owner_from_config
 from auditor.judgement.support import Judged, judge, passage_support
 from auditor.models import Freshness, Question, TemporalExpression
-from auditor.ingest.pipeline import owner_from_config
 from auditor.store import SEARCHED_STATUSES, Store, dumps
 
 FORMAT = 1
@@ -35,15 +35,24 @@ def current_thresholds(store: Store, config: Config) -> dict:
     row = store.db.execute("SELECT thresholds FROM calibrations ORDER BY id DESC LIMIT 1").fetchone()
     if row:
         stored = json.loads(row[0])
-        return {"support": float(stored["support"]),
-                "weak_margin": float(stored.get("weak_margin", config.support.weak_margin)),
-                "source": "calibration"}
+        return {
+            "support": float(stored["support"]),
+            "weak_margin": float(stored.get("weak_margin", config.support.weak_margin)),
+            "source": "calibration",
+        }
     source = "default" if config.support == SupportConfig() else "config"
     return {"support": config.support.threshold, "weak_margin": config.support.weak_margin, "source": source}
 
 
-def run_audit(store: Store, config: Config, questions: list[Question], *, as_of: date,
-              horizon_days: int | None = None, out: Path | None = None) -> dict:
+def run_audit(
+    store: Store,
+    config: Config,
+    questions: list[Question],
+    *,
+    as_of: date,
+    horizon_days: int | None = None,
+    out: Path | None = None,
+) -> dict:
     """Audit `questions` against the active passages in `store` at audit date `as_of`.
 
     `horizon_days` replaces the configured default horizon (path and topic rules and per-question
@@ -74,13 +83,16 @@ def run_audit(store: Store, config: Config, questions: list[Question], *, as_of:
 
     results = []
     for question, result in zip(questions, found):
-        results.append(_judge_question(question, result, passages, statements, passage_fresh,
-                                       fresh_config, thresholds, tokenizer))
+        results.append(
+            _judge_question(question, result, passages, statements, passage_fresh, fresh_config, thresholds, tokenizer)
+        )
 
     corpus, documents = _corpus_and_documents(store, config, fresh_config, as_of)
     summary = _summary(results)
-    errors = [{"document": r["path"], "error": r["error"]}
-              for r in store.query("SELECT path, error FROM ingest_errors ORDER BY path")]
+    errors = [
+        {"document": r["path"], "error": r["error"]}
+        for r in store.query("SELECT path, error FROM ingest_errors ORDER BY path")
+    ]
     briefs = _briefs(results)
     run = {
         "format": FORMAT,
@@ -129,43 +141,53 @@ def _use_freshness():
 
 # --- judging one question -------------------------------------------------------------------------
 
-def _judge_question(question, result, passages, statements, passage_fresh, fresh_config, thresholds,
-                    tokenizer) -> dict:
+
+def _judge_question(question, result, passages, statements, passage_fresh, fresh_config, thresholds, tokenizer) -> dict:
     idf = dict(result.idf)
     evidence, judged = [], []
     for rank, hit in enumerate(result.hits, start=1):
         passage = passages.get(hit.passage_id)
         if passage is None:  # the index is newer than the store read; cannot happen in one process
             continue
-        horizon = freshness_rules.horizon_for(fresh_config, path=passage["path"], topic=question.topic,
-                                              override=question.horizon_days)
+        horizon = freshness_rules.horizon_for(
+            fresh_config, path=passage["path"], topic=question.topic, override=question.horizon_days
+        )
         fresh = passage_fresh(hit.passage_id, horizon)
-        scored = passage_support(question.question, passage["text"], score=hit.score,
-                                 max_score=result.max_score, idf=idf, tokenize=tokenizer.tokenize)
-        judged.append(Judged(scored.support, fresh.fresh, tuple(fresh.reasons), fresh.as_of_source,
-                             scored.answer_type_found))
-        evidence.append({
-            "rank": rank,
-            "document": passage["path"],
-            "page": passage["page"],
-            "section": " › ".join(passage["heading_path"]),
-            "passage": hit.passage_id,
-            "owner": passage["owner"],
-            "score": round(float(hit.score), 4),
-            "support": scored.support,
-            "signals": {k: round(v, 4) for k, v in scored.signals.items()},
-            "answer_type": scored.answer_type,
-            "answer_type_found": scored.answer_type_found,
-            "supporting": False,
-            "as_of": _iso(fresh.as_of),
-            "as_of_source": fresh.as_of_source,
-            "expires": _iso(fresh.expires),
-            "fresh": fresh.fresh,
-            "reasons": list(fresh.reasons),
-            "terms": {t: round(float(s), 4) for t, s in sorted(hit.term_scores.items()) if s},
-            "statements": [_statement_json(s) for s in statements.get(hit.passage_id, [])],
-            "text": passage["text"],
-        })
+        scored = passage_support(
+            question.question,
+            passage["text"],
+            score=hit.score,
+            max_score=result.max_score,
+            idf=idf,
+            tokenize=tokenizer.tokenize,
+        )
+        judged.append(
+            Judged(scored.support, fresh.fresh, tuple(fresh.reasons), fresh.as_of_source, scored.answer_type_found)
+        )
+        evidence.append(
+            {
+                "rank": rank,
+                "document": passage["path"],
+                "page": passage["page"],
+                "section": " › ".join(passage["heading_path"]),
+                "passage": hit.passage_id,
+                "owner": passage["owner"],
+                "score": round(float(hit.score), 4),
+                "support": scored.support,
+                "signals": {k: round(v, 4) for k, v in scored.signals.items()},
+                "answer_type": scored.answer_type,
+                "answer_type_found": scored.answer_type_found,
+                "supporting": False,
+                "as_of": _iso(fresh.as_of),
+                "as_of_source": fresh.as_of_source,
+                "expires": _iso(fresh.expires),
+                "fresh": fresh.fresh,
+                "reasons": list(fresh.reasons),
+                "terms": {t: round(float(s), 4) for t, s in sorted(hit.term_scores.items()) if s},
+                "statements": [_statement_json(s) for s in statements.get(hit.passage_id, [])],
+                "text": passage["text"],
+            }
+        )
     verdict = judge(judged, threshold=thresholds["support"], weak_margin=thresholds["weak_margin"])
     for item, supporting in zip(evidence, verdict.supporting):
         item["supporting"] = supporting
@@ -188,8 +210,9 @@ def _judge_question(question, result, passages, statements, passage_fresh, fresh
     }
 
 
-def question_support(store: Store, index, texts: list[str], k: int, *,
-                     hidden: list[set[str]] | None = None) -> list[float]:
+def question_support(
+    store: Store, index, texts: list[str], k: int, *, hidden: list[set[str]] | None = None
+) -> list[float]:
     """Best passage support of each question text (what `calibrate` and the benches measure).
 
     `hidden` gives, per question, document paths whose passages are left out (the top k of the
@@ -204,8 +227,14 @@ def question_support(store: Store, index, texts: list[str], k: int, *,
         hits = [h for h in result.hits if h.passage_id in passages and passages[h.passage_id]["path"] not in drop][:k]
         best = 0.0
         for hit in hits:
-            scored = passage_support(text, passages[hit.passage_id]["text"], score=hit.score,
-                                     max_score=result.max_score, idf=result.idf, tokenize=index.tokenizer.tokenize)
+            scored = passage_support(
+                text,
+                passages[hit.passage_id]["text"],
+                score=hit.score,
+                max_score=result.max_score,
+                idf=result.idf,
+                tokenize=index.tokenizer.tokenize,
+            )
             best = max(best, scored.support)
         out.append(best)
     return out
@@ -220,7 +249,9 @@ def _nearest_owner(evidence: list[dict]) -> str:
 
 def _freshness(passage: dict, statements: list[TemporalExpression], as_of: date, horizon: int) -> Freshness:
     return freshness_rules.passage_freshness(
-        statements, audit_date=as_of, horizon_days=horizon,
+        statements,
+        audit_date=as_of,
+        horizon_days=horizon,
         doc_date=_date(passage["doc_date"]) or _date(passage["mtime"]),
         doc_date_source=passage["doc_date_source"] or ("file:mtime" if passage["mtime"] else None),
         doc_expires=_date(passage["expires"]),
@@ -228,8 +259,14 @@ def _freshness(passage: dict, statements: list[TemporalExpression], as_of: date,
 
 
 def _statement_json(s: TemporalExpression) -> dict:
-    return {"expression": s.expression, "start": s.start.isoformat(), "end": s.end.isoformat(),
-            "granularity": s.granularity, "role": s.role, "text": s.text}
+    return {
+        "expression": s.expression,
+        "start": s.start.isoformat(),
+        "end": s.end.isoformat(),
+        "granularity": s.granularity,
+        "role": s.role,
+        "text": s.text,
+    }
 
 
 # --- store reads ----------------------------------------------------------------------------------
@@ -259,26 +296,39 @@ def _load_statements(store: Store, ids: list[int] | None) -> dict[int, list[Temp
     for chunk in batches:
         where = "" if chunk is None else f" WHERE passage_id IN ({','.join('?' * len(chunk))})"
         for row in store.query(sql + where + " ORDER BY passage_id, char_start", chunk or ()):
-            out[row["passage_id"]].append(TemporalExpression(
-                row["sentence"], row["expression"], date.fromisoformat(row["start"]),
-                date.fromisoformat(row["end"]), row["granularity"], row["role"], row["char_start"],
-                row["char_end"]))
+            out[row["passage_id"]].append(
+                TemporalExpression(
+                    row["sentence"],
+                    row["expression"],
+                    date.fromisoformat(row["start"]),
+                    date.fromisoformat(row["end"]),
+                    row["granularity"],
+                    row["role"],
+                    row["char_start"],
+                    row["char_end"],
+                )
+            )
     return out
 
 
 def _chunks(ids: list[int], size: int = 500):
     for i in range(0, len(ids), size):
-        yield ids[i:i + size]
+        yield ids[i : i + size]
 
 
 # --- corpus figures and the document inventory ----------------------------------------------------
 
+
 def _corpus_and_documents(store: Store, config, fresh_config, as_of: date) -> tuple[dict, list[dict]]:
     """run.corpus (counts, F and A over active passages) and the per-document inventory."""
-    docs = store.query("SELECT id, path, title, kind, owner, status, doc_date, doc_date_source, expires, "
-                       "mtime FROM documents ORDER BY path")
-    rows = store.query("SELECT p.id, p.document_id FROM passages p JOIN documents d ON d.id = p.document_id "
-                       f"WHERE d.status IN {SEARCHED_STATUSES} ORDER BY p.id")
+    docs = store.query(
+        "SELECT id, path, title, kind, owner, status, doc_date, doc_date_source, expires, "
+        "mtime FROM documents ORDER BY path"
+    )
+    rows = store.query(
+        "SELECT p.id, p.document_id FROM passages p JOIN documents d ON d.id = p.document_id "
+        f"WHERE d.status IN {SEARCHED_STATUSES} ORDER BY p.id"
+    )
     by_doc: dict[int, list[int]] = defaultdict(list)
     for row in rows:
         by_doc[row["document_id"]].append(row["id"])
@@ -286,9 +336,20 @@ def _corpus_and_documents(store: Store, config, fresh_config, as_of: date) -> tu
     items: list[Freshness] = []
     inventory = []
     for doc in docs:
-        entry = {"path": doc["path"], "title": doc["title"], "kind": doc["kind"], "owner": doc["owner"],
-                 "status": doc["status"], "doc_date": doc["doc_date"], "doc_date_source": doc["doc_date_source"],
-                 "expires": doc["expires"], "passages": 0, "as_of": None, "fresh": None, "reasons": []}
+        entry = {
+            "path": doc["path"],
+            "title": doc["title"],
+            "kind": doc["kind"],
+            "owner": doc["owner"],
+            "status": doc["status"],
+            "doc_date": doc["doc_date"],
+            "doc_date_source": doc["doc_date_source"],
+            "expires": doc["expires"],
+            "passages": 0,
+            "as_of": None,
+            "fresh": None,
+            "reasons": [],
+        }
         if doc["status"] in ("active", "failed"):  # store.SEARCHED_STATUSES
             horizon = freshness_rules.horizon_for(fresh_config, path=doc["path"])
             states = [_freshness(doc, statements.get(pid, []), as_of, horizon) for pid in by_doc[doc["id"]]]
@@ -312,23 +373,45 @@ def _corpus_and_documents(store: Store, config, fresh_config, as_of: date) -> tu
             continue
         # Never ingested: the owner map still says whose file it is, so its owner sees the failure.
         owner = owner_from_config(config, row["path"]) or "unassigned"
-        inventory.append({"path": row["path"], "title": None, "kind": None, "owner": owner, "status": "failed",
-                          "doc_date": None, "doc_date_source": None, "expires": None, "passages": 0,
-                          "as_of": None, "fresh": None, "reasons": [row["kind"]]})
+        inventory.append(
+            {
+                "path": row["path"],
+                "title": None,
+                "kind": None,
+                "owner": owner,
+                "status": "failed",
+                "doc_date": None,
+                "doc_date_source": None,
+                "expires": None,
+                "passages": 0,
+                "as_of": None,
+                "fresh": None,
+                "reasons": [row["kind"]],
+            }
+        )
     inventory.sort(key=lambda e: e["path"])
     f_value, mean_age = freshness_rules.corpus_freshness(items) if items else (1.0, 0.0)
-    corpus = {"documents": sum(1 for d in docs if d["status"] == "active"), "passages": len(rows),
-              "failed": len(failed), "freshness": round(float(f_value), 4),
-              "mean_age_days": round(float(mean_age), 1)}
+    corpus = {
+        "documents": sum(1 for d in docs if d["status"] == "active"),
+        "passages": len(rows),
+        "failed": len(failed),
+        "freshness": round(float(f_value), 4),
+        "mean_age_days": round(float(mean_age), 1),
+    }
     return corpus, inventory
 
 
 def _summary(results: list[dict]) -> dict:
     counts = {v: sum(1 for r in results if r["verdict"] == v) for v in ("covered", "stale", "gap")}
     weight = sum(r["weight"] for r in results)
-    share = (lambda v: sum(r["weight"] for r in results if r["verdict"] == v) / weight if weight > 0 else 0.0)
-    return {"questions": len(results), **counts, "weight": weight,
-            "fallback_exposure": share("gap"), "stale_exposure": share("stale")}
+    share = lambda v: sum(r["weight"] for r in results if r["verdict"] == v) / weight if weight > 0 else 0.0
+    return {
+        "questions": len(results),
+        **counts,
+        "weight": weight,
+        "fallback_exposure": share("gap"),
+        "stale_exposure": share("stale"),
+    }
 
 
 def _briefs(results: list[dict]) -> list[dict]:
@@ -346,15 +429,21 @@ def _history(store: Store) -> list[dict]:
 
 # --- fingerprints and storing ---------------------------------------------------------------------
 
+
 def _config_fingerprint(config: Config, fresh_config) -> str:
-    relevant = {"retrieval": dataclasses.asdict(config.retrieval), "support": dataclasses.asdict(config.support),
-                "freshness": dataclasses.asdict(fresh_config)}
+    relevant = {
+        "retrieval": dataclasses.asdict(config.retrieval),
+        "support": dataclasses.asdict(config.support),
+        "freshness": dataclasses.asdict(fresh_config),
+    }
     return hashlib.sha256(dumps(relevant).encode()).hexdigest()[:16]
 
 
 def _corpus_fingerprint(store: Store) -> str:
     digest = hashlib.sha256()
-    for row in store.db.execute(f"SELECT path, sha256 FROM documents WHERE status IN {SEARCHED_STATUSES} ORDER BY path"):
+    for row in store.db.execute(
+        f"SELECT path, sha256 FROM documents WHERE status IN {SEARCHED_STATUSES} ORDER BY path"
+    ):
         digest.update(f"{row[0]}\0{row[1]}\n".encode())
     return digest.hexdigest()[:16]
 
@@ -366,24 +455,44 @@ def _store_run(store: Store, run: dict) -> None:
         cursor = store.db.execute(
             "INSERT INTO runs (started, status, as_of, horizon_days, config_fingerprint, corpus_fingerprint, "
             "thresholds) VALUES (?, 'running', ?, ?, ?, ?, ?)",
-            [head["started"], head["as_of"], head["horizon_days"], head["config_fingerprint"],
-             head["corpus_fingerprint"], dumps(head["thresholds"])])
+            [
+                head["started"],
+                head["as_of"],
+                head["horizon_days"],
+                head["config_fingerprint"],
+                head["corpus_fingerprint"],
+                dumps(head["thresholds"]),
+            ],
+        )
         head["id"] = cursor.lastrowid
         store.db.conn.executemany(
             "INSERT INTO results (run_id, position, qid, verdict, weight, result) VALUES (?, ?, ?, ?, ?, ?)",
-            [(head["id"], i, q["id"], q["verdict"], q["weight"], dumps(q)) for i, q in enumerate(run["questions"])])
+            [(head["id"], i, q["id"], q["verdict"], q["weight"], dumps(q)) for i, q in enumerate(run["questions"])],
+        )
         head["finished"] = _now()
         store.db.execute(
             "UPDATE runs SET status = 'done', finished = ?, corpus = ?, summary = ?, ingest_errors = ?, "
             "extras = ? WHERE id = ?",
-            [head["finished"], dumps(head["corpus"]), dumps(run["summary"]), dumps(run["ingest_errors"]),
-             dumps({"documents": run["documents"], "briefs": run["briefs"], "title": head.get("title"),
-                    "tokenizer": head.get("tokenizer")}),
-             head["id"]])
+            [
+                head["finished"],
+                dumps(head["corpus"]),
+                dumps(run["summary"]),
+                dumps(run["ingest_errors"]),
+                dumps(
+                    {
+                        "documents": run["documents"],
+                        "briefs": run["briefs"],
+                        "title": head.get("title"),
+                        "tokenizer": head.get("tokenizer"),
+                    }
+                ),
+                head["id"],
+            ],
+        )
 
 
 def _now() -> str:
-    return datetime.now(timezone.utc).strftime("%Y-%m-%dT%H:%M:%SZ")
+    return datetime.now(UTC).strftime("%Y-%m-%dT%H:%M:%SZ")
 
 
 def _iso(value: date | None) -> str | None:

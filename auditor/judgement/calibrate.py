@@ -13,7 +13,7 @@ from __future__ import annotations
 
 import csv
 from dataclasses import dataclass
-from datetime import datetime, timezone
+from datetime import UTC, datetime
 from pathlib import Path
 
 from auditor.config import Config
@@ -50,12 +50,15 @@ def load_labels(path: str | Path) -> list[Label]:
     columns = [c.strip().lower() for c in (reader.fieldnames or [])]
     missing = [c for c in REQUIRED if c not in columns]
     if missing:
-        raise InputError(f"{str(path)!r}: labels need the column(s) {', '.join(missing)} "
-                         f"(header has {', '.join(columns) or 'nothing'})")
+        raise InputError(
+            f"{str(path)!r}: labels need the column(s) {', '.join(missing)} "
+            f"(header has {', '.join(columns) or 'nothing'})"
+        )
     unknown = [c for c in columns if c not in REQUIRED + OPTIONAL]
     if unknown:
-        raise InputError(f"{str(path)!r}: unknown column(s) {', '.join(unknown)}; "
-                         f"expected {', '.join(REQUIRED + OPTIONAL)}")
+        raise InputError(
+            f"{str(path)!r}: unknown column(s) {', '.join(unknown)}; expected {', '.join(REQUIRED + OPTIONAL)}"
+        )
     reader.fieldnames = columns
     labels = []
     for line, row in enumerate(reader, start=2):
@@ -77,6 +80,7 @@ def load_labels(path: str | Path) -> list[Label]:
 
 
 # --- measures -------------------------------------------------------------------------------------
+
 
 def roc_auc(positives: list[float], negatives: list[float]) -> float:
     """P(score of a random positive > score of a random negative), ties counting one half.
@@ -107,8 +111,16 @@ def gap_metrics(supports: list[float], unanswerable: list[bool], threshold: floa
     precision = tp / (tp + fp) if tp + fp else 1.0  # no gap verdicts: none of them is wrong
     recall = tp / (tp + fn) if tp + fn else 0.0
     f1 = 2 * precision * recall / (precision + recall) if precision + recall else 0.0
-    return {"threshold": round(threshold, 4), "gaps": tp + fp, "tp": tp, "fp": fp, "fn": fn,
-            "precision": precision, "recall": recall, "f1": f1}
+    return {
+        "threshold": round(threshold, 4),
+        "gaps": tp + fp,
+        "tp": tp,
+        "fp": fp,
+        "fn": fn,
+        "precision": precision,
+        "recall": recall,
+        "f1": f1,
+    }
 
 
 def candidate_thresholds(supports: list[float]) -> list[float]:
@@ -119,8 +131,9 @@ def candidate_thresholds(supports: list[float]) -> list[float]:
     return [max(0.0, values[0] - 0.01)] + inner + [min(1.0, values[-1] + 0.01)]
 
 
-def choose_threshold(supports: list[float], unanswerable: list[bool], *,
-                     target_precision: float | None = None) -> tuple[dict, str]:
+def choose_threshold(
+    supports: list[float], unanswerable: list[bool], *, target_precision: float | None = None
+) -> tuple[dict, str]:
     """The maximum-F1 threshold, or with `target_precision` the highest recall reaching it.
 
     Returns (metrics at the chosen threshold, how it was chosen). When no threshold reaches the
@@ -140,8 +153,15 @@ def choose_threshold(supports: list[float], unanswerable: list[bool], *,
 
 # --- the command ----------------------------------------------------------------------------------
 
-def calibrate(store: Store, config: Config, labels_path: str | Path, *, target_precision: float | None = None,
-              holdout: bool = False) -> dict:
+
+def calibrate(
+    store: Store,
+    config: Config,
+    labels_path: str | Path,
+    *,
+    target_precision: float | None = None,
+    holdout: bool = False,
+) -> dict:
     """Measure the gap verdict on labelled questions, choose a threshold and store it.
 
     With `holdout`, each answerable question's expected documents are hidden and the share of those
@@ -157,8 +177,9 @@ def calibrate(store: Store, config: Config, labels_path: str | Path, *, target_p
     texts = [l.question for l in labels]
     supports = question_support(store, index, texts, k)
     unanswerable = [not l.answerable for l in labels]
-    auc = roc_auc([-s for s, u in zip(supports, unanswerable) if u],
-                  [-s for s, u in zip(supports, unanswerable) if not u])
+    auc = roc_auc(
+        [-s for s, u in zip(supports, unanswerable) if u], [-s for s, u in zip(supports, unanswerable) if not u]
+    )
     chosen, choice = choose_threshold(supports, unanswerable, target_precision=target_precision)
     threshold = chosen["threshold"]
     table = [gap_metrics(supports, unanswerable, t) for t in sorted(set(TABLE_GRID) | {threshold})]
@@ -168,27 +189,49 @@ def calibrate(store: Store, config: Config, labels_path: str | Path, *, target_p
         known = {r["path"] for r in store.query("SELECT path FROM documents WHERE status = 'active'")}
         picked = [l for l in labels if l.answerable and l.expected_documents]
         if picked:
-            hidden_supports = question_support(store, index, [l.question for l in picked], k,
-                                               hidden=[set(l.expected_documents) for l in picked])
+            hidden_supports = question_support(
+                store, index, [l.question for l in picked], k, hidden=[set(l.expected_documents) for l in picked]
+            )
             fired = sum(1 for s in hidden_supports if s < threshold)
-            held = {"questions": len(picked), "gap": fired, "gap_rate": fired / len(picked),
-                    "unknown_documents": sorted({d for l in picked for d in l.expected_documents} - known)}
+            held = {
+                "questions": len(picked),
+                "gap": fired,
+                "gap_rate": fired / len(picked),
+                "unknown_documents": sorted({d for l in picked for d in l.expected_documents} - known),
+            }
         else:
             held = {"questions": 0, "gap": 0, "gap_rate": None, "unknown_documents": []}
 
     thresholds = {"support": threshold, "weak_margin": config.support.weak_margin}
-    metrics = {"auc": auc, "choice": choice, "precision": chosen["precision"], "recall": chosen["recall"],
-               "f1": chosen["f1"], "questions": len(labels), "unanswerable": sum(unanswerable),
-               "holdout": held}
-    created = datetime.now(timezone.utc).strftime("%Y-%m-%dT%H:%M:%SZ")
+    metrics = {
+        "auc": auc,
+        "choice": choice,
+        "precision": chosen["precision"],
+        "recall": chosen["recall"],
+        "f1": chosen["f1"],
+        "questions": len(labels),
+        "unanswerable": sum(unanswerable),
+        "holdout": held,
+    }
+    created = datetime.now(UTC).strftime("%Y-%m-%dT%H:%M:%SZ")
     with store.transaction():
         calibration_id = store.db.execute(
             "INSERT INTO calibrations (created, labels, thresholds, metrics) VALUES (?, ?, ?, ?)",
-            [created, str(labels_path), dumps(thresholds), dumps(metrics)]).lastrowid
-    return {"id": calibration_id, "labels": str(labels_path), "created": created, "thresholds": thresholds,
-            "previous": previous, "metrics": metrics, "table": table,
-            "questions": [{"id": l.id, "question": l.question, "answerable": l.answerable, "support": s,
-                           "gap": s < threshold} for l, s in zip(labels, supports)]}
+            [created, str(labels_path), dumps(thresholds), dumps(metrics)],
+        ).lastrowid
+    return {
+        "id": calibration_id,
+        "labels": str(labels_path),
+        "created": created,
+        "thresholds": thresholds,
+        "previous": previous,
+        "metrics": metrics,
+        "table": table,
+        "questions": [
+            {"id": l.id, "question": l.question, "answerable": l.answerable, "support": s, "gap": s < threshold}
+            for l, s in zip(labels, supports)
+        ],
+    }
 
 
 def format_calibration(outcome: dict) -> str:
@@ -203,20 +246,27 @@ def format_calibration(outcome: dict) -> str:
     ]
     for row in outcome["table"]:
         mark = "  <- chosen" if row["threshold"] == chosen else ""
-        lines.append(f"{row['threshold']:>9.3f}  {row['gaps']:>5}  {row['precision']:>9.3f}  "
-                     f"{row['recall']:>6.3f}  {row['f1']:>5.3f}{mark}")
+        lines.append(
+            f"{row['threshold']:>9.3f}  {row['gaps']:>5}  {row['precision']:>9.3f}  "
+            f"{row['recall']:>6.3f}  {row['f1']:>5.3f}{mark}"
+        )
     held = m.get("holdout")
     if held is not None:
         lines.append("")
         if held["questions"]:
-            lines.append(f"hold-out: expected documents hidden for {held['questions']} answerable questions; "
-                         f"gap verdict fires for {held['gap']} ({held['gap_rate']:.0%})")
+            lines.append(
+                f"hold-out: expected documents hidden for {held['questions']} answerable questions; "
+                f"gap verdict fires for {held['gap']} ({held['gap_rate']:.0%})"
+            )
         else:
             lines.append("hold-out: no answerable question names an expected document")
         if held["unknown_documents"]:
             lines.append(f"hold-out: not in the corpus: {', '.join(held['unknown_documents'])}")
     previous = outcome["previous"]
-    lines += ["", f"stored support threshold {chosen:.3f} ({m['choice']}; was {previous['support']:.3f} "
-                  f"from {previous['source']}), weak margin {outcome['thresholds']['weak_margin']:.3f}; "
-                  f"calibration {outcome['id']}"]
+    lines += [
+        "",
+        f"stored support threshold {chosen:.3f} ({m['choice']}; was {previous['support']:.3f} "
+        f"from {previous['source']}), weak margin {outcome['thresholds']['weak_margin']:.3f}; "
+        f"calibration {outcome['id']}",
+    ]
     return "\n".join(lines)

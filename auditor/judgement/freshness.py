@@ -44,8 +44,7 @@ __all__ = ["passage_freshness", "horizon_for", "corpus_freshness", "is_range"]
 
 # Longest interval, in days, of one unit of each granularity: an expression longer than that is a
 # range written with two ends ("July 1, 2024 through June 30, 2025").
-_UNIT_DAYS = {"day": 1, "week": 7, "month": 31, "quarter": 92, "half": 184, "season": 92,
-              "year": 366, "decade": 3653}
+_UNIT_DAYS = {"day": 1, "week": 7, "month": 31, "quarter": 92, "half": 184, "season": 92, "year": 366, "decade": 3653}
 
 
 def is_range(expression: TemporalExpression) -> bool:
@@ -53,9 +52,15 @@ def is_range(expression: TemporalExpression) -> bool:
     return (expression.end - expression.start).days + 1 > _UNIT_DAYS.get(expression.granularity, 1)
 
 
-def passage_freshness(statements: list[TemporalExpression], *, audit_date: date, horizon_days: int,
-                      doc_date: date | None, doc_date_source: str | None,
-                      doc_expires: date | None = None) -> Freshness:
+def passage_freshness(
+    statements: list[TemporalExpression],
+    *,
+    audit_date: date,
+    horizon_days: int,
+    doc_date: date | None,
+    doc_date_source: str | None,
+    doc_expires: date | None = None,
+) -> Freshness:
     """Freshness of one passage at `audit_date` from its dated statements (see the module docstring).
 
     `doc_date`/`doc_date_source` are the document's date and where it came from (the
@@ -111,8 +116,14 @@ def passage_freshness(statements: list[TemporalExpression], *, audit_date: date,
         reasons.append("expired")
     if any(d < today for d in planned_ends):
         reasons.append("overtaken")
-    return Freshness(as_of=as_of, as_of_source=source, expires=live[0] if live else None,
-                     fresh=not reasons, reasons=tuple(reasons), age_days=age)
+    return Freshness(
+        as_of=as_of,
+        as_of_source=source,
+        expires=live[0] if live else None,
+        fresh=not reasons,
+        reasons=tuple(reasons),
+        age_days=age,
+    )
 
 
 def _glob_match(path: str, pattern: str) -> bool:
@@ -127,8 +138,9 @@ def _glob_match(path: str, pattern: str) -> bool:
     return False
 
 
-def horizon_for(freshness_config: FreshnessConfig, *, path: str | None = None, topic: str | None = None,
-                override: int | None = None) -> int:
+def horizon_for(
+    freshness_config: FreshnessConfig, *, path: str | None = None, topic: str | None = None, override: int | None = None
+) -> int:
     """The freshness horizon in days: a per-question override, else the first topic rule that names
     `topic` (case-insensitive), else the first path-glob rule matching `path` (relative document
     path), else the default."""

@@ -58,6 +58,7 @@ ACTIONS = ("write", "refresh", "retire")
 
 # --- signals --------------------------------------------------------------------------------------
 
+
 def bm25_share(score: float, max_score: float) -> float:
     """BM25 score normalized by the question's maximum achievable score, in [0, 1]."""
     if max_score <= 0:
@@ -78,7 +79,7 @@ def split_sentences(text: str) -> list[tuple[int, int]]:
     """(start, end) character offsets of the sentences of `text`, in order, blanks skipped."""
     spans, start = [], 0
     for match in _SENTENCE_BREAK.finditer(text):
-        if text[start:match.start()].strip():
+        if text[start : match.start()].strip():
             spans.append((start, match.start()))
         start = match.end()
     if text[start:].strip():
@@ -86,8 +87,9 @@ def split_sentences(text: str) -> list[tuple[int, int]]:
     return spans
 
 
-def window_coverage(sentence_terms: Sequence[set[str]], idf: Mapping[str, float],
-                    window: int = WINDOW_SENTENCES) -> tuple[float, int]:
+def window_coverage(
+    sentence_terms: Sequence[set[str]], idf: Mapping[str, float], window: int = WINDOW_SENTENCES
+) -> tuple[float, int]:
     """Best IDF-weighted term coverage over windows of `window` consecutive sentences.
 
     Returns (coverage, index of the window's first sentence); (0.0, 0) for a passage without
@@ -97,7 +99,7 @@ def window_coverage(sentence_terms: Sequence[set[str]], idf: Mapping[str, float]
         return 0.0, 0
     best, best_at = -1.0, 0
     for i in range(max(1, len(sentence_terms) - window + 1)):
-        terms = set().union(*sentence_terms[i:i + window])
+        terms = set().union(*sentence_terms[i : i + window])
         value = term_coverage(terms, idf)
         if value > best:
             best, best_at = value, i
@@ -138,10 +140,17 @@ class PassageSupport:
     answer_type_found: bool
 
 
-def passage_support(question: str, passage_text: str, *, score: float, max_score: float,
-                    idf: Mapping[str, float], tokenize: Callable[[str], list[str]],
-                    weights: Mapping[str, float] = SIGNAL_WEIGHTS,
-                    window: int = WINDOW_SENTENCES) -> PassageSupport:
+def passage_support(
+    question: str,
+    passage_text: str,
+    *,
+    score: float,
+    max_score: float,
+    idf: Mapping[str, float],
+    tokenize: Callable[[str], list[str]],
+    weights: Mapping[str, float] = SIGNAL_WEIGHTS,
+    window: int = WINDOW_SENTENCES,
+) -> PassageSupport:
     """Support of `passage_text` for `question` from its BM25 score and its text.
 
     `idf` maps every question term (tokenized as the index does) to its IDF; `tokenize` must be
@@ -164,13 +173,14 @@ def passage_support(question: str, passage_text: str, *, score: float, max_score
     }
     value = combine(signals, weights)
     answer_type = expected_answer_type(question)
-    found = has_answer_type(passage_text[span[0]:span[1]], answer_type)
+    found = has_answer_type(passage_text[span[0] : span[1]], answer_type)
     if not found:
         value *= ANSWER_TYPE_PENALTY
     return PassageSupport(round(value, 6), signals, span, answer_type, found)
 
 
 # --- verdicts -------------------------------------------------------------------------------------
+
 
 @dataclass(frozen=True)
 class Judged:
@@ -234,8 +244,14 @@ def judge(evidence: Sequence[Judged], *, threshold: float, weak_margin: float) -
     if stale:
         reasons = sorted({r for e in stale for r in e.reasons}, key=_reason_key)
         ended = all(set(e.reasons) & {"expired", "overtaken"} for e in stale)
-        return Verdict("stale", reasons, _ordered(flags), "retire" if ended else "refresh",
-                       max(e.support for e in stale), supporting)
+        return Verdict(
+            "stale",
+            reasons,
+            _ordered(flags),
+            "retire" if ended else "refresh",
+            max(e.support for e in stale),
+            supporting,
+        )
     return Verdict("gap", [], _ordered(flags), "write", best, supporting)
 
 

@@ -33,7 +33,7 @@ import re
 import unicodedata
 from collections import Counter
 from dataclasses import dataclass, field
-from datetime import datetime, timezone
+from datetime import UTC, datetime
 from pathlib import Path
 
 from auditor.errors import InputError
@@ -49,9 +49,7 @@ TIMESTAMP_COLUMNS = ("timestamp", "time", "ts", "datetime", "date", "created_at"
 CARRIED_COLUMNS = ("owner", "topic")
 
 # Words that change nothing about what is asked; common practice, no single source.
-FILLER = frozenset(
-    "please pls plz hi hello hey thanks thank thx um uh er hmm just kindly quick question help".split()
-)
+FILLER = frozenset("please pls plz hi hello hey thanks thank thx um uh er hmm just kindly quick question help".split())
 _WORD = re.compile(r"\[(?:email|phone|card)\]|\w+")
 _PLACEHOLDER_TOKENS = frozenset(PLACEHOLDERS.values())
 # Soft hyphen, zero-width spaces and joiners, direction marks, word joiner, BOM: invisible in a
@@ -110,8 +108,9 @@ def jaccard(a: frozenset, b: frozenset) -> float:
     return inter / (len(a) + len(b) - inter)
 
 
-def _pick(columns: list[str], wanted: str | None, names: tuple[str, ...], what: str, path: Path,
-          line: int) -> str | None:
+def _pick(
+    columns: list[str], wanted: str | None, names: tuple[str, ...], what: str, path: Path, line: int
+) -> str | None:
     if wanted is not None:
         key = wanted.strip().casefold()
         if key not in columns:
@@ -141,7 +140,7 @@ def _timestamp(value) -> datetime | None:
         return None
     if isinstance(value, (int, float)) and not isinstance(value, bool):
         try:
-            return datetime.fromtimestamp(float(value), timezone.utc)
+            return datetime.fromtimestamp(float(value), UTC)
         except (OverflowError, OSError, ValueError):
             return None
     try:
@@ -150,8 +149,9 @@ def _timestamp(value) -> datetime | None:
         return None  # unparseable stamps only leave the period open; the query still counts
 
 
-def _read(path: Path, text_column, count_column, summary: QueryLogSummary,
-          parsed=None) -> list[tuple[int, str, int, dict]]:
+def _read(
+    path: Path, text_column, count_column, summary: QueryLogSummary, parsed=None
+) -> list[tuple[int, str, int, dict]]:
     """[(line, raw text, count, carried fields)] of the log; InputError on structural problems.
 
     `parsed` is (format, columns, records) when the caller has read the file already."""
@@ -170,8 +170,10 @@ def _read(path: Path, text_column, count_column, summary: QueryLogSummary,
     header = header_line(records)
     text_key = _pick(columns, text_column, TEXT_COLUMNS, "text", path, header)
     if text_key is None:
-        raise InputError(f"{str(path)!r}: line {header}: no query text column; name one of "
-                         f"{', '.join(TEXT_COLUMNS)} (found: {', '.join(columns) or 'nothing'})")
+        raise InputError(
+            f"{str(path)!r}: line {header}: no query text column; name one of "
+            f"{', '.join(TEXT_COLUMNS)} (found: {', '.join(columns) or 'nothing'})"
+        )
     count_key = _pick(columns, count_column, COUNT_COLUMNS, "count", path, header)
     time_key = next((n for n in TIMESTAMP_COLUMNS if n in columns and n not in (text_key, count_key)), None)
     used = {text_key, count_key, time_key, *CARRIED_COLUMNS}
@@ -191,7 +193,7 @@ def _read(path: Path, text_column, count_column, summary: QueryLogSummary,
             when = _timestamp(fields.get(time_key))
             if when is not None:
                 if when.tzinfo is not None:  # compare in UTC, naive stamps taken as UTC
-                    when = when.astimezone(timezone.utc).replace(tzinfo=None)
+                    when = when.astimezone(UTC).replace(tzinfo=None)
                 stamp = when.isoformat()
                 first = stamp if first is None or stamp < first else first
                 last = stamp if last is None or stamp > last else last
@@ -205,8 +207,14 @@ def _prefix(key: tuple[str, ...], t: float) -> tuple[str, ...]:
     return key[: len(key) - math.ceil(t * len(key) - 1e-9) + 1]
 
 
-def import_query_log(path, *, text_column: str | None = None, count_column: str | None = None,
-                     similarity: float = 0.85, redact: bool = True) -> tuple[list[Question], QueryLogSummary]:
+def import_query_log(
+    path,
+    *,
+    text_column: str | None = None,
+    count_column: str | None = None,
+    similarity: float = 0.85,
+    redact: bool = True,
+) -> tuple[list[Question], QueryLogSummary]:
     """Import a query log as a weighted question set (module docstring), with a summary.
 
     `similarity` is the Jaccard threshold for near duplicates (1.0 merges only identical keys).
@@ -217,8 +225,9 @@ def import_query_log(path, *, text_column: str | None = None, count_column: str 
     return _import(Path(path), text_column, count_column, similarity, redact, None)
 
 
-def import_parsed_log(path: Path, fmt: str, columns: list[str], records: list[tuple[int, dict]]
-                      ) -> tuple[list[Question], QueryLogSummary]:
+def import_parsed_log(
+    path: Path, fmt: str, columns: list[str], records: list[tuple[int, dict]]
+) -> tuple[list[Question], QueryLogSummary]:
     """`import_query_log` with the defaults, over records `questions.read_records` has read."""
     return _import(Path(path), None, None, 0.85, True, (fmt, columns, records))
 
@@ -317,7 +326,8 @@ def _import(path: Path, text_column, count_column, similarity, redact, parsed):
     summary.questions = len(questions)
     summary.largest_merges = [
         {"question": m[2], "variants": m[5], "count": m[0]}
-        for m in sorted(merged, key=lambda m: (-m[5], -m[0], m[1]))[:10] if m[5] > 1
+        for m in sorted(merged, key=lambda m: (-m[5], -m[0], m[1]))[:10]
+        if m[5] > 1
     ]
     return questions, summary
 

@@ -92,9 +92,12 @@ def _card_span(run: str, groups: list[re.Match]) -> tuple[int, int] | None:
     for i in range(n):
         digits = ""
         for j in range(i, n):
-            if j > i and run[groups[j - 1].end():groups[j].start()].strip(" -\u00a0"):
+            if j > i and run[groups[j - 1].end() : groups[j].start()].strip(" -\u00a0"):
                 break
-            if run[groups[j].start() - 1:groups[j].start()] == "(" or run[groups[j].end():groups[j].end() + 1] == ")":
+            if (
+                run[groups[j].start() - 1 : groups[j].start()] == "("
+                or run[groups[j].end() : groups[j].end() + 1] == ")"
+            ):
                 break
             digits += groups[j].group()
             if len(digits) > 19:
@@ -158,8 +161,8 @@ def _phone_end(run: str, groups: list[re.Match], before: str, after: str) -> int
         return None
     for n in range(min(longest, len(groups) - 1), 1, -1):
         head = groups[:n]
-        cut = head[-1].end() + (1 if run[head[-1].end():head[-1].end() + 1] == ")" else 0)
-        if _is_phone(run[:cut], head, before, run[cut:cut + 16]):
+        cut = head[-1].end() + (1 if run[head[-1].end() : head[-1].end() + 1] == ")" else 0)
+        if _is_phone(run[:cut], head, before, run[cut : cut + 16]):
             return cut
     return None
 
@@ -200,12 +203,12 @@ def _redact_digits(text: str, found: Counter) -> str:
         card = _card_span(run, groups) if total >= 13 and not international else None
         if card is not None:
             out.append(text[pos:start])
-            out.append(_redact_digits(run[:card[0]], found))  # "020 7946 0958 4111 ..." holds both
+            out.append(_redact_digits(run[: card[0]], found))  # "020 7946 0958 4111 ..." holds both
             out.append(PLACEHOLDERS["card"])
             found["card"] += 1
             pos = scan = start + card[1]  # the rest of the run is searched again
             continue
-        stop = _phone_end(run, groups, text[max(0, start - 6):start], text[end:end + 16])
+        stop = _phone_end(run, groups, text[max(0, start - 6) : start], text[end : end + 16])
         if stop is not None:
             out.append(text[pos:start])
             out.append(PLACEHOLDERS["phone"])

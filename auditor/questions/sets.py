@@ -54,6 +54,7 @@ TEXT_EXTENSIONS = (".txt", ".text")
 
 # --- reading --------------------------------------------------------------------------------------
 
+
 def read_text(path: Path) -> str:
     """The file's text: UTF-8 (BOM optional) or BOM-marked UTF-16; InputError otherwise."""
     try:
@@ -73,8 +74,7 @@ def read_text(path: Path) -> str:
     except UnicodeDecodeError as exc:
         # Line of the first bad byte, so the user can find it; UTF-16 offsets count code units.
         prefix = body[: exc.start]
-        line = (prefix.decode(encoding, "replace").count("\n") if encoding == "utf-16"
-                else prefix.count(b"\n")) + 1
+        line = (prefix.decode(encoding, "replace").count("\n") if encoding == "utf-16" else prefix.count(b"\n")) + 1
         raise InputError(
             f"{str(path)!r}: line {line}: not valid {'UTF-16' if encoding == 'utf-16' else 'UTF-8'} "
             f"(byte 0x{body[exc.start]:02x}); save the file as UTF-8"
@@ -100,7 +100,7 @@ def _norm_key(name) -> str:
 
 
 def sniff_format(path: Path, text: str) -> str:
-    """"csv", "jsonl" or "text" for a question file, by extension, then by content."""
+    """ "csv", "jsonl" or "text" for a question file, by extension, then by content."""
     suffix = path.suffix.casefold()
     if suffix in CSV_EXTENSIONS:
         return "csv"
@@ -164,7 +164,7 @@ def _read_csv(path: Path, text: str) -> tuple[list[str], list[tuple[int, dict]]]
                         raise InputError(f"{str(path)!r}: line {start}: column {name!r} appears twice")
                     seen.add(name)
                 continue
-            if len(row) > len(header) and any(c.strip() for c in row[len(header):]):
+            if len(row) > len(header) and any(c.strip() for c in row[len(header) :]):
                 raise InputError(
                     f"{str(path)!r}: line {start}: {len(row)} fields but the header has {len(header)}"
                     " (quote fields that contain the delimiter)"
@@ -184,8 +184,9 @@ def _read_jsonl(path: Path, text: str) -> tuple[list[str], list[tuple[int, dict]
         try:
             obj = json.loads(line)
         except json.JSONDecodeError as exc:
-            raise InputError(f"{str(path)!r}: line {number}: not valid JSON ({exc.msg}); "
-                             "JSON Lines needs one object per line") from None
+            raise InputError(
+                f"{str(path)!r}: line {number}: not valid JSON ({exc.msg}); JSON Lines needs one object per line"
+            ) from None
         if not isinstance(obj, dict):
             raise InputError(f"{str(path)!r}: line {number}: expected a JSON object, got {type(obj).__name__}")
         record = {}
@@ -200,6 +201,7 @@ def _read_jsonl(path: Path, text: str) -> tuple[list[str], list[tuple[int, dict]
 
 
 # --- question sets --------------------------------------------------------------------------------
+
 
 def _weight(path: Path, line: int, value) -> float:
     if value == "" or value is None:
@@ -264,14 +266,16 @@ def build_questions(path: Path, rows: list[tuple[int, dict]]) -> list[Question]:
         if qid in used:
             raise InputError(f"{str(path)!r}: line {line}: duplicate id {qid!r} (first on line {used[qid]})")
         used[qid] = line
-        questions.append(Question(
-            id=qid,
-            question=text,
-            owner=_text_field(path, line, "owner", fields.get("owner")),
-            topic=_text_field(path, line, "topic", fields.get("topic")),
-            weight=_weight(path, line, fields.get("weight")),
-            horizon_days=_horizon(path, line, fields.get("horizon_days")),
-        ))
+        questions.append(
+            Question(
+                id=qid,
+                question=text,
+                owner=_text_field(path, line, "owner", fields.get("owner")),
+                topic=_text_field(path, line, "topic", fields.get("topic")),
+                weight=_weight(path, line, fields.get("weight")),
+                horizon_days=_horizon(path, line, fields.get("horizon_days")),
+            )
+        )
     return questions
 
 
@@ -305,8 +309,11 @@ def read_question_file(path):
     text = read_text(path)
     fmt = sniff_format(path, text)
     if fmt == "text":
-        rows = [(n, {"question": line.strip()}) for n, line in enumerate(text.splitlines(), 1)
-                if line.strip() and not line.lstrip().startswith("#")]
+        rows = [
+            (n, {"question": line.strip()})
+            for n, line in enumerate(text.splitlines(), 1)
+            if line.strip() and not line.lstrip().startswith("#")
+        ]
         return build_questions(path, rows), None
     columns, records = read_records(path, text, fmt)
     if is_query_log(columns):
@@ -314,19 +321,23 @@ def read_question_file(path):
 
         return import_parsed_log(path, fmt, columns, records)
     if fmt == "csv" and "question" not in columns:
-        raise InputError(f"{str(path)!r}: line {header_line(records)}: the header needs a 'question' column "
-                         f"(found: {', '.join(columns) or 'nothing'})")
+        raise InputError(
+            f"{str(path)!r}: line {header_line(records)}: the header needs a 'question' column "
+            f"(found: {', '.join(columns) or 'nothing'})"
+        )
     # CSV: the header is checked even when no row follows; JSON Lines: each object on its line.
     checks = [(header_line(records), dict.fromkeys(columns))] if fmt == "csv" else records
     for line, fields in checks:
         unknown = [c for c in fields if c not in QUESTION_COLUMNS]
         if unknown:
-            raise InputError(f"{str(path)!r}: line {line}: unknown column {unknown[0]!r}; "
-                             f"expected {', '.join(QUESTION_COLUMNS)}")
+            raise InputError(
+                f"{str(path)!r}: line {line}: unknown column {unknown[0]!r}; expected {', '.join(QUESTION_COLUMNS)}"
+            )
     return build_questions(path, records), None
 
 
 # --- storing --------------------------------------------------------------------------------------
+
 
 def store_questions(store, questions: list[Question], set_name: str) -> int:
     """Replace the stored question set `set_name` (the file's name) with `questions`, in order.
@@ -352,7 +363,13 @@ def store_questions(store, questions: list[Question], set_name: str) -> int:
 def stored_questions(store, set_name: str) -> list[Question]:
     """The question set `set_name` as last stored, in order."""
     return [
-        Question(id=r["qid"], question=r["question"], owner=r["owner"], topic=r["topic"],
-                 weight=r["weight"], horizon_days=r["horizon_days"])
+        Question(
+            id=r["qid"],
+            question=r["question"],
+            owner=r["owner"],
+            topic=r["topic"],
+            weight=r["weight"],
+            horizon_days=r["horizon_days"],
+        )
         for r in store.query("SELECT * FROM questions WHERE set_name = ? ORDER BY position", [set_name])
     ]

@@ -10,8 +10,7 @@ from __future__ import annotations
 import re
 from pathlib import Path
 
-from auditor.report.exports import (all_owners, document_owner, owner_questions, owner_slugs, write_atomic,
-                      write_exports)
+from auditor.report.exports import all_owners, document_owner, owner_questions, owner_slugs, write_atomic, write_exports
 from auditor.report.html import Highlighter, build_view, render_page, summarize
 
 # The page must stay under 15 MB (the limit) with room to spare; when a run is too big for
@@ -22,8 +21,7 @@ PAGE_LEVELS = ((3, 5_000_000), (2, 2_500_000), (1, 1_000_000), (0, 0))
 
 def _render_within_limit(run: dict, **view_args) -> str:
     for page_evidence, text_budget in PAGE_LEVELS:
-        page = render_page(build_view(run, page_evidence=page_evidence, text_budget=text_budget,
-                                      **view_args))
+        page = render_page(build_view(run, page_evidence=page_evidence, text_budget=text_budget, **view_args))
         if len(page.encode("utf-8")) <= PAGE_LIMIT_BYTES:
             break
     return page
@@ -55,8 +53,9 @@ def write_report(run: dict, out_dir: Path) -> Path:
     owners = all_owners(run)
     tokenizer = (run.get("run") or {}).get("tokenizer")
     tokenizer = tokenizer if isinstance(tokenizer, dict) else {}
-    highlighter = Highlighter(tokenizer.get("language", "english"),
-                              tokenizer.get("stopwords", "english"))  # one word cache for every page
+    highlighter = Highlighter(
+        tokenizer.get("language", "english"), tokenizer.get("stopwords", "english")
+    )  # one word cache for every page
     slugs = owner_slugs(owners)
     write_exports(run, out_dir, slugs)
 
@@ -67,25 +66,48 @@ def write_report(run: dict, out_dir: Path) -> Path:
         own_q = owner_questions(run, owner)
         own_d = [d for d in documents if document_owner(d) == owner]
         slug = slugs[owner]
-        links = {"files": [("Full report", "../index.html"), (f"{owner} CSV", f"{slug}.csv"),
-                           ("results.json", "../results.json")]}
-        page = _render_within_limit(run, questions=own_q, documents=own_d,
-                                    summary=summarize(own_q), owner=owner, links=links,
-                                    highlighter=highlighter)
+        links = {
+            "files": [
+                ("Full report", "../index.html"),
+                (f"{owner} CSV", f"{slug}.csv"),
+                ("results.json", "../results.json"),
+            ]
+        }
+        page = _render_within_limit(
+            run,
+            questions=own_q,
+            documents=own_d,
+            summary=summarize(own_q),
+            owner=owner,
+            links=links,
+            highlighter=highlighter,
+        )
         write_atomic(out_dir / "owners" / f"{slug}.html", page)
         counts = summarize(own_q)
-        owner_links.append({"name": owner, "slug": slug, "questions": len(own_q),
-                            "covered": counts["covered"], "stale": counts["stale"], "gap": counts["gap"],
-                            "at_risk": sum(float(q.get("weight") or 0) for q in own_q
-                                           if q.get("verdict") in ("gap", "stale"))})
+        owner_links.append(
+            {
+                "name": owner,
+                "slug": slug,
+                "questions": len(own_q),
+                "covered": counts["covered"],
+                "stale": counts["stale"],
+                "gap": counts["gap"],
+                "at_risk": sum(float(q.get("weight") or 0) for q in own_q if q.get("verdict") in ("gap", "stale")),
+            }
+        )
 
-    _remove_stale_owner_files(out_dir / "owners",
-                              {f"{slug}.{ext}" for slug in slugs.values() for ext in ("csv", "html")})
-    links = {"files": [("results.json", "results.json"), ("gaps.csv", "gaps.csv")],
-             "owners": owner_links}
-    page = _render_within_limit(run, questions=questions, documents=documents,
-                                summary=run.get("summary") or summarize(questions), links=links,
-                                highlighter=highlighter)
+    _remove_stale_owner_files(
+        out_dir / "owners", {f"{slug}.{ext}" for slug in slugs.values() for ext in ("csv", "html")}
+    )
+    links = {"files": [("results.json", "results.json"), ("gaps.csv", "gaps.csv")], "owners": owner_links}
+    page = _render_within_limit(
+        run,
+        questions=questions,
+        documents=documents,
+        summary=run.get("summary") or summarize(questions),
+        links=links,
+        highlighter=highlighter,
+    )
     index = out_dir / "index.html"
     write_atomic(index, page)
     return index

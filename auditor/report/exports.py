@@ -48,12 +48,27 @@ from pathlib import Path
 UNASSIGNED = "unassigned"
 # The keys of results.json format 1 (DESIGN.md §4.3), which come first in that file.
 FORMAT1_KEYS = ("format", "run", "summary", "questions", "ingest_errors")
-CSV_COLUMNS = ("id", "question", "owner", "topic", "weight", "verdict", "reasons", "flags",
-               "support", "missing_terms", "action", "best_document", "best_section", "best_as_of")
+CSV_COLUMNS = (
+    "id",
+    "question",
+    "owner",
+    "topic",
+    "weight",
+    "verdict",
+    "reasons",
+    "flags",
+    "support",
+    "missing_terms",
+    "action",
+    "best_document",
+    "best_section",
+    "best_as_of",
+)
 _FORMULA_START = ("=", "+", "-", "@", "\t", "\r")
 
 
 # --- owners ---------------------------------------------------------------------------------------
+
 
 def best_evidence(question: dict) -> dict | None:
     """The first supporting evidence item in rank order, else the first item, else None."""
@@ -71,8 +86,7 @@ def _named(owner) -> str | None:
 
 def question_owner(question: dict) -> str:
     """Owner of a question by the rule in this module's docstring (blank counts as none)."""
-    return (_named(question.get("owner")) or _named((best_evidence(question) or {}).get("owner"))
-            or UNASSIGNED)
+    return _named(question.get("owner")) or _named((best_evidence(question) or {}).get("owner")) or UNASSIGNED
 
 
 def slugify(name: str) -> str:
@@ -109,6 +123,7 @@ def all_owners(run: dict) -> list[str]:
 
 
 # --- files ----------------------------------------------------------------------------------------
+
 
 def write_atomic(path: Path, data: str | bytes) -> None:
     """Write `data` to a temporary file beside `path`, flush it to disk, then rename it into place."""
@@ -195,8 +210,7 @@ def csv_row(question: dict) -> list[str]:
 
 def questions_csv(questions: list[dict]) -> str:
     """CSV text (RFC 4180, CRLF line ends) of `questions`, ordered by weight then input order."""
-    order = sorted(range(len(questions)),
-                   key=lambda i: (-float(questions[i].get("weight") or 0.0), i))
+    order = sorted(range(len(questions)), key=lambda i: (-float(questions[i].get("weight") or 0.0), i))
     buf = io.StringIO(newline="")
     writer = csv.writer(buf, lineterminator="\r\n")
     writer.writerow(CSV_COLUMNS)

@@ -27,8 +27,8 @@ from markupsafe import Markup
 
 from auditor.models import STALE_REASONS, VERDICTS
 from auditor.report import charts
-from auditor.report.views import _date, _humanize, _num, _pct, _share, diff_view, gate_view, inventory
 from auditor.report.exports import best_evidence, question_owner
+from auditor.report.views import _date, _humanize, _num, _pct, _share, diff_view, gate_view, inventory
 
 HERE = Path(__file__).parent
 PAGE_EVIDENCE = 3  # evidence items per question in the page (results.json keeps all)
@@ -40,11 +40,13 @@ PASSAGE_CHARS = 600  # longest passage text in the page
 MIN_PASSAGE_CHARS = 160
 PAGE_TEXT_BUDGET = 5_000_000  # characters of passage text in one page, shared by all passages
 _WORD = re.compile(r"\w{2,}")
-_ASTRAL = re.compile("[\U00010000-\U0010FFFF]")
+_ASTRAL = re.compile("[\U00010000-\U0010ffff]")
 
-CAUTION = ("This audit is advisory. Automated checks of support and freshness do not replace the "
-           "content owner's review. Safety-related content — water quality, health, legal — must be "
-           "confirmed with the responsible authority, whose official notice prevails.")
+CAUTION = (
+    "This audit is advisory. Automated checks of support and freshness do not replace the "
+    "content owner's review. Safety-related content — water quality, health, legal — must be "
+    "confirmed with the responsible authority, whose official notice prevails."
+)
 
 REASON_TEXT = {
     "too_old": "older than the freshness horizon",
@@ -56,8 +58,10 @@ FLAG_TEXT = {
     "weak": "support is just above the threshold",
     "file_dated": "freshness rests on a file time only",
     "undated": "the supporting passages carry no date at all; check them by hand",
-    "no_answer_type": ("the best passage lacks the asked-for kind of answer (a date, amount, "
-                       "duration, name or place), so its support was lowered"),
+    "no_answer_type": (
+        "the best passage lacks the asked-for kind of answer (a date, amount, "
+        "duration, name or place), so its support was lowered"
+    ),
 }
 
 
@@ -68,8 +72,13 @@ def _verdict_class(verdict) -> str:
 def script_json(value) -> Markup:
     """JSON safe inside <script type="application/json">: no `<`, `>`, `&`, U+2028, U+2029 left."""
     text = json.dumps(value, ensure_ascii=False, separators=(",", ":"), sort_keys=False)
-    text = (text.replace("&", "\\u0026").replace("<", "\\u003c").replace(">", "\\u003e")
-            .replace("\u2028", "\\u2028").replace("\u2029", "\\u2029"))
+    text = (
+        text.replace("&", "\\u0026")
+        .replace("<", "\\u003c")
+        .replace(">", "\\u003e")
+        .replace("\u2028", "\\u2028")
+        .replace("\u2029", "\\u2029")
+    )
     return Markup(text)
 
 
@@ -86,9 +95,13 @@ def _static() -> tuple[str, str]:
 
 @lru_cache(maxsize=1)
 def _environment() -> Environment:
-    env = Environment(loader=FileSystemLoader(str(HERE / "templates")),
-                      autoescape=select_autoescape(default=True, default_for_string=True),
-                      trim_blocks=True, lstrip_blocks=True, keep_trailing_newline=True)
+    env = Environment(
+        loader=FileSystemLoader(str(HERE / "templates")),
+        autoescape=select_autoescape(default=True, default_for_string=True),
+        trim_blocks=True,
+        lstrip_blocks=True,
+        keep_trailing_newline=True,
+    )
     env.filters.update(pct=_pct, num=_num, verdict_class=_verdict_class, humanize=_humanize)
     return env
 
@@ -103,6 +116,7 @@ class Highlighter:
     def __init__(self, language: str = "english", stopwords: str = "english"):
         try:
             from auditor.retrieval.tokenize import Tokenizer
+
             self._tok = Tokenizer(language, stopwords)
         except Exception:  # the page still renders, matching words as written
             self._tok = None
@@ -134,8 +148,7 @@ class Highlighter:
         wanted = set(terms)
         if not wanted:
             return []
-        return [x for s, e, tok, low in self.words(text) if tok in wanted or low in wanted
-                for x in (s, e)]
+        return [x for s, e, tok, low in self.words(text) if tok in wanted or low in wanted for x in (s, e)]
 
 
 def _cut(text: str, limit: int) -> tuple[str, bool]:
@@ -148,6 +161,7 @@ def _cut(text: str, limit: int) -> tuple[str, bool]:
 
 
 # --- explanations (plain text; the template escapes them) -----------------------------------------
+
 
 def verdict_sentence(q: dict, thresholds: dict) -> str:
     verdict, support = q.get("verdict"), q.get("support")
@@ -182,8 +196,12 @@ def _script_row(row: dict) -> dict:
     """What the script needs to build a row that is not written as HTML (see SERVER_ROWS)."""
     q = row["q"]
     out = {"id": q.get("id"), "q": q.get("question"), "a": q.get("action"), "y": row["why"]}
-    for key, value in (("ac", row["action_text"]), ("m", q.get("missing_terms")),
-                       ("f", [list(f) for f in row["flags"]]), ("b", row["best_line"])):
+    for key, value in (
+        ("ac", row["action_text"]),
+        ("m", q.get("missing_terms")),
+        ("f", [list(f) for f in row["flags"]]),
+        ("b", row["best_line"]),
+    ):
         if value:
             out[key] = value
     return out
@@ -198,25 +216,31 @@ def action_sentence(q: dict) -> str | None:
         s = "Write: add a passage that answers this question"
         return s + (f", using the words users use ({', '.join(terms)})." if terms else ".")
     if action == "refresh":
-        return ("Refresh: bring " + (where or "the supporting passage") +
-                " up to date and state when it was reviewed.")
+        return "Refresh: bring " + (where or "the supporting passage") + " up to date and state when it was reviewed."
     if action == "retire":
-        return ("Retire: remove or rewrite " + (where or "the supporting passage") +
-                "; what it says has expired or been overtaken.")
+        return (
+            "Retire: remove or rewrite "
+            + (where or "the supporting passage")
+            + "; what it says has expired or been overtaken."
+        )
     return None
 
 
 # --- the view model -------------------------------------------------------------------------------
 
+
 def summarize(questions: list[dict]) -> dict:
     """Summary figures of a subset of questions, computed as DESIGN.md §3.4 defines them."""
     weight = sum(float(q.get("weight") or 0) for q in questions)
     counts = {v: sum(1 for q in questions if q.get("verdict") == v) for v in VERDICTS}
-    wsum = {v: sum(float(q.get("weight") or 0) for q in questions if q.get("verdict") == v)
-            for v in VERDICTS}
-    return {"questions": len(questions), **counts, "weight": weight,
-            "fallback_exposure": _share(wsum["gap"], weight),
-            "stale_exposure": _share(wsum["stale"], weight)}
+    wsum = {v: sum(float(q.get("weight") or 0) for q in questions if q.get("verdict") == v) for v in VERDICTS}
+    return {
+        "questions": len(questions),
+        **counts,
+        "weight": weight,
+        "fallback_exposure": _share(wsum["gap"], weight),
+        "stale_exposure": _share(wsum["stale"], weight),
+    }
 
 
 def _figures(summary: dict, corpus: dict) -> list[dict]:
@@ -224,20 +248,54 @@ def _figures(summary: dict, corpus: dict) -> list[dict]:
     figs = [{"key": "questions", "label": "Questions", "value": n, "text": str(n)}]
     for v in VERDICTS:
         c = summary.get(v) or 0
-        figs.append({"key": v, "label": v.capitalize(), "value": c, "text": str(c),
-                     "note": _pct(_share(c, n)) + " of questions", "cls": v})
-    figs.append({"key": "fallback_exposure", "label": "Fallback exposure",
-                 "value": summary.get("fallback_exposure"), "text": _pct(summary.get("fallback_exposure")),
-                 "note": "weighted share of gap questions", "cls": "gap"})
-    figs.append({"key": "stale_exposure", "label": "Stale exposure",
-                 "value": summary.get("stale_exposure"), "text": _pct(summary.get("stale_exposure")),
-                 "note": "weighted share of stale questions", "cls": "stale"})
-    figs.append({"key": "freshness", "label": "Corpus freshness F", "value": corpus.get("freshness"),
-                 "text": _num(corpus.get("freshness"), 3), "note": "share of passages up to date"})
-    figs.append({"key": "mean_age_days", "label": "Mean age A", "value": corpus.get("mean_age_days"),
-                 "text": "–" if corpus.get("mean_age_days") is None
-                 else f"{_num(corpus.get('mean_age_days'), 1)} d",
-                 "note": "days out of date, 0 when fresh"})
+        figs.append(
+            {
+                "key": v,
+                "label": v.capitalize(),
+                "value": c,
+                "text": str(c),
+                "note": _pct(_share(c, n)) + " of questions",
+                "cls": v,
+            }
+        )
+    figs.append(
+        {
+            "key": "fallback_exposure",
+            "label": "Fallback exposure",
+            "value": summary.get("fallback_exposure"),
+            "text": _pct(summary.get("fallback_exposure")),
+            "note": "weighted share of gap questions",
+            "cls": "gap",
+        }
+    )
+    figs.append(
+        {
+            "key": "stale_exposure",
+            "label": "Stale exposure",
+            "value": summary.get("stale_exposure"),
+            "text": _pct(summary.get("stale_exposure")),
+            "note": "weighted share of stale questions",
+            "cls": "stale",
+        }
+    )
+    figs.append(
+        {
+            "key": "freshness",
+            "label": "Corpus freshness F",
+            "value": corpus.get("freshness"),
+            "text": _num(corpus.get("freshness"), 3),
+            "note": "share of passages up to date",
+        }
+    )
+    figs.append(
+        {
+            "key": "mean_age_days",
+            "label": "Mean age A",
+            "value": corpus.get("mean_age_days"),
+            "text": "–" if corpus.get("mean_age_days") is None else f"{_num(corpus.get('mean_age_days'), 1)} d",
+            "note": "days out of date, 0 when fresh",
+        }
+    )
     return figs
 
 
@@ -268,22 +326,38 @@ def _owner_counts(questions: list[dict], owners: list[str]) -> dict[str, dict[st
 
 def _trend_points(run: dict) -> list[dict]:
     entries = list(run.get("history") or [])
-    current = {"id": (run.get("run") or {}).get("id"), "as_of": (run.get("run") or {}).get("as_of"),
-               "summary": run.get("summary") or {}}
+    current = {
+        "id": (run.get("run") or {}).get("id"),
+        "as_of": (run.get("run") or {}).get("as_of"),
+        "summary": run.get("summary") or {},
+    }
     if not entries or entries[-1].get("id") != current["id"]:
         entries.append(current)
     points = []
     for e in entries:
         s = e.get("summary") or {}
-        points.append({"label": str(e.get("as_of") or e.get("id") or ""),
-                       "covered_share": _share(s.get("covered") or 0, s.get("questions") or 0),
-                       "stale_exposure": s.get("stale_exposure"),
-                       "fallback_exposure": s.get("fallback_exposure")})
+        points.append(
+            {
+                "label": str(e.get("as_of") or e.get("id") or ""),
+                "covered_share": _share(s.get("covered") or 0, s.get("questions") or 0),
+                "stale_exposure": s.get("stale_exposure"),
+                "fallback_exposure": s.get("fallback_exposure"),
+            }
+        )
     return points
 
 
-def _page_data(questions, owners_of, owner_index, topic_index, horizon, *,
-               page_evidence: int, text_budget: int, highlighter: Highlighter) -> dict:
+def _page_data(
+    questions,
+    owners_of,
+    owner_index,
+    topic_index,
+    horizon,
+    *,
+    page_evidence: int,
+    text_budget: int,
+    highlighter: Highlighter,
+) -> dict:
     """What the page script needs: filter keys per row and short evidence; passages deduplicated.
 
     Per question: {"v": verdict, "o": owner index, "t": topic index (-1: none), "w": weight,
@@ -299,8 +373,9 @@ def _page_data(questions, owners_of, owner_index, topic_index, horizon, *,
     hl = highlighter
     passages: dict[str, dict] = {}
     reason_codes: dict[str, int] = {r: k for k, r in enumerate(STALE_REASONS)}
-    all_signals = sorted({k for q in questions for e in (q.get("evidence") or [])[:page_evidence]
-                          for k in (e.get("signals") or {})})
+    all_signals = sorted(
+        {k for q in questions for e in (q.get("evidence") or [])[:page_evidence] for k in (e.get("signals") or {})}
+    )
     rows = []
     keyed = []  # (evidence item, passage key, matched terms): highlight once the text is cut
     for i, q in enumerate(questions):
@@ -313,28 +388,51 @@ def _page_data(questions, owners_of, owner_index, topic_index, horizon, *,
             key = str(e["passage"]) if e.get("passage") is not None else f"{i}.{j}"
             if key not in passages:
                 passages[key] = {
-                    "d": e.get("document"), "sec": e.get("section"), "pg": e.get("page"),
-                    "ao": e.get("as_of"), "src": e.get("as_of_source"), "ex": e.get("expires"),
-                    "st": [[s.get("expression"), s.get("role"), s.get("start"), s.get("end"),
-                            s.get("granularity")] for s in e.get("statements") or []],
+                    "d": e.get("document"),
+                    "sec": e.get("section"),
+                    "pg": e.get("page"),
+                    "ao": e.get("as_of"),
+                    "src": e.get("as_of_source"),
+                    "ex": e.get("expires"),
+                    "st": [
+                        [s.get("expression"), s.get("role"), s.get("start"), s.get("end"), s.get("granularity")]
+                        for s in e.get("statements") or []
+                    ],
                     "_raw": e.get("text") or "",
                 }
             terms = e.get("terms") or {}
             contrib = [round(float(terms.get(t) or 0), 2) for t in qterms]
-            item = [key, e.get("rank", j + 1), round(float(e.get("score") or 0), 2),
-                    round(float(e.get("support") or 0), 3), int(bool(e.get("supporting"))),
-                    int(bool(e.get("fresh"))),
-                    [reason_codes.setdefault(str(r), len(reason_codes)) for r in e.get("reasons") or []],
-                    contrib]
+            item = [
+                key,
+                e.get("rank", j + 1),
+                round(float(e.get("score") or 0), 2),
+                round(float(e.get("support") or 0), 3),
+                int(bool(e.get("supporting"))),
+                int(bool(e.get("fresh"))),
+                [reason_codes.setdefault(str(r), len(reason_codes)) for r in e.get("reasons") or []],
+                contrib,
+            ]
             signals = e.get("signals") or {}
             found = e.get("answer_type_found")
-            keyed.append((item, key, [t for t in qterms if float(terms.get(t) or 0) > 0],
-                          [round(float(signals.get(k) or 0), 2) for k in snames],
-                          None if found is None else int(bool(found))))
+            keyed.append(
+                (
+                    item,
+                    key,
+                    [t for t in qterms if float(terms.get(t) or 0) > 0],
+                    [round(float(signals.get(k) or 0), 2) for k in snames],
+                    None if found is None else int(bool(found)),
+                )
+            )
             ev_out.append(item)
-        row = {"v": q.get("verdict"), "o": owner_index[owners_of[i]],
-               "t": topic_index.get(str(q.get("topic")), -1),
-               "w": q.get("weight", 1.0), "s": q.get("support"), "k": qterms, "e": ev_out}
+        row = {
+            "v": q.get("verdict"),
+            "o": owner_index[owners_of[i]],
+            "t": topic_index.get(str(q.get("topic")), -1),
+            "w": q.get("weight", 1.0),
+            "s": q.get("support"),
+            "k": qterms,
+            "e": ev_out,
+        }
         if q.get("horizon_days") and q.get("horizon_days") != horizon:
             row["h"] = q["horizon_days"]
         if snames != all_signals:
@@ -354,14 +452,21 @@ def _page_data(questions, owners_of, owner_index, topic_index, horizon, *,
             coded += [flat[k] - end, flat[k + 1] - flat[k]]
             end = flat[k + 1]
         item += [coded, signal_values, found]
-    return {"q": rows, "p": passages, "h": horizon, "sk": all_signals,
-            "R": sorted(reason_codes, key=reason_codes.get)}
+    return {"q": rows, "p": passages, "h": horizon, "sk": all_signals, "R": sorted(reason_codes, key=reason_codes.get)}
 
 
-def build_view(run: dict, *, questions: list[dict], documents: list[dict], summary: dict,
-               owner: str | None = None, links: dict | None = None,
-               page_evidence: int = PAGE_EVIDENCE, text_budget: int = PAGE_TEXT_BUDGET,
-               highlighter: Highlighter | None = None) -> dict:
+def build_view(
+    run: dict,
+    *,
+    questions: list[dict],
+    documents: list[dict],
+    summary: dict,
+    owner: str | None = None,
+    links: dict | None = None,
+    page_evidence: int = PAGE_EVIDENCE,
+    text_budget: int = PAGE_TEXT_BUDGET,
+    highlighter: Highlighter | None = None,
+) -> dict:
     """Everything the template shows, for the whole run or one owner's share of it.
 
     Pass one `highlighter` to several calls to share its word cache between pages.
@@ -380,12 +485,18 @@ def build_view(run: dict, *, questions: list[dict], documents: list[dict], summa
     rows = []
     for i, (q, own) in enumerate(zip(questions, owners_of)):
         best = best_evidence(q) or {}
-        rows.append({
-            "i": i, "q": q, "owner": own, "verdict": q.get("verdict"),
-            "why": verdict_sentence(q, thresholds), "action_text": action_sentence(q),
-            "flags": [(f, FLAG_TEXT.get(f, "")) for f in q.get("flags") or []],
-            "best_line": best_line(q, best),
-        })
+        rows.append(
+            {
+                "i": i,
+                "q": q,
+                "owner": own,
+                "verdict": q.get("verdict"),
+                "why": verdict_sentence(q, thresholds),
+                "action_text": action_sentence(q),
+                "flags": [(f, FLAG_TEXT.get(f, "")) for f in q.get("flags") or []],
+                "best_line": best_line(q, best),
+            }
+        )
 
     ages, undated = _evidence_ages(questions, audit)
     chart_owner = charts.verdicts_by_owner(_owner_counts(questions, owners_of))
@@ -398,15 +509,21 @@ def build_view(run: dict, *, questions: list[dict], documents: list[dict], summa
     for b in run.get("briefs") or []:
         if owner is not None and (b.get("owner") or "unassigned") != owner:
             continue
-        qs = [(index_of[str(x)], questions[index_of[str(x)]].get("question"))
-              for x in b.get("questions") or [] if str(x) in index_of]
+        qs = [
+            (index_of[str(x)], questions[index_of[str(x)]].get("question"))
+            for x in b.get("questions") or []
+            if str(x) in index_of
+        ]
         briefs.append({"b": b, "questions": qs})
     briefs.sort(key=lambda item: (-float(item["b"].get("weight") or 0), str(item["b"].get("title"))))
 
     return {
         "title": meta.get("title") or "Knowledge base",
         "owner": owner,
-        "run": meta, "corpus": corpus, "summary": summary, "thresholds": thresholds,
+        "run": meta,
+        "corpus": corpus,
+        "summary": summary,
+        "thresholds": thresholds,
         "figures": _figures(summary, corpus),
         "charts": {"owner": chart_owner, "age": chart_age, "trend": chart_trend},
         "diff": diff_view(run.get("diff")) if owner is None else None,
@@ -414,15 +531,26 @@ def build_view(run: dict, *, questions: list[dict], documents: list[dict], summa
         "briefs": briefs,
         "rows": rows[:SERVER_ROWS],
         "row_count": len(rows),
-        "owner_names": owner_names, "topics": topics,
+        "owner_names": owner_names,
+        "topics": topics,
         "inventory": inventory(documents, run.get("ingest_errors") if owner is None else [], audit),
         "caution": CAUTION,
         "links": links or {},
-        "data": dict(_page_data(questions, owners_of, owner_index, topic_index, horizon,
-                                page_evidence=page_evidence, text_budget=text_budget,
-                                highlighter=highlighter or Highlighter()),
-                     audit=meta.get("as_of"), server_rows=min(SERVER_ROWS, len(rows)),
-                     x=[_script_row(r) for r in rows[SERVER_ROWS:]]),
+        "data": dict(
+            _page_data(
+                questions,
+                owners_of,
+                owner_index,
+                topic_index,
+                horizon,
+                page_evidence=page_evidence,
+                text_budget=text_budget,
+                highlighter=highlighter or Highlighter(),
+            ),
+            audit=meta.get("as_of"),
+            server_rows=min(SERVER_ROWS, len(rows)),
+            x=[_script_row(r) for r in rows[SERVER_ROWS:]],
+        ),
         "audit_date": meta.get("as_of"),
         "horizon": horizon,
     }
@@ -431,7 +559,11 @@ def build_view(run: dict, *, questions: list[dict], documents: list[dict], summa
 def render_page(view: dict) -> str:
     """Render one page of the report from a view built by `build_view`."""
     css, js = _static()
-    csp = ("default-src 'none'; base-uri 'none'; form-action 'none'; "
-           f"style-src {csp_hash(css)}; script-src {csp_hash(js)}")
-    return _environment().get_template("report.html.j2").render(
-        v=view, css=Markup(css), js=Markup(js), csp=csp, data_json=script_json(view["data"]))
+    csp = (
+        f"default-src 'none'; base-uri 'none'; form-action 'none'; style-src {csp_hash(css)}; script-src {csp_hash(js)}"
+    )
+    return (
+        _environment()
+        .get_template("report.html.j2")
+        .render(v=view, css=Markup(css), js=Markup(js), csp=csp, data_json=script_json(view["data"]))
+    )

@@ -12,6 +12,7 @@ LIST_LIMIT = 50  # rows per document inventory list
 
 # --- small helpers --------------------------------------------------------------------------------
 
+
 def _date(value) -> date | None:
     if not value:
         return None
@@ -41,8 +42,7 @@ def _humanize(key: str) -> str:
 
 
 DIFF_ORDER = ("new_gaps", "newly_stale", "resolved_gaps", "refreshed", "added", "removed")
-DIFF_META = ("base_run", "base_as_of", "head_run", "head_as_of", "summary", "counts", "weights",
-             "exposure")
+DIFF_META = ("base_run", "base_as_of", "head_run", "head_as_of", "summary", "counts", "weights", "exposure")
 
 
 def _scalar_text(value) -> str:
@@ -72,11 +72,17 @@ def _diff_entry(item) -> dict:
         extra.append(str(item["owner"]))
     if item.get("reasons"):
         extra.append(", ".join(map(str, item["reasons"])))
-    extra += [f"{_humanize(k).lower()} {_scalar_text(v)}" for k, v in item.items()
-              if k not in ("id", "question", "owner", "weight", "before", "after", "reasons")
-              and v not in (None, "", [])]
-    return {"id": item.get("id"), "text": _scalar_text(item.get("question", "")), "change": change,
-            "extra": " · ".join(extra)}
+    extra += [
+        f"{_humanize(k).lower()} {_scalar_text(v)}"
+        for k, v in item.items()
+        if k not in ("id", "question", "owner", "weight", "before", "after", "reasons") and v not in (None, "", [])
+    ]
+    return {
+        "id": item.get("id"),
+        "text": _scalar_text(item.get("question", "")),
+        "change": change,
+        "extra": " · ".join(extra),
+    }
 
 
 def diff_view(diff: dict | None) -> dict | None:
@@ -89,8 +95,10 @@ def diff_view(diff: dict | None) -> dict | None:
     weights = diff.get("weights") if isinstance(diff.get("weights"), dict) else {}
     lists = [k for k in DIFF_ORDER if isinstance(diff.get(k), (list, tuple))]
     lists += sorted(k for k, v in diff.items() if isinstance(v, (list, tuple)) and k not in lists)
-    groups = [{"key": k, "title": _humanize(k), "entries": [_diff_entry(x) for x in diff[k]],
-               "weight": weights.get(k)} for k in lists]
+    groups = [
+        {"key": k, "title": _humanize(k), "entries": [_diff_entry(x) for x in diff[k]], "weight": weights.get(k)}
+        for k in lists
+    ]
     facts = []
     if diff.get("base_run") is not None or diff.get("base_as_of"):
         facts.append(("Compared with", f"run #{diff.get('base_run')} of {diff.get('base_as_of')}"))
@@ -102,12 +110,20 @@ def diff_view(diff: dict | None) -> dict | None:
     for k in sorted(diff):
         if k not in lists and k not in DIFF_META:
             facts.append((_humanize(k), _scalar_text(diff[k])))
-    return {"groups": groups, "facts": facts,
-            "summary": diff.get("summary") if isinstance(diff.get("summary"), str) else None}
+    return {
+        "groups": groups,
+        "facts": facts,
+        "summary": diff.get("summary") if isinstance(diff.get("summary"), str) else None,
+    }
 
 
-GATE_COLUMNS = (("limit", "Limit"), ("figure", "Figure"), ("value", "Value"), ("max", "Limit value"),
-                ("passed", "Result"))
+GATE_COLUMNS = (
+    ("limit", "Limit"),
+    ("figure", "Figure"),
+    ("value", "Value"),
+    ("max", "Limit value"),
+    ("passed", "Result"),
+)
 
 
 def gate_view(gate: dict | None) -> dict | None:
@@ -132,10 +148,19 @@ def gate_view(gate: dict | None) -> dict | None:
             else:
                 cells.append(_scalar_text(v))
         rows.append({"cells": cells, "failed": c.get("passed", c.get("ok")) is False})
-    facts = [(_humanize(k), _scalar_text(v)) for k, v in sorted(gate.items())
-             if k not in ("passed", "ok", "checks", "message")]
-    return {"passed": bool(passed), "message": gate.get("message"), "headers": headers,
-            "rows": rows, "row_count": len(rows), "facts": facts}
+    facts = [
+        (_humanize(k), _scalar_text(v))
+        for k, v in sorted(gate.items())
+        if k not in ("passed", "ok", "checks", "message")
+    ]
+    return {
+        "passed": bool(passed),
+        "message": gate.get("message"),
+        "headers": headers,
+        "rows": rows,
+        "row_count": len(rows),
+        "facts": facts,
+    }
 
 
 def inventory(documents: list[dict], ingest_errors, audit: date | None) -> dict:
@@ -149,28 +174,50 @@ def inventory(documents: list[dict], ingest_errors, audit: date | None) -> dict:
     dated = [d for d in active if as_of(d)]
     oldest = sorted(dated, key=lambda d: (as_of(d), str(d.get("path"))))
     undated = [d for d in active if not as_of(d)]
-    expired = [d for d in active if "expired" in (d.get("reasons") or [])
-               or (audit and _date(d.get("expires")) and _date(d.get("expires")) < audit)]
+    expired = [
+        d
+        for d in active
+        if "expired" in (d.get("reasons") or [])
+        or (audit and _date(d.get("expires")) and _date(d.get("expires")) < audit)
+    ]
     expired.sort(key=lambda d: (str(d.get("expires") or ""), str(d.get("path"))))
     # A failed file: its kinds (documents.reasons, e.g. "encrypted") and messages (ingest_errors).
-    failed = {str(d.get("path")): {"path": d.get("path"), "owner": document_owner(d),
-                                   "kinds": list(d.get("reasons") or []), "errors": []}
-              for d in docs if d.get("status") == "failed"}
+    failed = {
+        str(d.get("path")): {
+            "path": d.get("path"),
+            "owner": document_owner(d),
+            "kinds": list(d.get("reasons") or []),
+            "errors": [],
+        }
+        for d in docs
+        if d.get("status") == "failed"
+    }
     for err in ingest_errors or []:
-        entry = failed.setdefault(str(err.get("document")), {"path": err.get("document"), "owner": None,
-                                                             "kinds": [], "errors": []})
+        entry = failed.setdefault(
+            str(err.get("document")), {"path": err.get("document"), "owner": None, "kinds": [], "errors": []}
+        )
         if err.get("error") and err.get("error") not in entry["errors"]:
             entry["errors"].append(err.get("error"))
     failed = list(failed.values())
     failed.sort(key=lambda f: str(f["path"]))
     return {
-        "counts": {"documents": len(docs), "active": len(active),
-                   "removed": sum(1 for d in docs if d.get("status") == "removed"),
-                   "failed": len(failed), "undated": len(undated), "expired": len(expired),
-                   "stale": sum(1 for d in active if d.get("fresh") is False)},
-        "oldest": oldest[:LIST_LIMIT], "undated": undated[:LIST_LIMIT],
-        "expired": expired[:LIST_LIMIT], "failed": failed,
-        "more": {"oldest": max(0, len(oldest) - LIST_LIMIT), "undated": max(0, len(undated) - LIST_LIMIT),
-                 "expired": max(0, len(expired) - LIST_LIMIT)},
+        "counts": {
+            "documents": len(docs),
+            "active": len(active),
+            "removed": sum(1 for d in docs if d.get("status") == "removed"),
+            "failed": len(failed),
+            "undated": len(undated),
+            "expired": len(expired),
+            "stale": sum(1 for d in active if d.get("fresh") is False),
+        },
+        "oldest": oldest[:LIST_LIMIT],
+        "undated": undated[:LIST_LIMIT],
+        "expired": expired[:LIST_LIMIT],
+        "failed": failed,
+        "more": {
+            "oldest": max(0, len(oldest) - LIST_LIMIT),
+            "undated": max(0, len(undated) - LIST_LIMIT),
+            "expired": max(0, len(expired) - LIST_LIMIT),
+        },
         "audit": audit,
     }

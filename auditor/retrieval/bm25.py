@@ -38,6 +38,7 @@ OKAPI_EPSILON = 0.25  # rank-bm25's BM25Okapi default (rank_bm25.py, BM25Okapi._
 
 # --- IDF: vectorised over the document frequencies `df` of every term of the corpus ---------------
 
+
 def idf_lucene(n_docs: int, df: np.ndarray) -> np.ndarray:
     """Lucene's non-negative IDF, ln(1 + (N − n + 0.5)/(n + 0.5)) (Lucene BM25Similarity.idf;
     Kamphuis et al., ECIR 2020, "Which BM25 do you mean?", table 1)."""
@@ -82,6 +83,7 @@ def idf_bm25plus(n_docs: int, df: np.ndarray) -> np.ndarray:
 
 # --- term-frequency parts, for a term present in the passage (tf ≥ 1) -----------------------------
 
+
 def _norm(dl, avgdl: float, b: float):
     # Length normalisation 1 − b + b·dl/avgdl; an all-empty corpus has avgdl 0 and no postings.
     return 1.0 - b + b * (np.asarray(dl, dtype=np.float64) / avgdl if avgdl > 0 else 0.0)
@@ -120,10 +122,10 @@ class Variant:
 
 # The one registry of valid variants; error messages list its keys, so they cannot go stale.
 VARIANTS: dict[str, Variant] = {
-    "lucene": Variant("lucene", idf_lucene, tf_classic,
-                      "Lucene's non-negative IDF with the classic (k1 + 1) tf part (default)"),
-    "okapi": Variant("okapi", idf_okapi, tf_classic,
-                     "Robertson IDF with rank-bm25's ε floor for negative IDF"),
+    "lucene": Variant(
+        "lucene", idf_lucene, tf_classic, "Lucene's non-negative IDF with the classic (k1 + 1) tf part (default)"
+    ),
+    "okapi": Variant("okapi", idf_okapi, tf_classic, "Robertson IDF with rank-bm25's ε floor for negative IDF"),
     "bm25plus": Variant("bm25plus", idf_bm25plus, tf_bm25plus, "BM25+ (lower-bounded tf, δ)"),
     "bm25l": Variant("bm25l", idf_bm25l, tf_bm25l, "BM25L (shifted tf normalisation, δ)"),
 }
@@ -134,8 +136,9 @@ def get_variant(name: str) -> Variant:
     try:
         return VARIANTS[name]
     except KeyError:
-        raise ConfigError(f"retrieval.variant: unknown BM25 variant {name!r}; "
-                          f"choose one of {', '.join(VARIANTS)}") from None
+        raise ConfigError(
+            f"retrieval.variant: unknown BM25 variant {name!r}; choose one of {', '.join(VARIANTS)}"
+        ) from None
 
 
 @dataclass(frozen=True)
@@ -166,6 +169,7 @@ class Params:
 
 
 # --- map: term frequencies per passage -------------------------------------------------------------
+
 
 @dataclass
 class TermCounts:
@@ -220,11 +224,11 @@ def count_terms(token_arrays: Iterable[np.ndarray], chunk: int = 32768) -> TermC
     tf = np.concatenate(tf_parts) if tf_parts else np.zeros(0, np.uint16)  # int32 if any chunk needs it
     tf_parts.clear()
     doc_len = np.concatenate(lengths) if lengths else np.zeros(0, np.int32)
-    return TermCounts(np.concatenate(indptr_parts), terms, tf, doc_len,
-                      int(terms.max()) + 1 if len(terms) else 0)
+    return TermCounts(np.concatenate(indptr_parts), terms, tf, doc_len, int(terms.max()) + 1 if len(terms) else 0)
 
 
 # --- reduce: corpus-wide statistics ---------------------------------------------------------------
+
 
 @dataclass
 class CorpusStats:
@@ -235,17 +239,20 @@ class CorpusStats:
     df: np.ndarray  # int64 by term id
 
     @classmethod
-    def of(cls, counts: TermCounts) -> "CorpusStats":
+    def of(cls, counts: TermCounts) -> CorpusStats:
         """The statistics of one shard's term counts."""
-        return cls(counts.n_docs, int(counts.doc_len.sum()),
-                   np.bincount(counts.terms, minlength=counts.n_terms).astype(np.int64))
+        return cls(
+            counts.n_docs,
+            int(counts.doc_len.sum()),
+            np.bincount(counts.terms, minlength=counts.n_terms).astype(np.int64),
+        )
 
-    def merge(self, other: "CorpusStats") -> "CorpusStats":
+    def merge(self, other: CorpusStats) -> CorpusStats:
         """Statistics of two shards together (the reduce step)."""
         width = max(len(self.df), len(other.df))
         df = np.zeros(width, np.int64)
-        df[:len(self.df)] += self.df
-        df[:len(other.df)] += other.df
+        df[: len(self.df)] += self.df
+        df[: len(other.df)] += other.df
         return CorpusStats(self.n_docs + other.n_docs, self.total_len + other.total_len, df)
 
     @property
@@ -267,8 +274,15 @@ DENSE_MAX_TERMS = 64
 class SparseIndex:
     """Term-major BM25 index over passage ordinals 0..n_docs−1 (one shard) with exact top-k."""
 
-    def __init__(self, params: Params, n_docs: int, avgdl: float, arrays: dict[str, np.ndarray],
-                 missing_idf: float, meta: dict | None = None):
+    def __init__(
+        self,
+        params: Params,
+        n_docs: int,
+        avgdl: float,
+        arrays: dict[str, np.ndarray],
+        missing_idf: float,
+        meta: dict | None = None,
+    ):
         self.params = params
         self.n_docs = n_docs
         self.avgdl = avgdl
@@ -282,9 +296,15 @@ class SparseIndex:
 
     # -- build / save / load -----------------------------------------------------------------------
     @classmethod
-    def build(cls, counts: TermCounts, params: Params, stats: CorpusStats | None = None,
-              meta: dict | None = None, keys: np.ndarray | None = None,
-              consume: bool = False) -> "SparseIndex":
+    def build(
+        cls,
+        counts: TermCounts,
+        params: Params,
+        stats: CorpusStats | None = None,
+        meta: dict | None = None,
+        keys: np.ndarray | None = None,
+        consume: bool = False,
+    ) -> SparseIndex:
         """Weights for one shard; `stats` are the corpus-wide ones (default: this shard's).
         `keys` are the caller's ids of the passages (default: their ordinals). With `consume`,
         the passage-major arrays of `counts` are released once turned term-major (saves a third
@@ -293,13 +313,14 @@ class SparseIndex:
         scorer = params.scorer
         width = max(counts.n_terms, len(stats.df))
         df = np.zeros(width, np.int64)
-        df[:len(stats.df)] = stats.df
+        df[: len(stats.df)] = stats.df
         present = df > 0
         idf = np.zeros(width, np.float64)
         if present.any():
             idf = np.where(present, scorer.idf(stats.n_docs, df), 0.0)
-        csc = scipy.sparse.csr_matrix((counts.tf, counts.terms, counts.indptr),
-                                      shape=(counts.n_docs, width), copy=False).tocsc()
+        csc = scipy.sparse.csr_matrix(
+            (counts.tf, counts.terms, counts.indptr), shape=(counts.n_docs, width), copy=False
+        ).tocsc()
         if consume:
             counts.terms = counts.tf = None
         csc.sort_indices()
@@ -317,9 +338,10 @@ class SparseIndex:
             end = min(max(end - 1, column + 1), width)
             lo, hi = indptr[column], indptr[end]
             if hi > lo:
-                cols = np.repeat(np.arange(column, end), np.diff(indptr[column:end + 1]))
-                weights[lo:hi] = idf[cols] * scorer.tf(tf[lo:hi], counts.doc_len[indices[lo:hi]], avgdl,
-                                                      params.k1, params.b, params.delta)
+                cols = np.repeat(np.arange(column, end), np.diff(indptr[column : end + 1]))
+                weights[lo:hi] = idf[cols] * scorer.tf(
+                    tf[lo:hi], counts.doc_len[indices[lo:hi]], avgdl, params.k1, params.b, params.delta
+                )
             column = end
         maxw = np.zeros(width, np.float32)
         nonempty = np.flatnonzero(np.diff(indptr) > 0)
@@ -331,15 +353,24 @@ class SparseIndex:
         dense = np.zeros((len(common), counts.n_docs), np.float32)
         dense_row = np.full(width, -1, np.int32)
         for row, t in enumerate(common):
-            dense[row, indices[indptr[t]:indptr[t + 1]]] = weights[indptr[t]:indptr[t + 1]]
+            dense[row, indices[indptr[t] : indptr[t + 1]]] = weights[indptr[t] : indptr[t + 1]]
             dense_row[t] = row
         missing = float(scorer.idf(stats.n_docs + 1, np.array([1.0]))[0])
         missing = max(missing, float(idf.max(initial=0.0)), 0.0)
         meta = dict(meta or {})
-        arrays = dict(indptr=indptr, indices=indices, weights=weights, tf=tf,
-                      doc_len=counts.doc_len.astype(np.int32), df=df, idf=idf, maxw=maxw,
-                      keys=np.arange(counts.n_docs, dtype=np.int64) if keys is None
-                      else np.asarray(keys, dtype=np.int64), dense=dense, dense_row=dense_row)
+        arrays = dict(
+            indptr=indptr,
+            indices=indices,
+            weights=weights,
+            tf=tf,
+            doc_len=counts.doc_len.astype(np.int32),
+            df=df,
+            idf=idf,
+            maxw=maxw,
+            keys=np.arange(counts.n_docs, dtype=np.int64) if keys is None else np.asarray(keys, dtype=np.int64),
+            dense=dense,
+            dense_row=dense_row,
+        )
         meta["corpus_docs"] = stats.n_docs
         return cls(params, counts.n_docs, avgdl, arrays, missing, meta)
 
@@ -351,8 +382,14 @@ class SparseIndex:
         try:
             for name in _ARRAYS:
                 np.save(work / f"{name}.npy", np.ascontiguousarray(getattr(self, name)))
-            info = {"format": FORMAT, "params": asdict(self.params), "n_docs": self.n_docs,
-                    "avgdl": self.avgdl, "missing_idf": self.missing_idf, "meta": self.meta}
+            info = {
+                "format": FORMAT,
+                "params": asdict(self.params),
+                "n_docs": self.n_docs,
+                "avgdl": self.avgdl,
+                "missing_idf": self.missing_idf,
+                "meta": self.meta,
+            }
             (work / "index.json").write_text(json.dumps(info, indent=1, sort_keys=True))
             old = None
             if folder.exists():
@@ -375,16 +412,16 @@ class SparseIndex:
         return info if isinstance(info, dict) and info.get("format") == FORMAT else None
 
     @classmethod
-    def load(cls, folder: Path, mmap: bool = True) -> "SparseIndex":
+    def load(cls, folder: Path, mmap: bool = True) -> SparseIndex:
         """Open a saved index; the big arrays are memory-mapped, not read."""
         folder = Path(folder)
         info = cls.read_info(folder)
         if info is None:
             raise FileNotFoundError(f"{str(folder)!r}: no BM25 index of format {FORMAT}")
-        arrays = {name: np.load(folder / f"{name}.npy", mmap_mode="r" if mmap else None)
-                  for name in _ARRAYS}
-        return cls(Params(**info["params"]), info["n_docs"], info["avgdl"], arrays,
-                   info["missing_idf"], info.get("meta"))
+        arrays = {name: np.load(folder / f"{name}.npy", mmap_mode="r" if mmap else None) for name in _ARRAYS}
+        return cls(
+            Params(**info["params"]), info["n_docs"], info["avgdl"], arrays, info["missing_idf"], info.get("meta")
+        )
 
     # -- scoring -----------------------------------------------------------------------------------
     def term_idf(self, term_ids: Iterable[int | None]) -> list[float]:
@@ -407,8 +444,7 @@ class SparseIndex:
         """Exact float64 contribution of each term (rows) to each passage ordinal (columns)."""
         docs = np.asarray(docs, dtype=np.int64)
         out = np.zeros((len(term_ids), len(docs)), np.float64)
-        rows = [r for r, t in enumerate(term_ids)
-                if t is not None and 0 <= t < self.n_terms and self.df[t] > 0]
+        rows = [r for r, t in enumerate(term_ids) if t is not None and 0 <= t < self.n_terms and self.df[t] > 0]
         if not rows or not len(docs):
             return out
         terms = np.array([term_ids[r] for r in rows], dtype=np.int64)
@@ -421,8 +457,9 @@ class SparseIndex:
         np.minimum(pos, (hi - 1)[:, None], out=pos)
         found = self.indices[pos] == docs[None, :]
         p = self.params
-        part = self.idf[terms][:, None] * p.scorer.tf(self.tf[pos], self.doc_len[docs][None, :], self.avgdl,
-                                                      p.k1, p.b, p.delta)
+        part = self.idf[terms][:, None] * p.scorer.tf(
+            self.tf[pos], self.doc_len[docs][None, :], self.avgdl, p.k1, p.b, p.delta
+        )
         out[rows] = np.where(found, part, 0.0)
         return out
 
@@ -433,8 +470,7 @@ class SparseIndex:
         for t in self._present(term_ids):
             lo, hi = int(self.indptr[t]), int(self.indptr[t + 1])
             docs = self.indices[lo:hi]
-            out[docs] += self.idf[t] * p.scorer.tf(self.tf[lo:hi], self.doc_len[docs], self.avgdl,
-                                                   p.k1, p.b, p.delta)
+            out[docs] += self.idf[t] * p.scorer.tf(self.tf[lo:hi], self.doc_len[docs], self.avgdl, p.k1, p.b, p.delta)
         return out
 
     def top_k(self, term_ids: list[int | None], k: int) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
@@ -527,7 +563,7 @@ def _kth_distinct(held: np.ndarray, values: np.ndarray, scratch: np.ndarray, k: 
     at most `lists` times), without sorting or hashing all of `held`; 0 when fewer than k."""
     wanted = k * lists
     if len(held) > wanted:
-        top = held[np.argpartition(values, len(values) - wanted)[len(values) - wanted:]]
+        top = held[np.argpartition(values, len(values) - wanted)[len(values) - wanted :]]
     else:
         top = held
     distinct = scratch[np.unique(top)]

@@ -15,12 +15,12 @@ from pathlib import Path
 
 import numpy as np
 
-from auditor.retrieval.bm25 import CorpusStats, Params, SparseIndex, count_terms
 from auditor.config import RetrievalConfig
 from auditor.errors import StoreError
-from auditor.store import SEARCHED_STATUSES, Store
+from auditor.retrieval.bm25 import CorpusStats, Params, SparseIndex, count_terms
 from auditor.retrieval.tokenize import Tokenizer
 from auditor.retrieval.vocabulary import Vocabulary
+from auditor.store import SEARCHED_STATUSES, Store
 
 _ACTIVE = f"FROM passages p JOIN documents d ON d.id = p.document_id WHERE d.status IN {SEARCHED_STATUSES}"
 
@@ -66,22 +66,24 @@ def corpus_fingerprint(store: Store) -> str:
         f"coalesce(sum(p.id % 7919 * p.document_id), 0) {_ACTIVE}"
     ).fetchone()
     digest.update(repr(tuple(row)).encode())
-    for doc_id, sha in store.db.execute(f"SELECT id, sha256 FROM documents WHERE status IN {SEARCHED_STATUSES} ORDER BY id"):
+    for doc_id, sha in store.db.execute(
+        f"SELECT id, sha256 FROM documents WHERE status IN {SEARCHED_STATUSES} ORDER BY id"
+    ):
         digest.update(f"{doc_id}:{sha};".encode())
     digest.update((store.get_meta("tokenizer") or "").encode())
     return digest.hexdigest()[:24]
 
 
 def _params(retrieval: RetrievalConfig) -> Params:
-    return Params(variant=retrieval.variant, k1=float(retrieval.k1), b=float(retrieval.b),
-                  delta=float(retrieval.delta))
+    return Params(variant=retrieval.variant, k1=float(retrieval.k1), b=float(retrieval.b), delta=float(retrieval.delta))
 
 
 class PassageIndex:
     """BM25 search over the active passages of a store."""
 
-    def __init__(self, store: Store, retrieval: RetrievalConfig, index: SparseIndex,
-                 tokenizer: Tokenizer | None = None):
+    def __init__(
+        self, store: Store, retrieval: RetrievalConfig, index: SparseIndex, tokenizer: Tokenizer | None = None
+    ):
         self.store = store
         self.retrieval = retrieval
         self.index = index
@@ -96,7 +98,7 @@ class PassageIndex:
 
     # -- building ----------------------------------------------------------------------------------
     @classmethod
-    def load_or_build(cls, store: Store, retrieval: RetrievalConfig, *, save: bool = True) -> "PassageIndex":
+    def load_or_build(cls, store: Store, retrieval: RetrievalConfig, *, save: bool = True) -> PassageIndex:
         """The saved index when its parameters and corpus still match, else a fresh build (saved
         beside the database when `save`; a folder that cannot be written is not an error)."""
         params = _params(retrieval)
@@ -110,8 +112,12 @@ class PassageIndex:
         fingerprint = corpus_fingerprint(store)
         folder = index_folder(store)
         info = SparseIndex.read_info(folder)
-        if (info and info.get("params") == params.__dict__ and info.get("meta", {}).get("corpus") == fingerprint
-                and info["meta"].get("tokenizer") == tokenizer.fingerprint()):
+        if (
+            info
+            and info.get("params") == params.__dict__
+            and info.get("meta", {}).get("corpus") == fingerprint
+            and info["meta"].get("tokenizer") == tokenizer.fingerprint()
+        ):
             try:
                 return cls(store, retrieval, SparseIndex.load(folder), tokenizer)
             except (OSError, ValueError, KeyError):
@@ -141,11 +147,16 @@ class PassageIndex:
         for terms in term_lists:
             ids = self.vocabulary.lookup(terms)
             idf_values = self.index.term_idf(ids)
-            present = [t for t, i in zip(terms, ids) if i is not None and i < self.index.n_terms
-                       and self.index.df[i] > 0]
+            present = [
+                t for t, i in zip(terms, ids) if i is not None and i < self.index.n_terms and self.index.df[i] > 0
+            ]
             missing = [t for t in terms if t not in present]
-            result = SearchResult(terms=terms, idf=dict(zip(terms, idf_values)), missing_terms=missing,
-                                  max_score=float(sum(idf_values) * saturation))
+            result = SearchResult(
+                terms=terms,
+                idf=dict(zip(terms, idf_values)),
+                missing_terms=missing,
+                max_score=float(sum(idf_values) * saturation),
+            )
             if not terms:
                 result.message = NO_TERMS
             elif self.passage_count == 0:
@@ -157,8 +168,9 @@ class PassageIndex:
                 ordinals, scores, parts = self.index.top_k(present_ids, k)
                 keys = self.index.keys
                 for column, (ordinal, score) in enumerate(zip(ordinals, scores)):
-                    breakdown = {t: float(parts[row, column]) for row, t in enumerate(present)
-                                 if parts[row, column] != 0}
+                    breakdown = {
+                        t: float(parts[row, column]) for row, t in enumerate(present) if parts[row, column] != 0
+                    }
                     result.hits.append(Hit(int(keys[ordinal]), float(score), breakdown))
             results.append(result)
         return results
@@ -172,13 +184,16 @@ def build_index(store: Store, params: Params, meta: dict | None = None) -> Spars
         for passage_id, blob in store.db.execute(f"SELECT p.id, p.token_ids {_ACTIVE} ORDER BY p.id"):
             passage_ids.append(passage_id)
             if len(blob) % 4:
-                raise StoreError(f"{str(store.path)!r}: passage {passage_id} has a damaged token_ids "
-                                 "array (length not a multiple of 4); run ingest again")
+                raise StoreError(
+                    f"{str(store.path)!r}: passage {passage_id} has a damaged token_ids "
+                    "array (length not a multiple of 4); run ingest again"
+                )
             yield np.frombuffer(blob, dtype="<i4")
 
     counts = count_terms(token_arrays())
-    return SparseIndex.build(counts, params, CorpusStats.of(counts), meta=meta,
-                             keys=np.array(passage_ids, dtype=np.int64), consume=True)
+    return SparseIndex.build(
+        counts, params, CorpusStats.of(counts), meta=meta, keys=np.array(passage_ids, dtype=np.int64), consume=True
+    )
 
 
 def describe_hits(store: Store, result: SearchResult) -> list[dict]:
@@ -186,10 +201,12 @@ def describe_hits(store: Store, result: SearchResult) -> list[dict]:
     ids = [hit.passage_id for hit in result.hits]
     rows = {}
     for i in range(0, len(ids), 500):
-        chunk = ids[i:i + 500]
+        chunk = ids[i : i + 500]
         for row in store.query(
-                "SELECT p.id, p.text, p.heading_path, p.page, d.path FROM passages p "
-                f"JOIN documents d ON d.id = p.document_id WHERE p.id IN ({','.join('?' * len(chunk))})", chunk):
+            "SELECT p.id, p.text, p.heading_path, p.page, d.path FROM passages p "
+            f"JOIN documents d ON d.id = p.document_id WHERE p.id IN ({','.join('?' * len(chunk))})",
+            chunk,
+        ):
             rows[row["id"]] = row
     out = []
     for hit in result.hits:
@@ -200,7 +217,15 @@ def describe_hits(store: Store, result: SearchResult) -> list[dict]:
             heading = json.loads(row["heading_path"] or "[]")
         except ValueError:
             heading = []
-        out.append({"passage_id": hit.passage_id, "document": row["path"],
-                    "section": " › ".join(str(h) for h in heading), "page": row["page"],
-                    "score": hit.score, "term_scores": dict(hit.term_scores), "text": row["text"]})
+        out.append(
+            {
+                "passage_id": hit.passage_id,
+                "document": row["path"],
+                "section": " › ".join(str(h) for h in heading),
+                "page": row["page"],
+                "score": hit.score,
+                "term_scores": dict(hit.term_scores),
+                "text": row["text"],
+            }
+        )
     return out

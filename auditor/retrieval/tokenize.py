@@ -31,8 +31,7 @@ LUCENE_ENGLISH = frozenset(
 # carries ("how do I ...", "can my ..."), which would otherwise match every passage. Common practice,
 # no single source.
 ENGLISH = LUCENE_ENGLISH | frozenset(
-    "an from has have how i its my our so them we were what when where which who why you your can "
-    "do does did".split()
+    "an from has have how i its my our so them we were what when where which who why you your can do does did".split()
 )
 
 # Built-in stopword lists by name; the config's `retrieval.stopwords` picks one.
@@ -57,8 +56,7 @@ class Tokenizer:
             )
         if stopwords not in STOPWORD_LISTS:
             raise ConfigError(
-                f"retrieval.stopwords: unknown stopword list {stopwords!r}; choose one of "
-                f"{', '.join(STOPWORD_LISTS)}"
+                f"retrieval.stopwords: unknown stopword list {stopwords!r}; choose one of {', '.join(STOPWORD_LISTS)}"
             )
         self.language = language
         self.stopwords_name = stopwords
@@ -74,6 +72,5 @@ class Tokenizer:
         """NFKC, casefold, words of 2+ letters/digits, stopwords dropped, then stemmed."""
         if not text:
             return []
-        words = [w for w in _WORD.findall(unicodedata.normalize("NFKC", text).casefold())
-                 if w not in self.stopwords]
+        words = [w for w in _WORD.findall(unicodedata.normalize("NFKC", text).casefold()) if w not in self.stopwords]
         return self._stemmer.stemWords(words) if self._stemmer else words

@@ -26,10 +26,9 @@ class Vocabulary:
 
     def _fetch(self, terms: list[str]) -> None:
         for i in range(0, len(terms), _CHUNK):
-            chunk = terms[i:i + _CHUNK]
+            chunk = terms[i : i + _CHUNK]
             marks = ",".join("?" * len(chunk))
-            for term_id, term in self.store.db.execute(
-                    f"SELECT id, term FROM terms WHERE term IN ({marks})", chunk):
+            for term_id, term in self.store.db.execute(f"SELECT id, term FROM terms WHERE term IN ({marks})", chunk):
                 self._ids[term] = term_id
 
     def ids(self, tokens: list[str]) -> np.ndarray:
@@ -43,8 +42,7 @@ class Vocabulary:
             self._fetch(unknown)
             new = [t for t in unknown if t not in self._ids]
             if new:
-                self.store.db.conn.executemany("INSERT OR IGNORE INTO terms(term) VALUES (?)",
-                                               [(t,) for t in new])
+                self.store.db.conn.executemany("INSERT OR IGNORE INTO terms(term) VALUES (?)", [(t,) for t in new])
                 self._fetch(new)
         return np.fromiter((self._ids[t] for t in tokens), dtype="<i4", count=len(tokens))
 

@@ -27,8 +27,20 @@ import re
 from datetime import date
 
 from auditor.models import TemporalExpression
-from auditor.temporal.patterns import (DIGIT_CANDIDATES, MODIFIER_BEFORE, MODIFIERS, RANGE_JOIN, RANGE_OPEN, STARTS,
-                                WORD_CANDIDATES, Atom, month_end, month_span, narrow, parse_candidate)
+from auditor.temporal.patterns import (
+    DIGIT_CANDIDATES,
+    MODIFIER_BEFORE,
+    MODIFIERS,
+    RANGE_JOIN,
+    RANGE_OPEN,
+    STARTS,
+    WORD_CANDIDATES,
+    Atom,
+    month_end,
+    month_span,
+    narrow,
+    parse_candidate,
+)
 from auditor.temporal.roles import role_for
 
 __all__ = ["extract", "timex3"]
@@ -38,14 +50,63 @@ _PARAGRAPH_BREAK = re.compile(r"\n[ \t]*\n")
 
 # --- sentences -------------------------------------------------------------------------------------
 
-_ABBREVIATIONS = {"jan", "feb", "mar", "apr", "jun", "jul", "aug", "sep", "sept", "oct", "nov", "dec",
-                  "mon", "tue", "tues", "wed", "thu", "thur", "thurs", "fri", "sat", "sun", "e.g", "i.e",
-                  "etc", "no", "st", "dr", "mr", "mrs", "ms", "approx", "vs", "inc", "ltd", "co", "a.m",
-                  "p.m", "u.s", "fig", "ext", "dept", "est", "f.y", "c", "ca", "al", "pp", "p"}
+_ABBREVIATIONS = {
+    "jan",
+    "feb",
+    "mar",
+    "apr",
+    "jun",
+    "jul",
+    "aug",
+    "sep",
+    "sept",
+    "oct",
+    "nov",
+    "dec",
+    "mon",
+    "tue",
+    "tues",
+    "wed",
+    "thu",
+    "thur",
+    "thurs",
+    "fri",
+    "sat",
+    "sun",
+    "e.g",
+    "i.e",
+    "etc",
+    "no",
+    "st",
+    "dr",
+    "mr",
+    "mrs",
+    "ms",
+    "approx",
+    "vs",
+    "inc",
+    "ltd",
+    "co",
+    "a.m",
+    "p.m",
+    "u.s",
+    "fig",
+    "ext",
+    "dept",
+    "est",
+    "f.y",
+    "c",
+    "ca",
+    "al",
+    "pp",
+    "p",
+}
 # Linear on any input: a run of "!!!" is tried once, at its first mark (the lookbehind), and a
 # blank line ends at its second newline, so no quantifier restarts inside a run it already read.
-_BOUNDARY = re.compile(r"(?<![.!?])[.!?]+[\"'”’)\]]*\s+(?=[\"'“‘(\[]?[A-Z0-9•*-])|\n[ \t]*\n"
-                       r"|\n(?=[ \t]*(?:[-*•]|\d+[.)])\s)")
+_BOUNDARY = re.compile(
+    r"(?<![.!?])[.!?]+[\"'”’)\]]*\s+(?=[\"'“‘(\[]?[A-Z0-9•*-])|\n[ \t]*\n"
+    r"|\n(?=[ \t]*(?:[-*•]|\d+[.)])\s)"
+)
 _WORD_BEFORE = re.compile(r"([A-Za-z][A-Za-z.]*)\.$")
 
 
@@ -71,9 +132,14 @@ def _merge_ranges(text: str, atoms: list[Atom], reference: date | None) -> list[
     merged: list[Atom] = []
     for atom in atoms:
         prev = merged[-1] if merged else None
-        joiner = text[prev.end:atom.start].strip().lower() if prev is not None else ""
-        if prev is not None and not prev.relative and not atom.relative and atom.start - prev.end <= 30 and \
-                RANGE_JOIN.fullmatch(joiner):
+        joiner = text[prev.end : atom.start].strip().lower() if prev is not None else ""
+        if (
+            prev is not None
+            and not prev.relative
+            and not atom.relative
+            and atom.start - prev.end <= 30
+            and RANGE_JOIN.fullmatch(joiner)
+        ):
             opens = RANGE_OPEN.search(text, max(0, prev.start - 12), prev.start)
             if joiner != "and" or (opens and opens.group().lower().startswith("between")):
                 joined = _join(prev, atom, reference)
@@ -121,12 +187,26 @@ def _modify(text: str, atom: Atom, reference: date | None) -> Atom:
         first, last = (atom.first, reference) if word == "earlier" else (reference, atom.last)
     else:
         first, last = narrow(atom.first, atom.last, atom.granularity, modifier)
-    return Atom(m.start(), atom.end, atom.granularity, first, last, future=atom.future or word == "later",
-                 past=atom.past and word != "later", relative=atom.relative)
+    return Atom(
+        m.start(),
+        atom.end,
+        atom.granularity,
+        first,
+        last,
+        future=atom.future or word == "later",
+        past=atom.past and word != "later",
+        relative=atom.relative,
+    )
 
 
-def extract(text: str, reference_date: date | None = None, *, day_first: bool = False,
-            fiscal_year_start: int = 1, hemisphere: str = "north") -> list[TemporalExpression]:
+def extract(
+    text: str,
+    reference_date: date | None = None,
+    *,
+    day_first: bool = False,
+    fiscal_year_start: int = 1,
+    hemisphere: str = "north",
+) -> list[TemporalExpression]:
     """Every temporal expression in `text`, normalized, in text order.
 
     `reference_date` (the document date) anchors relative and yearless expressions and tells
@@ -138,8 +218,14 @@ def extract(text: str, reference_date: date | None = None, *, day_first: bool = 
         raise ValueError(f"hemisphere must be 'north' or 'south', not {hemisphere!r}")
     if not (isinstance(fiscal_year_start, int) and 1 <= fiscal_year_start <= 12):
         raise ValueError(f"fiscal_year_start must be a month number 1-12, not {fiscal_year_start!r}")
-    ctx = {"text": text, "reference": reference_date, "fys": fiscal_year_start, "day_first": day_first,
-           "hemisphere": hemisphere, "previous_end": None}
+    ctx = {
+        "text": text,
+        "reference": reference_date,
+        "fys": fiscal_year_start,
+        "day_first": day_first,
+        "hemisphere": hemisphere,
+        "previous_end": None,
+    }
     atoms: list[Atom] = []
     scanned_to = 0
     for start in STARTS.finditer(text):
@@ -181,13 +267,31 @@ def extract(text: str, reference_date: date | None = None, *, day_first: bool = 
         sentence = normalized.get(index)
         if sentence is None:
             sentence = normalized[index] = " ".join(text[s_start:s_end].split())
-        role = role_for(text[left_from:atom.start], text[atom.end:s_end], sentence, start=atom.first,
-                        reference_date=reference_date, granularity=atom.granularity,
-                        future_relative=atom.future, past_relative=atom.past,
-                        bounded=atom.bounded, expression=text[atom.start:atom.end])
+        role = role_for(
+            text[left_from : atom.start],
+            text[atom.end : s_end],
+            sentence,
+            start=atom.first,
+            reference_date=reference_date,
+            granularity=atom.granularity,
+            future_relative=atom.future,
+            past_relative=atom.past,
+            bounded=atom.bounded,
+            expression=text[atom.start : atom.end],
+        )
         previous_in_sentence[index] = atom.end
-        found.append(TemporalExpression(sentence, text[atom.start:atom.end], atom.first, atom.last,
-                                        atom.granularity, role, atom.start, atom.end))
+        found.append(
+            TemporalExpression(
+                sentence,
+                text[atom.start : atom.end],
+                atom.first,
+                atom.last,
+                atom.granularity,
+                role,
+                atom.start,
+                atom.end,
+            )
+        )
     return found
 
 

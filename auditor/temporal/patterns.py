@@ -21,21 +21,23 @@ from dataclasses import dataclass
 from datetime import date, datetime, timedelta
 
 MONTH_NUMBERS = {}
-for _i, _name in enumerate(("January February March April May June July August September October "
-                            "November December").split(), start=1):
+for _i, _name in enumerate(
+    ("January February March April May June July August September October November December").split(), start=1
+):
     MONTH_NUMBERS[_name.lower()] = _i
     MONTH_NUMBERS[_name[:3].lower()] = _i
 MONTH_NUMBERS["sept"] = 9
 
 
 # Lower case too, except "may", "march" and "mar", which are verbs far more often than months.
-MONTH_NAMES = "|".join(variant for name in sorted(MONTH_NUMBERS, key=len, reverse=True)
-                       for variant in (name.capitalize(), name.upper())
-                       + (() if name in ("may", "march", "mar") else (name,)))
+MONTH_NAMES = "|".join(
+    variant
+    for name in sorted(MONTH_NUMBERS, key=len, reverse=True)
+    for variant in (name.capitalize(), name.upper()) + (() if name in ("may", "march", "mar") else (name,))
+)
 # an abbreviation may carry a dot ("Mar."); a full name never does, but "May." ends sentences
 MONTH = rf"(?:{MONTH_NAMES})\b\.?"
-_WEEKDAYS = ("Monday|Tuesday|Wednesday|Thursday|Friday|Saturday|Sunday|"
-             "Mon|Tues|Tue|Wed|Thurs|Thur|Thu|Fri|Sat|Sun")
+_WEEKDAYS = "Monday|Tuesday|Wednesday|Thursday|Friday|Saturday|Sunday|Mon|Tues|Tue|Wed|Thurs|Thur|Thu|Fri|Sat|Sun"
 WEEKDAY_NAMES = f"{_WEEKDAYS}|{_WEEKDAYS.upper()}"
 _FULL_MONTHS = "|".join(n.capitalize() for n in MONTH_NUMBERS if len(n) > 4 or n in ("may", "june", "july"))
 WEEKDAY = rf"(?:{WEEKDAY_NAMES})\b\.?"
@@ -44,42 +46,91 @@ YEAR_CORE = r"(?:1[89]\d{2}|2[01]\d{2})"
 YEAR = YEAR_CORE + r"(?!\d)"
 DASH = r"\s*(?:-|–|—)\s*"
 TO = r"\s*(?:-|–|—|\bto\b|\bthrough\b|\bthru\b|\buntil\b|\btill\b)\s*"
-NUMBER_WORDS = {"a": 1, "an": 1, "one": 1, "two": 2, "three": 3, "four": 4, "five": 5, "six": 6,
-                "seven": 7, "eight": 8, "nine": 9, "ten": 10, "eleven": 11, "twelve": 12,
-                "fifteen": 15, "eighteen": 18, "twenty": 20, "thirty": 30, "forty-five": 45,
-                "sixty": 60, "ninety": 90}
+NUMBER_WORDS = {
+    "a": 1,
+    "an": 1,
+    "one": 1,
+    "two": 2,
+    "three": 3,
+    "four": 4,
+    "five": 5,
+    "six": 6,
+    "seven": 7,
+    "eight": 8,
+    "nine": 9,
+    "ten": 10,
+    "eleven": 11,
+    "twelve": 12,
+    "fifteen": 15,
+    "eighteen": 18,
+    "twenty": 20,
+    "thirty": 30,
+    "forty-five": 45,
+    "sixty": 60,
+    "ninety": 90,
+}
 COUNT = r"(?:\d{1,3}|" + "|".join(sorted(NUMBER_WORDS, key=len, reverse=True)) + r")"
-ORDINALS = {"first": 1, "1st": 1, "second": 2, "2nd": 2, "third": 3, "3rd": 3, "fourth": 4,
-            "4th": 4, "last": 4, "final": 4}
+ORDINALS = {
+    "first": 1,
+    "1st": 1,
+    "second": 2,
+    "2nd": 2,
+    "third": 3,
+    "3rd": 3,
+    "fourth": 4,
+    "4th": 4,
+    "last": 4,
+    "final": 4,
+}
 SEASONS = {"spring": "SP", "summer": "SU", "fall": "FA", "autumn": "FA", "winter": "WI"}
 FY = r"(?:FY|F\.Y\.|[Ff]iscal(?:\s+[Yy]ear)?)\s*'?(?:\d{4}|\d{2})(?!\d)"
 _UNIT = r"(?:day|week|month|quarter|year|fortnight)s?"
-_REL_UNIT = (r"(?:week|month|quarter|year|fiscal\s+year|spring|summer|fall|autumn|winter|"
-             r"monday|tuesday|wednesday|thursday|friday|saturday|sunday)")
+_REL_UNIT = (
+    r"(?:week|month|quarter|year|fiscal\s+year|spring|summer|fall|autumn|winter|"
+    r"monday|tuesday|wednesday|thursday|friday|saturday|sunday)"
+)
 
 _ALTERNATIVES = [
     # ISO 8601 week date (2009-W01-1, 2009W011) and week (2024-W05)
-    ("isoweek", rf"(?<![\d-])(?P<wy>\d{{4}})-?W(?P<ww>\d{{2}})(?:-?(?P<wd>[1-7]))?(?!\d)"),
+    ("isoweek", r"(?<![\d-])(?P<wy>\d{4})-?W(?P<ww>\d{2})(?:-?(?P<wd>[1-7]))?(?!\d)"),
     # ISO 8601 calendar date, optionally with a time; the separator must repeat
-    ("isodate", rf"(?<![\d./-])(?P<iy>{YEAR_CORE})(?P<isep>[-/])(?P<im>\d{{2}})(?P=isep)(?P<id>\d{{2}})"
-                r"(?:T\d{2}:\d{2}(?::\d{2}(?:\.\d+)?)?(?:Z|[+-]\d{2}:?\d{2})?)?(?![\d])"),
+    (
+        "isodate",
+        rf"(?<![\d./-])(?P<iy>{YEAR_CORE})(?P<isep>[-/])(?P<im>\d{{2}})(?P=isep)(?P<id>\d{{2}})"
+        r"(?:T\d{2}:\d{2}(?::\d{2}(?:\.\d+)?)?(?:Z|[+-]\d{2}:?\d{2})?)?(?![\d])",
+    ),
     # ISO 8601 ordinal date (2024-060)
     ("isoordinal", rf"(?<![\d./-])(?P<oy>{YEAR_CORE})-(?P<od>\d{{3}})(?![\d]|[./-]\d)"),
     # "Q3 2024", "Q1 FY2025", "Q2 of 2024"; "2024-Q3", "2024 Q3"
-    ("quarter", rf"\bQ(?P<qn>[1-4])\s*(?:of\s+)?(?:(?P<qfy>{FY})|(?P<qy>{YEAR}))"
-                rf"|(?<!\d)(?P<qy2>{YEAR_CORE})[-\s]Q(?P<qn2>[1-4])\b"
-                rf"|(?i:(?:the\s+)?(?P<qo>first|second|third|fourth|1st|2nd|3rd|4th|last|final)\s+"
-                rf"(?:fiscal\s+)?quarter\s+(?:of\s+)?(?:the\s+)?)(?:(?P<qfy3>{FY})|(?P<qy3>{YEAR}))"),
-    ("half", rf"\bH(?P<hn>[12])\s*(?:of\s+)?(?:(?P<hfy>{FY})|(?P<hy>{YEAR}))"
-             rf"|(?<!\d)(?P<hy2>{YEAR_CORE})-H(?P<hn2>[12])\b"
-             rf"|(?i:(?:the\s+)?(?P<ho>first|second|1st|2nd)\s+half\s+(?:of\s+)?(?:the\s+)?)"
-             rf"(?:(?P<hfy3>{FY})|(?P<hy3>{YEAR}))"),
+    (
+        "quarter",
+        rf"\bQ(?P<qn>[1-4])\s*(?:of\s+)?(?:(?P<qfy>{FY})|(?P<qy>{YEAR}))"
+        rf"|(?<!\d)(?P<qy2>{YEAR_CORE})[-\s]Q(?P<qn2>[1-4])\b"
+        rf"|(?i:(?:the\s+)?(?P<qo>first|second|third|fourth|1st|2nd|3rd|4th|last|final)\s+"
+        rf"(?:fiscal\s+)?quarter\s+(?:of\s+)?(?:the\s+)?)(?:(?P<qfy3>{FY})|(?P<qy3>{YEAR}))",
+    ),
+    (
+        "half",
+        rf"\bH(?P<hn>[12])\s*(?:of\s+)?(?:(?P<hfy>{FY})|(?P<hy>{YEAR}))"
+        rf"|(?<!\d)(?P<hy2>{YEAR_CORE})-H(?P<hn2>[12])\b"
+        rf"|(?i:(?:the\s+)?(?P<ho>first|second|1st|2nd)\s+half\s+(?:of\s+)?(?:the\s+)?)"
+        rf"(?:(?P<hfy3>{FY})|(?P<hy3>{YEAR}))",
+    ),
     # "FY2024", "FY 2024-25", "fiscal year 2024", "fiscal 2025"
-    ("fiscalrange", rf"(?<!\d)(?P<fa>{YEAR_CORE})\s*(?:-|–|/)\s*(?P<fb>\d{{4}}|\d{{2}})(?!\d)(?=\s+(?i:fiscal\s+year)\b)"),
-    ("fiscal", rf"(?:\bFY|\bF\.Y\.|\b[Ff]iscal(?:\s+[Yy]ear)?)\s*'?(?P<fy>\d{{4}}|\d{{2}})(?!\d)"
-               rf"(?:\s*(?:-|–|/)\s*(?P<fy2>\d{{4}}|\d{{2}})(?!\d))?"),
-    ("season", rf"(?i:\b(?P<sn>spring|summer|fall|autumn|winter)(?:\s+of)?\s+)(?P<sy>{YEAR_CORE})(?!\d)"
-               rf"(?:\s*(?:-|–|/)\s*(?P<sy2>\d{{4}}|\d{{2}})(?!\d))?"),
+    (
+        "fiscalrange",
+        rf"(?<!\d)(?P<fa>{YEAR_CORE})\s*(?:-|–|/)\s*(?P<fb>\d{{4}}|\d{{2}})(?!\d)(?=\s+(?i:fiscal\s+year)\b)",
+    ),
+    (
+        "fiscal",
+        r"(?:\bFY|\bF\.Y\.|\b[Ff]iscal(?:\s+[Yy]ear)?)\s*'?(?P<fy>\d{4}|\d{2})(?!\d)"
+        r"(?:\s*(?:-|–|/)\s*(?P<fy2>\d{4}|\d{2})(?!\d))?",
+    ),
+    (
+        "season",
+        rf"(?i:\b(?P<sn>spring|summer|fall|autumn|winter)(?:\s+of)?\s+)(?P<sy>{YEAR_CORE})(?!\d)"
+        rf"(?:\s*(?:-|–|/)\s*(?P<sy2>\d{{4}}|\d{{2}})(?!\d))?",
+    ),
     ("decade", r"(?i:\b(?:the\s+))?(?P<dc>(?:1[89]|20)\d0)'?s\b|(?<![\w'])'(?P<dc2>\d0)s\b"),
     # "March 1–15, 2025", "8 to 10 November 2024" (a day range inside one month)
     ("mdrange", rf"(?:{WEEKDAY},?\s+)?(?P<rm>{MONTH})\s+(?P<rd1>{DAY}){TO}(?P<rd2>{DAY}),?\s+(?P<ry>{YEAR})"),
@@ -89,11 +140,17 @@ _ALTERNATIVES = [
     # "Tuesday, March 5th, 2024", "Mar. 5 2024", "March 5" (year from context)
     ("mdy", rf"(?:{WEEKDAY},?\s+)?(?P<m1>{MONTH})\s+(?:the\s+)?(?P<d1>{DAY})(?:,?\s+(?P<y1>{YEAR}))?"),
     # "5 March 2024", "the 5th of March, 2024", "Tue 5 Mar 2024"
-    ("dmy", rf"(?:{WEEKDAY},?\s+)?(?<!\d)(?i:the\s+)?(?P<d2>{DAY})\s+(?:of\s+)?(?P<m2>{MONTH})(?:,?\s+(?P<y2>{YEAR}))?"),
+    (
+        "dmy",
+        rf"(?:{WEEKDAY},?\s+)?(?<!\d)(?i:the\s+)?(?P<d2>{DAY})\s+(?:of\s+)?(?P<m2>{MONTH})(?:,?\s+(?P<y2>{YEAR}))?",
+    ),
     ("monthyear", rf"(?P<m3>{MONTH}),?\s+(?:of\s+)?(?P<y3>{YEAR})"),
     # numeric dates: 03/04/2025, 3.4.2025, 03-04-2025, 3/4/25 (two-digit years only with "/")
-    ("numeric", r"(?<![\d./:-])(?P<n1>\d{1,2})(?P<nsep>[/.-])(?P<n2>\d{1,2})(?P=nsep)"
-                r"(?P<n3>\d{4}|(?<=/)\d{2})(?![\d]|[./-]\d)"),
+    (
+        "numeric",
+        r"(?<![\d./:-])(?P<n1>\d{1,2})(?P<nsep>[/.-])(?P<n2>\d{1,2})(?P=nsep)"
+        r"(?P<n3>\d{4}|(?<=/)\d{2})(?![\d]|[./-]\d)",
+    ),
     # "2024–2025", "2024-25", "2024/25"
     ("yearrange", rf"(?<![\d.,:/$€£#-])(?P<yr1>{YEAR_CORE})\s*(?:-|–|—|/)\s*(?P<yr2>\d{{4}}|\d{{2}})(?![\d%]|[.,]\d)"),
     # "two weeks ago", "3 days ago", "a month ago"
@@ -101,8 +158,11 @@ _ALTERNATIVES = [
     # "in two weeks", "in 30 days" (not "within": a duration, not a date)
     ("inrel", rf"(?i:\bin\s+(?P<inn>{COUNT})\s+(?P<inu>{_UNIT})(?!\s+(?:ago|of|to|in|per)\b)\b)"),
     # "the past 12 months", "the next two weeks"
-    ("rolling", rf"(?i:\b(?:the\s+)?(?P<rod>past|last|previous|next|coming|following)\s+(?P<ron>{COUNT})\s+"
-                rf"(?P<rou>(?:day|week|month|year)s)\b)"),
+    (
+        "rolling",
+        rf"(?i:\b(?:the\s+)?(?P<rod>past|last|previous|next|coming|following)\s+(?P<ron>{COUNT})\s+"
+        rf"(?P<rou>(?:day|week|month|year)s)\b)",
+    ),
     # "next July", "last March": a capital month name only ("this may take a day" is no date)
     ("monthrel", rf"(?i:\b(?P<mdir>last|this|next|coming|previous|following)\s+)(?P<mrel>{_FULL_MONTHS})\b"),
     # "last month", "next quarter", "this fiscal year", "next Monday"
@@ -116,30 +176,76 @@ _ALTERNATIVES = [
 CANDIDATES = re.compile("|".join(f"(?P<{name}>{body})" for name, body in _ALTERNATIVES))
 # The same alternation split by what a candidate starts with, so that a position tries only the
 # forms that can begin there (the order within each stays that of _ALTERNATIVES).
-_DIGIT_FIRST = {"isoweek", "isodate", "isoordinal", "quarter", "half", "fiscalrange", "decade", "dmrange", "dmy",
-                "numeric", "yearrange", "ago", "year"}
-_WORD_FIRST = {"quarter", "half", "fiscal", "season", "decade", "mdrange", "mmrange", "mdy", "dmy", "monthyear",
-               "ago", "inrel", "rolling", "monthrel", "relative", "deictic"}
+_DIGIT_FIRST = {
+    "isoweek",
+    "isodate",
+    "isoordinal",
+    "quarter",
+    "half",
+    "fiscalrange",
+    "decade",
+    "dmrange",
+    "dmy",
+    "numeric",
+    "yearrange",
+    "ago",
+    "year",
+}
+_WORD_FIRST = {
+    "quarter",
+    "half",
+    "fiscal",
+    "season",
+    "decade",
+    "mdrange",
+    "mmrange",
+    "mdy",
+    "dmy",
+    "monthyear",
+    "ago",
+    "inrel",
+    "rolling",
+    "monthrel",
+    "relative",
+    "deictic",
+}
 DIGIT_CANDIDATES = re.compile("|".join(f"(?P<{n}>{b})" for n, b in _ALTERNATIVES if n in _DIGIT_FIRST))
 WORD_CANDIDATES = re.compile("|".join(f"(?P<{n}>{b})" for n, b in _ALTERNATIVES if n in _WORD_FIRST))
 assert _DIGIT_FIRST | _WORD_FIRST == {n for n, _ in _ALTERNATIVES}
 
 # Where a candidate can begin. Trying the whole alternation only at these word starts, instead of
 # at every character, is what makes the scan cheap (about ten times faster on help-centre text).
-_STARTER_WORDS = ("first|second|third|fourth|last|final|spring|summer|fall|autumn|winter|this|next|"
-                  "past|previous|coming|current|following|yesterday|today|tomorrow")
+_STARTER_WORDS = (
+    "first|second|third|fourth|last|final|spring|summer|fall|autumn|winter|this|next|"
+    "past|previous|coming|current|following|yesterday|today|tomorrow"
+)
 # frequent small words start a candidate only before what can follow them there
-_STARTER_PHRASES = (r"the\s+(?:first|second|third|fourth|1st|2nd|3rd|4th|last|final|past|previous|next|coming|"
-                    rf"following|\d|')|in\s+{COUNT}\s|(?:{COUNT})\s+{_UNIT}\s+ago\b")
-STARTS = re.compile(rf"(?<!\w)(?=['\d]|Q[1-4]|H[12]|FY|F\.Y\.|(?:[Ff]iscal|{MONTH_NAMES}|{WEEKDAY_NAMES}|"
-                    rf"(?i:{_STARTER_WORDS}))\b|(?i:{_STARTER_PHRASES}))")
+_STARTER_PHRASES = (
+    r"the\s+(?:first|second|third|fourth|1st|2nd|3rd|4th|last|final|past|previous|next|coming|"
+    rf"following|\d|')|in\s+{COUNT}\s|(?:{COUNT})\s+{_UNIT}\s+ago\b"
+)
+STARTS = re.compile(
+    rf"(?<!\w)(?=['\d]|Q[1-4]|H[12]|FY|F\.Y\.|(?:[Ff]iscal|{MONTH_NAMES}|{WEEKDAY_NAMES}|"
+    rf"(?i:{_STARTER_WORDS}))\b|(?i:{_STARTER_PHRASES}))"
+)
 
 # "early 2023", "mid-2022", "the end of this year", "late March 2024"
 MODIFIER_BEFORE = re.compile(
     r"(?i:\b(?P<mod>early|mid|middle|late|earlier|later|"
-    r"(?:the\s+)?(?:beginning|start|middle|end|close)\s+of(?:\s+the)?)[-\s]+)$")
-MODIFIERS = {"early": "early", "earlier": "early", "beginning": "start", "start": "start",
-             "mid": "mid", "middle": "mid", "late": "late", "later": "late", "end": "end", "close": "end"}
+    r"(?:the\s+)?(?:beginning|start|middle|end|close)\s+of(?:\s+the)?)[-\s]+)$"
+)
+MODIFIERS = {
+    "early": "early",
+    "earlier": "early",
+    "beginning": "start",
+    "start": "start",
+    "mid": "mid",
+    "middle": "mid",
+    "late": "late",
+    "later": "late",
+    "end": "end",
+    "close": "end",
+}
 # text allowed between two expressions that form one range
 RANGE_JOIN = re.compile(r"(?i:-|–|—|to|through|thru|until|till|and|to\s+and\s+including)")  # stripped gap
 RANGE_OPEN = re.compile(r"(?i:\b(?:from|between)\s+(?:the\s+)?)$")
@@ -151,31 +257,37 @@ _YEAR_LEFT = re.compile(
     r"copyright|circa|c\.|est\.|established|founded|built|report|edition|budget|rates|schedule|"
     r"season|campaign|programme|program|around|throughout|starting|beginning|ending|ends|end|expires?|"
     r"until\s+the\s+end\s+of|early|mid|late|spring|summer|fall|autumn|winter)\s*(?:-\s*)?"
-    r"|[©]\s*|\(c\)\s*|\([A-Z][A-Za-z.&' -]{1,60},\s*)$")  # the last: a citation "(Rivera, 2019)"
+    r"|[©]\s*|\(c\)\s*|\([A-Z][A-Za-z.&' -]{1,60},\s*)$"
+)  # the last: a citation "(Rivera, 2019)"
 _YEAR_DETERMINER = re.compile(r"(?i:\b(?:the|our|this|each|your|its|a|an|their)\s+)$")
 _YEAR_RIGHT = re.compile(
     r"(?i:\s*(?:[-–]\s*)?(?:rates?|rate\s+schedule|tariffs?|fees?|charges?|prices?|pricing|budget|"
     r"reports?|annual|water\s+quality|consumer\s+confidence|season|schedule|programs?|programmes?|"
     r"plans?|figures|results|data|levels|survey|edition|update|review|audit|calendar|"
-    r"billing|assessment|statement|summary|holiday|holidays)\b)")
+    r"billing|assessment|statement|summary|holiday|holidays)\b)"
+)
 # standard numbers, prices, counters, identifiers: never a year
 _YEAR_BLOCK_LEFT = re.compile(
     r"(?:\b(?:ISO|IEC|EN|RFC|ANSI|NSF|ASTM|BS|DIN|IEEE|AWWA|UL|No\.?|Nr\.?|page|pages|p\.|pp\.|"
     r"[Vv]ersion|[Vv]er\.?|v|[Rr]oom|[Ss]uite|[Uu]nit|[Aa]pt\.?|[Bb]ox|[Ee]xt\.?|[Ee]xtension|[Cc]ode|"
     r"[Mm]odel|[Ee]rror|[Tt]icket|[Aa]ccount|[Oo]rder|[Ii]nvoice|[Rr]ef\.?|[Rr]eference|[Ll]ine|"
     r"[Ii]tem|[Rr]oute|[Hh]ighway|[Bb]uilding|[Ff]orm|[Ss]ection|[Pp]art|[Ss]erver|[Oo]ffice|[Ww]indows)"
-    r"\s*[/:#-]?\s*|[$€£#]\s*|\b(?:[Aa]\s+)?[Tt]otal\s+of\s+|\b[Oo]ut\s+of\s+)$")
+    r"\s*[/:#-]?\s*|[$€£#]\s*|\b(?:[Aa]\s+)?[Tt]otal\s+of\s+|\b[Oo]ut\s+of\s+)$"
+)
 _YEAR_BLOCK_RIGHT = re.compile(
     r"(?i:\s*(?:gallons?|gal|litres?|liters?|kwh|kw|customers?|homes?|households?|accounts?|meters?|"
     r"metres?|feet|ft|km|kilometres?|kilometers?|miles?|units?|people|residents|connections|samples?|"
     r"tests|calls|tickets|pages?|words|items|mb|gb|hours?|hrs|minutes?|mins|mg|ppm|ppb|m3|cubic|"
     r"dollars|usd|cents|users|devices|laptops|emails|requests|properties|sq|square|men|women|children|"
-    r"patients|participants|subjects|adults|staff|employees|students|cases|members|respondents)\b)")
+    r"patients|participants|subjects|adults|staff|employees|students|cases|members|respondents)\b)"
+)
 _YEAR_AFTER_YEAR = re.compile(r"(?i:\s*(?:,|and|or|to|through|-|–)\s*)$")
 
 # an identifier before digits that look like a date: "Version 2.10.2024", "build 2024-10-02"
-IDENTIFIER_BEFORE = re.compile(r"(?i:\b(?:version|ver\.?|v|build|release|firmware|model|part|serial|"
-                               r"ticket|order|invoice|account|ref\.?|no\.?)\s*[:#]?\s*)$")
+IDENTIFIER_BEFORE = re.compile(
+    r"(?i:\b(?:version|ver\.?|v|build|release|firmware|model|part|serial|"
+    r"ticket|order|invoice|account|ref\.?|no\.?)\s*[:#]?\s*)$"
+)
 
 
 def year_in_context(text: str, start: int, end: int, previous_end: int | None) -> bool:
@@ -189,19 +301,20 @@ def year_in_context(text: str, start: int, end: int, previous_end: int | None) -
         return False
     if _YEAR_LEFT.search(text, left_from, start) or _YEAR_RIGHT.match(text, end):
         return True
-    if text[start - 1:start] == "(" and text[end:end + 1] == ")":  # "(2016)": a publication year
+    if text[start - 1 : start] == "(" and text[end : end + 1] == ")":  # "(2016)": a publication year
         return True
     if previous_end is not None and start - previous_end < 12:
         gap = text[previous_end:start]
         if _YEAR_AFTER_YEAR.search(gap):
             return True
     if _YEAR_DETERMINER.search(text, left_from, start):
-        following = re.match(r"\s+([A-Za-z]+)", text[end:end + 30])
+        following = re.match(r"\s+([A-Za-z]+)", text[end : end + 30])
         return bool(following)
     return False
 
 
 # --- calendar helpers ------------------------------------------------------------------------------
+
 
 def month_end(year: int, month: int) -> date:
     return date(year, month, calendar.monthrange(year, month)[1])
@@ -270,8 +383,13 @@ def narrow(start: date, end: date, granularity: str, modifier: str) -> tuple[dat
 
 # --- relative expressions (dateparser on the span only) --------------------------------------------
 
-_SETTINGS = {"PREFER_DAY_OF_MONTH": "first", "PREFER_DATES_FROM": "current_period",
-             "RETURN_AS_TIMEZONE_AWARE": False, "DATE_ORDER": "MDY", "STRICT_PARSING": False}
+_SETTINGS = {
+    "PREFER_DAY_OF_MONTH": "first",
+    "PREFER_DATES_FROM": "current_period",
+    "RETURN_AS_TIMEZONE_AWARE": False,
+    "DATE_ORDER": "MDY",
+    "STRICT_PARSING": False,
+}
 
 
 @functools.lru_cache(maxsize=4096)
@@ -318,6 +436,7 @@ def _unit_interval(point: date, unit: str) -> tuple[date, date, str]:
 
 
 # --- atoms: one candidate span, parsed ---------------------------------------------------------------
+
 
 @dataclass
 class Atom:

@@ -46,25 +46,36 @@ import functools
 import re
 from datetime import date
 
-_OTHER_LEFT = re.compile(r"(?i:(?:©|\(c\)|\bcopyright)\s*(?:©\s*)?$|\bet\s+al\.?,?\s*$|"
-                         r"\([A-Z][A-Za-z.&' -]{1,60},\s*$)")
+_OTHER_LEFT = re.compile(
+    r"(?i:(?:©|\(c\)|\bcopyright)\s*(?:©\s*)?$|\bet\s+al\.?,?\s*$|"
+    r"\([A-Z][A-Za-z.&' -]{1,60},\s*$)"
+)
 _STRONG = [
-    ("as_of", r"as\s+of|as\s+at|(?:last[\s_]+)?updated(?:\s+on)?|(?:last[\s_]+)?reviewed(?:\s+on)?|revised(?:\s+on)?|"
-              r"(?:last[\s_]+)?modified(?:\s+on)?|date[\s_]+modified|(?:last\s+)?checked(?:\s+on)?|"
-              r"current\s+as\s+of|accurate\s+as\s+of|correct\s+as\s+of|verified(?:\s+on)?|"
-              r"information\s+(?:is\s+)?current"),
-    ("expires", r"until|till|expires?(?:\s+on)?|expiry(?:\s+date)?|expiration(?:\s+date)?|"
-                r"deadline(?:\s+is)?|no\s+later\s+than|valid\s+(?:through|thru|until|till|to)|ends(?:\s+on)?|"
-                r"end\s+of\s+(?:support|life|service|sale)(?:\s+on)?|(?:will|to)\s+end(?:\s+on)?|ending(?:\s+on)?|end\s+date|closes(?:\s+on)?|"
-                r"close\s+on|will\s+close(?:\s+on)?|last\s+day(?:\s+(?:to\s+\w+|for\s+\w+))?(?:\s+is)?|"
-                r"(?:is|are|payment|bills?|amount)\s+due(?:\s+(?:on|by))?|due\s+(?:on|by|date)|"
-                r"cut-?off(?:\s+date)?|up\s+to\s+and\s+including|not\s+after"),
-    ("effective", r"effective(?:\s+(?:from|on|as\s+of))?|takes?\s+effect(?:\s+on)?|took\s+effect(?:\s+on)?|"
-                  r"in\s+effect(?:\s+from)?|in\s+force(?:\s+from)?|comes?\s+into\s+force(?:\s+on)?|"
-                  r"appl(?:y|ies)\s+(?:from|to\s+bills\s+(?:issued|dated)\s+(?:on\s+or\s+)?after)|"
-                  r"starting(?:\s+(?:on|from|in))?|starts(?:\s+on)?|beginning(?:\s+(?:on|in))?|"
-                  r"begins(?:\s+on)?|commencing(?:\s+on)?|as\s+from|on\s+(?:and|or)\s+after|"
-                  r"from\s+and\s+after|valid\s+from|valid|opens?(?:\s+(?:on|from))?|becomes?|became|new\s+from"),
+    (
+        "as_of",
+        r"as\s+of|as\s+at|(?:last[\s_]+)?updated(?:\s+on)?|(?:last[\s_]+)?reviewed(?:\s+on)?|revised(?:\s+on)?|"
+        r"(?:last[\s_]+)?modified(?:\s+on)?|date[\s_]+modified|(?:last\s+)?checked(?:\s+on)?|"
+        r"current\s+as\s+of|accurate\s+as\s+of|correct\s+as\s+of|verified(?:\s+on)?|"
+        r"information\s+(?:is\s+)?current",
+    ),
+    (
+        "expires",
+        r"until|till|expires?(?:\s+on)?|expiry(?:\s+date)?|expiration(?:\s+date)?|"
+        r"deadline(?:\s+is)?|no\s+later\s+than|valid\s+(?:through|thru|until|till|to)|ends(?:\s+on)?|"
+        r"end\s+of\s+(?:support|life|service|sale)(?:\s+on)?|(?:will|to)\s+end(?:\s+on)?|ending(?:\s+on)?|end\s+date|closes(?:\s+on)?|"
+        r"close\s+on|will\s+close(?:\s+on)?|last\s+day(?:\s+(?:to\s+\w+|for\s+\w+))?(?:\s+is)?|"
+        r"(?:is|are|payment|bills?|amount)\s+due(?:\s+(?:on|by))?|due\s+(?:on|by|date)|"
+        r"cut-?off(?:\s+date)?|up\s+to\s+and\s+including|not\s+after",
+    ),
+    (
+        "effective",
+        r"effective(?:\s+(?:from|on|as\s+of))?|takes?\s+effect(?:\s+on)?|took\s+effect(?:\s+on)?|"
+        r"in\s+effect(?:\s+from)?|in\s+force(?:\s+from)?|comes?\s+into\s+force(?:\s+on)?|"
+        r"appl(?:y|ies)\s+(?:from|to\s+bills\s+(?:issued|dated)\s+(?:on\s+or\s+)?after)|"
+        r"starting(?:\s+(?:on|from|in))?|starts(?:\s+on)?|beginning(?:\s+(?:on|in))?|"
+        r"begins(?:\s+on)?|commencing(?:\s+on)?|as\s+from|on\s+(?:and|or)\s+after|"
+        r"from\s+and\s+after|valid\s+from|valid|opens?(?:\s+(?:on|from))?|becomes?|became|new\s+from",
+    ),
 ]
 # Cues that count only right before the expression. "through" is also "by way of" ("pay through
 # the portal on ..."), so it is a strong expiry cue only there; the weak ones are weighed below.
@@ -73,8 +84,10 @@ _NEAR = [
     ("weak_effective", r"from|since|after"),
     ("weak_expires", r"by|before"),
 ]
-_PERIOD_LEFT = (r"for|during|throughout|covering|covers|cover|over|for\s+the|appl(?:y|ies)\s+to|"
-                r"in\s+the\s+(?:calendar|fiscal)\s+year")
+_PERIOD_LEFT = (
+    r"for|during|throughout|covering|covers|cover|over|for\s+the|appl(?:y|ies)\s+to|"
+    r"in\s+the\s+(?:calendar|fiscal)\s+year"
+)
 
 
 def _compile(pairs):
@@ -86,36 +99,112 @@ def _compile(pairs):
 _STRONG_CUES = _compile(_STRONG)
 _NEAR_CUES = _compile(_NEAR)
 _PERIOD_CUE = re.compile(rf"(?i:\b(?:{_PERIOD_LEFT})\s+(?:the\s+)?(?:(?:calendar|fiscal|school|tax)\s+year\s+)?)$")
-_PLANNED_LEFT = re.compile(r"(?i:\b(?:scheduled|planned|slated|set|expected|tentatively)\s+(?:for|in|on|to\s+\w+\s+(?:in|on))\s+(?:the\s+)?$)")
-_PERIOD_NOUN = (r"(?:water\s+)?rates?|rate\s+schedules?|tariffs?|fees?|charges?|prices?|pricing|"
-                r"budgets?|reports?|annual|water\s+quality|consumer\s+confidence|seasons?|programs?|programmes?|"
-                r"figures|results|data|levels|surveys?|editions?|calendar|billing|assessments?|statements?|"
-                r"summary|holidays?|schedules?|plans?|allowances?|quotas?|tiers?|cycle|rebates?|campaigns?|"
-                r"restrictions|projects|statistics|targets|goals|capital|newsletters?|bulletins?|issues?|audits?|reviews?|surcharges?|discounts?|credits?")
+_PLANNED_LEFT = re.compile(
+    r"(?i:\b(?:scheduled|planned|slated|set|expected|tentatively)\s+(?:for|in|on|to\s+\w+\s+(?:in|on))\s+(?:the\s+)?$)"
+)
+_PERIOD_NOUN = (
+    r"(?:water\s+)?rates?|rate\s+schedules?|tariffs?|fees?|charges?|prices?|pricing|"
+    r"budgets?|reports?|annual|water\s+quality|consumer\s+confidence|seasons?|programs?|programmes?|"
+    r"figures|results|data|levels|surveys?|editions?|calendar|billing|assessments?|statements?|"
+    r"summary|holidays?|schedules?|plans?|allowances?|quotas?|tiers?|cycle|rebates?|campaigns?|"
+    r"restrictions|projects|statistics|targets|goals|capital|newsletters?|bulletins?|issues?|audits?|reviews?|surcharges?|discounts?|credits?"
+)
 # the noun may follow directly ("2023 rates") or after one word ("2024 property assessment")
-_PERIOD_RIGHT = re.compile(rf"(?i:\s*(?:[-–]\s*)?(?:(?!(?:to|for|and|or|the|a|an|of|in|on|at|by|is|are|was|will)\b)"
-                           rf"[A-Za-z]+\s+)?(?:{_PERIOD_NOUN})\b)")
-_PERIOD_LEFT_NOUN = re.compile(r"(?i:\b(?:report|statistics|results|targets|budget|rates|schedule|edition|"
-                               r"plan|review|summary|figures)\s*:?\s*$)")
+_PERIOD_RIGHT = re.compile(
+    rf"(?i:\s*(?:[-–]\s*)?(?:(?!(?:to|for|and|or|the|a|an|of|in|on|at|by|is|are|was|will)\b)"
+    rf"[A-Za-z]+\s+)?(?:{_PERIOD_NOUN})\b)"
+)
+_PERIOD_LEFT_NOUN = re.compile(
+    r"(?i:\b(?:report|statistics|results|targets|budget|rates|schedule|edition|"
+    r"plan|review|summary|figures)\s*:?\s*$)"
+)
 _AS_OF_RIGHT = re.compile(r"(?i:\s*(?:update|revision)\b)")
 _EFFECTIVE_RIGHT = re.compile(r"(?i:\s*(?:,\s*)?(?:(?:or|and)\s+(?:later|after|thereafter)|onwards?)\b)")
 _RECURRING = re.compile(r"(?i:\s*(?:,\s*)?(?:(?:each|every)\s+(?:year|month|week|season)|annually|yearly)\b)")
-_OBLIGATION = re.compile(r"(?i:\b(?:must|need\s+to|needs\s+to|have\s+to|has\s+to|required|requires|submit|"
-                         r"submitted|apply|applications?|pay|paid|payment|received|return|returned|"
-                         r"register|enrol|enroll|sign\s+up|send|sent|complete|completed\s+by|"
-                         r"postmarked|file|claim|request|renew|redeem)\b)")
+_OBLIGATION = re.compile(
+    r"(?i:\b(?:must|need\s+to|needs\s+to|have\s+to|has\s+to|required|requires|submit|"
+    r"submitted|apply|applications?|pay|paid|payment|received|return|returned|"
+    r"register|enrol|enroll|sign\s+up|send|sent|complete|completed\s+by|"
+    r"postmarked|file|claim|request|renew|redeem)\b)"
+)
 # Tense cues, looked up as words (a set lookup is several times faster than a regex scan).
-_FUTURE_WORDS = {"will", "shall", "scheduled", "planned", "upcoming", "expected", "forthcoming", "anticipated",
-                 "tentatively", "proposed"}
-_FUTURE_HINTS = {"plan", "plans", "expect", "expects", "set", "going", "intend", "intends", "aim", "aims",
-                 "coming", "be"}
-_FUTURE_PHRASES = re.compile(r"(?i:\b(?:plans?\s+to|expects?\s+to|(?:is|are)\s+set\s+to|(?:is|are)\s+going\s+to|"
-                             r"intends?\s+to|aims?\s+to|coming\s+soon|(?:is|are)\s+to\s+be)\b)")
-_PAST_WORDS = {"was", "were", "had", "did", "completed", "replaced", "installed", "happened", "occurred", "took",
-               "ended", "closed", "launched", "opened", "introduced", "began", "started", "finished", "received",
-               "ran", "moved", "changed", "rose", "fell", "increased", "decreased", "upgraded", "repaired", "issued",
-               "sent", "published", "adopted", "approved", "merged", "retired", "used", "released", "mailed",
-               "lasted", "declared", "frozen", "caused", "damaged", "met", "answered"}
+_FUTURE_WORDS = {
+    "will",
+    "shall",
+    "scheduled",
+    "planned",
+    "upcoming",
+    "expected",
+    "forthcoming",
+    "anticipated",
+    "tentatively",
+    "proposed",
+}
+_FUTURE_HINTS = {
+    "plan",
+    "plans",
+    "expect",
+    "expects",
+    "set",
+    "going",
+    "intend",
+    "intends",
+    "aim",
+    "aims",
+    "coming",
+    "be",
+}
+_FUTURE_PHRASES = re.compile(
+    r"(?i:\b(?:plans?\s+to|expects?\s+to|(?:is|are)\s+set\s+to|(?:is|are)\s+going\s+to|"
+    r"intends?\s+to|aims?\s+to|coming\s+soon|(?:is|are)\s+to\s+be)\b)"
+)
+_PAST_WORDS = {
+    "was",
+    "were",
+    "had",
+    "did",
+    "completed",
+    "replaced",
+    "installed",
+    "happened",
+    "occurred",
+    "took",
+    "ended",
+    "closed",
+    "launched",
+    "opened",
+    "introduced",
+    "began",
+    "started",
+    "finished",
+    "received",
+    "ran",
+    "moved",
+    "changed",
+    "rose",
+    "fell",
+    "increased",
+    "decreased",
+    "upgraded",
+    "repaired",
+    "issued",
+    "sent",
+    "published",
+    "adopted",
+    "approved",
+    "merged",
+    "retired",
+    "used",
+    "released",
+    "mailed",
+    "lasted",
+    "declared",
+    "frozen",
+    "caused",
+    "damaged",
+    "met",
+    "answered",
+}
 _WORDS = re.compile(r"[a-z']+")
 # a participle right before a weak cue modifies a noun ("accounts opened from ...", "applications
 # received after ..."); it does not put the sentence in the past
@@ -137,11 +226,11 @@ def _nearest(cues: re.Pattern, left: str, reach: int) -> str | None:
     """The role of the cue nearest the end of `left`, if no more than `reach` characters of the
     same clause stand between it and the expression (an as-of cue: fewer, and no new verb)."""
     last = None
-    for last in cues.finditer(left, max(0, len(left) - reach - 30)):
+    for last in cues.finditer(left, max(0, len(left) - reach - 30)):  # noqa: B007 - keep the last match
         pass
     if last is None:
         return None
-    between = left[last.end():]
+    between = left[last.end() :]
     if len(between) > reach or _CLAUSE_BREAK.search(between):
         return None
     if last.lastgroup == "as_of" and (len(between) > _AS_OF_REACH or _NEW_VERB.search(between)):
@@ -154,14 +243,27 @@ def _tense(sentence: str) -> tuple[bool, bool]:
     """(speaks of the future, speaks of the past), computed once per sentence."""
     lower = sentence.lower()
     words = set(_WORDS.findall(lower))
-    future = (not _FUTURE_WORDS.isdisjoint(words) or "'ll" in lower
-              or (not _FUTURE_HINTS.isdisjoint(words) and _FUTURE_PHRASES.search(lower) is not None))
+    future = (
+        not _FUTURE_WORDS.isdisjoint(words)
+        or "'ll" in lower
+        or (not _FUTURE_HINTS.isdisjoint(words) and _FUTURE_PHRASES.search(lower) is not None)
+    )
     return future, not _PAST_WORDS.isdisjoint(words)
 
 
-def role_for(left: str, right: str, sentence: str, *, start: date, reference_date: date | None,
-             granularity: str = "day", future_relative: bool = False, past_relative: bool = False,
-             bounded: bool = False, expression: str = "") -> str:
+def role_for(
+    left: str,
+    right: str,
+    sentence: str,
+    *,
+    start: date,
+    reference_date: date | None,
+    granularity: str = "day",
+    future_relative: bool = False,
+    past_relative: bool = False,
+    bounded: bool = False,
+    expression: str = "",
+) -> str:
     """The role of an expression, given the sentence text to its `left` and `right` (see module doc)."""
     left, right = left[-_WINDOW:], right[:_WINDOW]
     if _OTHER_LEFT.search(left, max(0, len(left) - _TAIL)) or _RECURRING.match(right):
@@ -204,8 +306,9 @@ def role_for(left: str, right: str, sentence: str, *, start: date, reference_dat
         return "planned"
     if _PERIOD_CUE.search(left, max(0, len(left) - _TAIL)) or _PERIOD_RIGHT.match(right):
         return "period"
-    if granularity in ("year", "quarter", "half", "season") and \
-            _PERIOD_LEFT_NOUN.search(left, max(0, len(left) - _TAIL)):
+    if granularity in ("year", "quarter", "half", "season") and _PERIOD_LEFT_NOUN.search(
+        left, max(0, len(left) - _TAIL)
+    ):
         return "period"  # "Annual Report 2023", "Outage statistics 2024-Q3"
     if future:
         return "planned"
