@@ -1,6 +1,6 @@
 """Command line: a thin skin over the library. Each command parses flags, calls one function, prints.
 
-Exit codes (DESIGN.md §4.1): 0 done; 1 an error the user can fix (one line on stderr, no traceback);
+Exit codes (docs/cli.md): 0 done; 1 an error the user can fix (one line on stderr, no traceback);
 2 bad usage (click's own); 3 a gate failed.
 """
 

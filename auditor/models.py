@@ -1,4 +1,4 @@
-"""Plain data passed between the pipeline stages (DESIGN.md §2–3).
+"""Plain data passed between the pipeline stages (docs/architecture.md).
 
 Stages talk through these dataclasses and the SQLite store; none of them holds behaviour beyond
 trivial derived values, so every stage can be tested with hand-made instances.
@@ -71,7 +71,7 @@ class Passage:
 
 @dataclass(frozen=True)
 class TemporalExpression:
-    """A normalized temporal expression (DESIGN.md §3.2, §4.4).
+    """A normalized temporal expression (docs/dates.md).
 
     `char_start`/`char_end` locate `expression` in the text that was scanned.
     """
@@ -98,7 +98,7 @@ class TemporalExpression:
 
 @dataclass(frozen=True)
 class Freshness:
-    """Freshness of one passage at audit date T (DESIGN.md §3.3)."""
+    """Freshness of one passage at audit date T (docs/freshness.md)."""
 
     as_of: date | None
     as_of_source: str  # statement | metadata | file | none

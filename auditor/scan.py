@@ -25,7 +25,7 @@ class ScanOutcome:
 
 
 def default_out_dir(config: Config, as_of: date) -> Path:
-    """`--out`, else the config's report folder, else reports/<as-of date>/ (DESIGN.md §4.2)."""
+    """`--out`, else the config's report folder, else reports/<as-of date>/ (docs/cli.md)."""
     return config.report.out or Path("reports") / as_of.isoformat()
 
 

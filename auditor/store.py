@@ -75,7 +75,7 @@ CREATE TABLE IF NOT EXISTS terms (
     term TEXT NOT NULL UNIQUE
 );
 
--- Dated statements: every temporal expression found in a passage, normalized (DESIGN.md §3.2).
+-- Dated statements: every temporal expression found in a passage, normalized (docs/dates.md).
 CREATE TABLE IF NOT EXISTS statements (
     id          INTEGER PRIMARY KEY,
     passage_id  INTEGER NOT NULL REFERENCES passages(id) ON DELETE CASCADE,

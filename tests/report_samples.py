@@ -1,6 +1,6 @@
 """Run objects for the report tests, shaped like `run_audit` / `runs.load_run` return them.
 
-`sample_run()` is the invented Fernhollow Water Cooperative (DESIGN.md §5) with every verdict,
+`sample_run()` is the invented Fernhollow Water Cooperative (fixtures/demo/README.md) with every verdict,
 reason, flag and action, several owners, a history of three runs, a diff, a gate outcome, ingest
 errors, and hostile strings in questions, owners, topics, paths, passages, briefs and errors.
 `large_run(n)` is a deterministic run of `n` questions over a shared pool of passages, for size and
@@ -881,7 +881,7 @@ def sample_run() -> dict:
 
 
 def bare_run() -> dict:
-    """Only the keys of DESIGN.md §4.3, as an older stored run has them."""
+    """Only the keys of docs/results-json.md, as an older stored run has them."""
     return {
         "format": 1,
         "run": {

@@ -128,7 +128,7 @@ def test_verdicts_summary_and_run_object(kb):
     assert by_id["q3"]["verdict"] == "gap" and by_id["q3"]["action"] == "write"
     assert by_id["q3"]["reasons"] == []
     assert {"autopay", "debit"} <= set(by_id["q3"]["missing_terms"])
-    # Weighted exposures (DESIGN.md §3.4): gap weight 25 and stale weight 5 of 40.
+    # Weighted exposures (docs/judgement.md): gap weight 25 and stale weight 5 of 40.
     s = run["summary"]
     assert (s["questions"], s["covered"], s["stale"], s["gap"], s["weight"]) == (3, 1, 1, 1, 40.0)
     assert s["fallback_exposure"] == pytest.approx(25 / 40) and s["stale_exposure"] == pytest.approx(5 / 40)
@@ -242,7 +242,7 @@ def test_empty_question_set_and_empty_store(store):
 
 
 def test_run_object_follows_the_contract_and_reloads_equal(kb, tmp_path):
-    # The keys of the developers' contract (results.json format 1, DESIGN.md §4.3, and extensions).
+    # The keys of the developers' contract (results.json format 1, docs/results-json.md, and extensions).
     from auditor.history.runs import load_run
 
     run = run_audit(kb, Config(), QUESTIONS, as_of=AS_OF, out=tmp_path / "report")

@@ -23,7 +23,7 @@ import rank_bm25
 from auditor.retrieval import bm25
 from auditor.retrieval.bm25 import CorpusStats, Params, SparseIndex, Variant, count_terms, idf_robertson, tf_classic
 
-RTOL = 1e-9  # the bound: relative, per passage score
+RTOL = 1e-9  # the project's bound (bench/README.md): relative, per passage score
 
 
 def random_corpus(
@@ -212,7 +212,7 @@ def test_top10_equals_sqlite_fts5_with_its_idf_floor(monkeypatch):
 
 
 def test_shards_with_global_stats_score_like_one_index():
-    # DESIGN.md §7: map (count) / reduce (global df) / map (score shard) gives the same scores.
+    # docs/architecture.md: map (count) / reduce (global df) / map (score shard) gives the same scores.
     docs, rng = random_corpus(12)
     ids = {}
     arrays = [np.array([ids.setdefault(t, len(ids)) for t in d], dtype=np.int32) for d in docs]

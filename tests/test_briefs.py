@@ -11,7 +11,7 @@ from auditor.judgement.briefs import content_briefs, missing_terms, nearest_topi
 
 
 def q(qid, text, *, verdict="gap", weight=1.0, missing=(), owner=None, topic=None, evidence=()):
-    """A run-object question (DESIGN.md §4.3 shape, with the extended evidence keys)."""
+    """A run-object question (docs/results-json.md shape, with the extended evidence keys)."""
     return {
         "id": qid,
         "question": text,
@@ -30,7 +30,7 @@ def ev(document, section="", owner="unassigned", rank=1):
     return {"document": document, "section": section, "owner": owner, "rank": rank, "support": 0.2, "supporting": False}
 
 
-# Invented demo questions (DESIGN.md §5).
+# Invented demo questions (fixtures/demo/README.md).
 RUN = [
     q("q01", "How much is the base charge?", verdict="covered", weight=96, topic="rates", owner="Billing"),
     q("q02", "Can I sign up for autopay?", weight=40, missing=["autopay"], topic="payments", owner="Billing"),

@@ -9,7 +9,7 @@ and its report untouched, `reports/latest` pointing at a complete report.
 Kill points are counted, not timed: a small wrapper (KILLER) counts the Python and C calls made by
 auditor and sqlite-utils code while each stage runs and SIGKILLs its own process at the N-th one, so
 a given seed kills at the same place on every machine. The knowledge base is a small invented one
-(Fernhollow Water Cooperative, DESIGN.md §5).
+(Fernhollow Water Cooperative, fixtures/demo/README.md).
 """
 
 from __future__ import annotations

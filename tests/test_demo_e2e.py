@@ -16,7 +16,7 @@ from auditor.config import load_config
 from auditor.scan import scan
 from auditor.store import Store
 
-# results.json format 1, DESIGN.md §4.3: the keys every consumer may rely on.
+# results.json format 1, docs/results-json.md: the keys every consumer may rely on.
 RUN_KEYS = {"id", "as_of", "horizon_days", "started", "corpus"}
 SUMMARY_KEYS = {"questions", "covered", "stale", "gap", "weight", "fallback_exposure", "stale_exposure"}
 QUESTION_KEYS = {

@@ -1,4 +1,4 @@
-"""Passage freshness (DESIGN.md §3.3): each reason, the specificity order, horizons, F and A.
+"""Passage freshness (docs/freshness.md): each reason, the specificity order, horizons, F and A.
 
 Passages are run through the real extractor, so these tests hold the two modules together the way
 ingest and audit use them. Audit date and horizon are fixed; every expected date and day count

@@ -1,4 +1,4 @@
-"""Property-based tests of the question-file and query-log parsers (DESIGN.md §4.5): any file either
+"""Property-based tests of the question-file and query-log parsers (docs/question-sets.md): any file either
 loads into well-formed questions or raises InputError naming the file — never another exception —
 in bounded time."""
 
@@ -92,7 +92,7 @@ def load_or_input_error(path):
     try:
         questions = load_questions(path)
     except InputError as exc:
-        # One line naming the file (preamble: "{str(path)!r}: ...").
+        # One line naming the file (DEVELOPERS.md conventions: "{str(path)!r}: ...").
         assert str(exc).startswith(repr(str(path)) + ": "), str(exc)
         return None
     except AuditorError as exc:  # pragma: no cover - still the project's family, but the wrong class
@@ -191,7 +191,7 @@ BUDGET_S = 3.0  # generous: the linear cases take a few hundredths of a second
 
 def one_line_log(folder, unit: str):
     # One enormous query: a log exported with a broken line ending, or a pasted document (100 KB,
-    # the issue's adversarial size).
+    # the project's adversarial size, DEVELOPERS.md).
     path = folder / "log.csv"
     path.write_text(
         "query,count\n" + '"leak report ' + (unit * (100_000 // len(unit))).replace('"', "'") + '",3\n',

@@ -1,7 +1,7 @@
 """Property-based tests of the temporal extractor: any text gives well-formed expressions (or none),
 never an exception, in bounded time.
 
-The invariants are the contract of `temporal.extract` (DESIGN.md §3.2, §4.4; `models.TemporalExpression`):
+The invariants are the contract of `temporal.extract` (docs/dates.md; `models.TemporalExpression`):
 offsets index the scanned text and cut out exactly the expression as written, intervals are ordered,
 granularity and role come from the registries in `models`, expressions come in text order.
 """
@@ -22,7 +22,7 @@ from auditor.temporal.extract import extract
 
 # Tokens that steer the generator into the extractor's patterns: month and weekday names in several
 # cases, numbers that look like days, years, ISO and numeric dates, quarters, fiscal years, seasons,
-# relative words, range words and the role cues (DESIGN.md §3.2 lists these forms).
+# relative words, range words and the role cues (docs/dates.md lists these forms).
 TOKENS = [
     "January",
     "MARCH",
@@ -163,7 +163,7 @@ def test_long_token_soup_is_well_formed_and_fast(text, kwargs):
     check(text, extract(text, **kwargs))
 
 
-SIZE = 100_000  # the issue's adversarial input size
+SIZE = 100_000  # the project's adversarial input size (DEVELOPERS.md)
 # A generous bound: linear work over 100 KB with thousands of expressions takes well under a second
 # here; the quadratic cases below take 5-10 s.
 BUDGET_S = 3.0

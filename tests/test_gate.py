@@ -1,6 +1,6 @@
 """The release gate on hand-worked runs (figures computed by hand in the comments).
 
-Fallback and stale exposure are the weight shares of gap and stale questions (DESIGN.md §3.4); the
+Fallback and stale exposure are the weight shares of gap and stale questions (docs/judgement.md); the
 gap and stale shares are the unweighted counts over the question count.
 """
 

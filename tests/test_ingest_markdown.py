@@ -47,7 +47,7 @@ def test_front_matter_fields():
     assert doc.title == "Start, stop or move service"
     assert doc.owner == "Customer Care"
     assert doc.tags == ("service", "moving")
-    # DESIGN.md §3.1 order: updated, last_reviewed, date (published); expires last.
+    # docs/ingestion.md order: updated, last_reviewed, date (published); expires last.
     assert [(d.value, d.kind, d.source) for d in doc.dates] == [
         (date(2026, 10, 5), "modified", "front_matter:updated"),
         (date(2026, 11, 1), "reviewed", "front_matter:last_reviewed"),

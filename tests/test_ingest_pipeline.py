@@ -66,7 +66,7 @@ def test_all_formats_land_in_the_store(tmp_path, corpus):
         # Open Graph article:modified_time, ISO 8601 with offset: the date as written.
         assert (leaks["doc_date"], leaks["doc_date_source"]) == ("2024-05-06", "og:article:modified_time")
         report = docs["quality/report.pdf"]
-        # XMP ModifyDate is more specific than Info ModDate (DESIGN.md §3.1 order).
+        # XMP ModifyDate is more specific than Info ModDate (docs/ingestion.md order).
         assert (report["doc_date"], report["doc_date_source"]) == ("2024-02-03", "pdf:xmp:ModifyDate")
         start = docs["care/start.txt"]
         assert start["doc_date_source"] == "file:mtime"

@@ -1,4 +1,4 @@
-"""Support signals and verdict rules (DESIGN.md §3.4)."""
+"""Support signals and verdict rules (docs/judgement.md)."""
 
 import math
 

@@ -1,9 +1,9 @@
 """Monthly scans end to end with the real `auditor scan`: the diff between two months, and two
 scans on one database at the same time.
 
-The knowledge base is the small invented one of test_crash_safety (Fernhollow, DESIGN.md §5). In
+The knowledge base is the small invented one of test_crash_safety (Fernhollow, fixtures/demo/README.md). In
 December one page is replaced by a text dated March 2021 — older than the 365-day horizon, so its
-question goes stale (DESIGN.md §3.3, `too_old`) — and one page is added that answers a question
+question goes stale (docs/freshness.md, `too_old`) — and one page is added that answers a question
 nothing answered in November (a gap filled). The diff must show exactly those two changes.
 """
 

@@ -19,7 +19,7 @@ from auditor.questions.redact import luhn_valid
 from auditor.questions.sets import load_questions, store_questions, stored_questions
 from auditor.store import Store
 
-# Invented questions to a fictional water utility (demo data, DESIGN.md §5); each has 6+ distinct
+# Invented questions to a fictional water utility (demo data, fixtures/demo/README.md); each has 6+ distinct
 # words, so one extra word keeps Jaccard ≥ 6/7 ≈ 0.857 with its base, while different bases share
 # far less. "{pii}" marks where a generated line plants personal data.
 BASES = [

@@ -1,4 +1,4 @@
-"""Question sets: CSV / JSON Lines / plain text loading, ids, validation, storing (DESIGN.md §4.5)."""
+"""Question sets: CSV / JSON Lines / plain text loading, ids, validation, storing (docs/question-sets.md)."""
 
 from __future__ import annotations
 
@@ -91,7 +91,7 @@ def test_nested_jsonl_values_are_refused_where_they_are_used(tmp_path):
 
 
 def test_demo_question_set_loads():
-    # The demo's contact-centre question set (fixtures/demo, DESIGN.md §5) as the audit reads it.
+    # The demo's contact-centre question set (fixtures/demo, fixtures/demo/README.md) as the audit reads it.
     from pathlib import Path
 
     demo = Path(__file__).resolve().parent.parent / "fixtures" / "demo" / "questions.csv"

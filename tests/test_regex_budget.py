@@ -20,7 +20,7 @@ brackets, unterminated comments and links) plus inputs built from each pattern's
 (its words and punctuation repeated, with spaces or digits between), so each pattern meets the text
 most likely to make it backtrack. The budget is CPU time (SIGPROF), so a busy shared machine does
 not make the test flaky; a linear pattern takes a few milliseconds on 100 KB, so one second is a
-margin of more than 20x. (Budget and sizes: the issue's numbers, "100 KB ... under a second".)
+margin of more than 20x. (Budget and sizes: the project's hardening rule in DEVELOPERS.md, "100 KB ... under a second".)
 """
 
 from __future__ import annotations

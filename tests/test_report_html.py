@@ -378,7 +378,7 @@ def test_large_run_stays_under_the_page_limit(tmp_path):
 
 
 def test_a_bare_format1_run_renders(tmp_path):
-    """Only the keys of DESIGN.md §4.3 (an older stored run): no documents, briefs, history, diff,
+    """Only the keys of docs/results-json.md (an older stored run): no documents, briefs, history, diff,
     gate, flags, terms or statements. The page still renders, with the figures of the summary."""
     run = samples.bare_run()
     index = write_report(run, tmp_path)

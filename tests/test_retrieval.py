@@ -2,7 +2,7 @@
 
 Stores are filled the way ingest fills them (documents, passages with little-endian int32 token_ids
 of terms.id, terms) using the project's Tokenizer and Vocabulary. The passage texts are invented
-(Fernhollow Water Cooperative, DESIGN.md §5); expected scores come from rank-bm25 (the BM25 oracle)
+(Fernhollow Water Cooperative, fixtures/demo/README.md); expected scores come from rank-bm25 (the BM25 oracle)
 run on the same tokens.
 """
 

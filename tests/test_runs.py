@@ -1,6 +1,6 @@
 """Run history, diff and retention over runs stored through the schema (store.SCHEMA's layout).
 
-The runs here are hand-made worked examples with invented Fernhollow questions (DESIGN.md §5); the
+The runs here are hand-made worked examples with invented Fernhollow questions (fixtures/demo/README.md); the
 expected diffs and weight totals are worked out by hand in the comments.
 """
 

@@ -1,9 +1,9 @@
 """Table-driven check of the extractor against sentences written for the project.
 
 tests/data/temporal_cases.jsonl holds help-centre sentences (the fictional Fernhollow Water
-Cooperative, an IT help desk, and every pattern family of DESIGN.md §3.2), each with the expected
+Cooperative, an IT help desk, and every pattern family of docs/dates.md), each with the expected
 expressions: [span as written, start, end, granularity, role]. It includes the false-positive traps
-the issue names ("May I", "march" as a verb, weekdays, versions, phone numbers, page counters,
+the common false positives ("May I", "march" as a verb, weekdays, versions, phone numbers, page counters,
 standard numbers, prices, quantities, hour ranges) with no expected expression. The reference
 (document) date is 2024-11-01 unless a case gives `ref`; `opts` are extract() options.
 

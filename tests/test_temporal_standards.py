@@ -156,7 +156,7 @@ def test_timex3_of_fiscal_quarters_is_the_calendar_one_or_none():
 
 
 # --- dateparser as reference for plain absolute forms ----------------------------------------------
-# dateparser (PyPI, the library the issue names) parses each span on its own; our normalizer must
+# dateparser (PyPI, the reference date parser) parses each span on its own; our normalizer must
 # agree with it on the forms both understand.
 
 dateparser = pytest.importorskip("dateparser")

@@ -1,4 +1,4 @@
-"""Tokenizer per DESIGN.md §3.4: NFKC, casefold, words of 2+ letters/digits, stopwords, Snowball."""
+"""Tokenizer as docs/judgement.md defines it: NFKC, casefold, words of 2+ letters/digits, stopwords, Snowball."""
 
 from __future__ import annotations
 

@@ -3,7 +3,7 @@
 `auditor scan` exits with code 3 when the gate fails; the outcome is also stored with the run
 (`runs.gate`) and written into results.json (`gate`).
 
-Figures (all from the run object, DESIGN.md §3.4):
+Figures (all from the run object, docs/judgement.md):
   gap_share          gap questions / questions (unweighted)
   fallback_exposure  weight share of gap questions (summary.fallback_exposure)
   stale_share        stale questions / questions (unweighted)

@@ -142,7 +142,7 @@ def parse_meta_value(value) -> date | None:
     if found:
         return found
     # Hand-written front matter ("March 3, 2024", "3 Mar 2024"): dateparser on the value only,
-    # never on running text (DESIGN.md §3.2).
+    # never on running text (docs/dates.md).
     import dateparser  # slow import, only needed for the unusual cases
 
     parsed = dateparser.parse(

@@ -4,7 +4,7 @@ Main content: the first <main> (or role="main"), else the only <article>, else <
 site header/footer, asides, scripts, styles, forms and cookie/consent banners are dropped. Lists
 become one block with a line per item, tables one block with a line per row ("cell | cell").
 
-Dates, most specific first (DESIGN.md §3.1): schema.org in JSON-LD (dateModified, datePublished,
+Dates, most specific first (docs/ingestion.md): schema.org in JSON-LD (dateModified, datePublished,
 expires), schema.org microdata (itemprop), Open Graph (article:modified_time, og:updated_time,
 article:published_time, article:expiration_time), Dublin Core (DCTERMS.modified, DC.date...),
 <time datetime> marked as an update/publication date, <meta http-equiv="last-modified">.

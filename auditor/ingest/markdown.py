@@ -43,7 +43,7 @@ def _strip_comments(text: str) -> str:
     return "".join(out)
 
 
-# front matter key -> (MetaDate kind, order of specificity: DESIGN.md §3.1 lists updated,
+# front matter key -> (MetaDate kind, order of specificity: docs/ingestion.md lists updated,
 # last_reviewed, date)
 DATE_KEYS = [
     ("updated", "modified"),

@@ -1,4 +1,4 @@
-"""Blocks -> passages of about 100–250 words (DESIGN.md §3.1); a passage is shorter only where
+"""Blocks -> passages of about 100–250 words (docs/ingestion.md); a passage is shorter only where
 its section is.
 
 Rules, in order:

@@ -1,7 +1,7 @@
 """The audit stage: run a question set through retrieval, judge support and freshness, store the run.
 
-`run_audit` builds the run object (results.json format 1, DESIGN.md §4.3, with the extensions listed
-in the developers' preamble) and stores it as one `runs` row plus one `results` row per question,
+`run_audit` builds the run object (results.json format 1, docs/results-json.md, with the extensions listed
+in docs/results-json.md) and stores it as one `runs` row plus one `results` row per question,
 all in one transaction, so a failed audit leaves nothing half-written.
 
 A question's `support` is the support its verdict rests on: the best fresh supporting passage's

@@ -1,4 +1,4 @@
-"""Passage freshness: as-of, expiry, horizons and the corpus figures (DESIGN.md §3.3).
+"""Passage freshness: as-of, expiry, horizons and the corpus figures (docs/freshness.md).
 
 The rules, for audit date T and horizon H days:
 

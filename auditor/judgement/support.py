@@ -1,4 +1,4 @@
-"""Support judgement (DESIGN.md §3.4): how well a retrieved passage supports a question, and the
+"""Support judgement (docs/judgement.md): how well a retrieved passage supports a question, and the
 verdict (covered / stale / gap) of a question from its evidence.
 
 Scoring is a handful of small pure functions over plain values, so each signal can be tested and
@@ -207,7 +207,7 @@ _STALE_ORDER = ("too_old", "expired", "overtaken")
 
 
 def judge(evidence: Sequence[Judged], *, threshold: float, weak_margin: float) -> Verdict:
-    """Verdict of a question from its judged evidence (DESIGN.md §3.4).
+    """Verdict of a question from its judged evidence (docs/judgement.md).
 
     covered — some supporting passage is fresh; flags `stale_competitor` (a stale passage supports
               it too), `weak` (best fresh support < threshold + weak_margin), `file_dated` (the
@@ -215,7 +215,7 @@ def judge(evidence: Sequence[Judged], *, threshold: float, weak_margin: float) -
               date at all, which count as fresh for want of evidence).
     stale   — supporting passages exist, none fresh; reasons are their stale reasons; action
               `retire` when every one has ended (expired or overtaken), else `refresh`.
-    gap     — nothing supports it; action `write`. Reasons are freshness reasons (DESIGN.md §3.3),
+    gap     — nothing supports it; action `write`. Reasons are freshness reasons (docs/freshness.md),
               so a gap has none; what explains it is in the evidence: the question's
               `missing_terms`, the per-passage signals, and the flag below.
     Any verdict gets the flag `no_answer_type` when the passage with the highest support lacks the

@@ -1,4 +1,4 @@
-"""Query-log import (DESIGN.md §4.5): search or chat logs -> a weighted question set.
+"""Query-log import (docs/question-sets.md): search or chat logs -> a weighted question set.
 
 A query log is a CSV or JSON Lines file with a text column and, optionally, a count and a
 timestamp column (the names below, case-insensitive; or named by the caller); plain text is read as

@@ -1,4 +1,4 @@
-"""Question sets (DESIGN.md §4.5): CSV, JSON Lines or plain text -> `models.Question` list.
+"""Question sets (docs/question-sets.md): CSV, JSON Lines or plain text -> `models.Question` list.
 
 Format, by extension first and content second:
 

@@ -1,6 +1,6 @@
 """The report of a run: index.html, results.json, gaps.csv, owners/<slug>.csv and owners/<slug>.html.
 
-`write_report(run, out_dir)` reads only the run object (DESIGN.md §4.3 plus the extensions listed in
+`write_report(run, out_dir)` reads only the run object (docs/results-json.md plus the extensions listed in
 the project notes), so a stored run can be reported again at any time with the same bytes out.
 Who owns a question, and the CSV columns, are documented in `auditor.report.exports`.
 """
@@ -13,7 +13,7 @@ from pathlib import Path
 from auditor.report.exports import all_owners, document_owner, owner_questions, owner_slugs, write_atomic, write_exports
 from auditor.report.html import Highlighter, build_view, render_page, summarize
 
-# The page must stay under 15 MB (the issue's limit) with room to spare; when a run is too big for
+# The page must stay under 15 MB (the size a browser opens comfortably, docs/results-json.md) with room to spare; when a run is too big for
 # the full evidence, fewer items and shorter passage text go into the page (results.json keeps all).
 PAGE_LIMIT_BYTES = 14_500_000
 PAGE_LEVELS = ((3, 5_000_000), (2, 2_500_000), (1, 1_000_000), (0, 0))

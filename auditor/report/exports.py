@@ -46,7 +46,7 @@ import unicodedata
 from pathlib import Path
 
 UNASSIGNED = "unassigned"
-# The keys of results.json format 1 (DESIGN.md §4.3), which come first in that file.
+# The keys of results.json format 1 (docs/results-json.md), which come first in that file.
 FORMAT1_KEYS = ("format", "run", "summary", "questions", "ingest_errors")
 CSV_COLUMNS = (
     "id",

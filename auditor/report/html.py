@@ -230,7 +230,7 @@ def action_sentence(q: dict) -> str | None:
 
 
 def summarize(questions: list[dict]) -> dict:
-    """Summary figures of a subset of questions, computed as DESIGN.md §3.4 defines them."""
+    """Summary figures of a subset of questions, computed as docs/judgement.md defines them."""
     weight = sum(float(q.get("weight") or 0) for q in questions)
     counts = {v: sum(1 for q in questions if q.get("verdict") == v) for v in VERDICTS}
     wsum = {v: sum(float(q.get("weight") or 0) for q in questions if q.get("verdict") == v) for v in VERDICTS}

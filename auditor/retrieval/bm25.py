@@ -1,6 +1,6 @@
 """BM25: pure scoring functions, a variant registry and a sparse index with exact top-k.
 
-Work splits the way a distributed engine would run it (DESIGN.md §7):
+Work splits the way a distributed engine would run it (docs/architecture.md):
 
     count_terms   (map)     token-id arrays -> per-passage term frequencies (`TermCounts`)
     CorpusStats   (reduce)  N, total length and document frequencies; `merge` adds shards
@@ -10,7 +10,7 @@ Work splits the way a distributed engine would run it (DESIGN.md §7):
 The index is term-major (CSC over passages): per term, the sorted passage ordinals holding it, the
 precomputed float32 weight idf·tf-part, and the raw term frequency. Ranking uses the float32 weights;
 the scores handed out are recomputed in float64 from the term frequencies, so they equal the
-reference libraries' to rounding while the index stays small (DESIGN.md §3.4).
+reference libraries' to rounding while the index stays small (docs/judgement.md).
 
 The project's interface puts the pure scoring functions and the sparse index in this one module; it
 is longer than most for that reason, in four sections that do not reach into each other.

@@ -1,4 +1,4 @@
-"""Tokenizer (DESIGN.md §3.4): Unicode NFKC, casefold, words of 2+ letters/digits, a stopword list,
+"""Tokenizer (docs/judgement.md): Unicode NFKC, casefold, words of 2+ letters/digits, a stopword list,
 Snowball stemming.
 
 Passages are tokenized once at ingest and stored as term ids, so the question side must use the very

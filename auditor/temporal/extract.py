@@ -1,4 +1,4 @@
-"""Temporal expressions -> normalized intervals with roles (DESIGN.md §3.2).
+"""Temporal expressions -> normalized intervals with roles (docs/dates.md).
 
 Candidates come from our own compiled patterns (`temporal_patterns`), never from scanning a passage
 with dateparser: that is slow and reads "We", "May I" or "sun" as dates. Absolute forms are

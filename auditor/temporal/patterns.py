@@ -1,4 +1,4 @@
-"""Candidate patterns for temporal expressions (DESIGN.md §3.2), and their reading into intervals.
+"""Candidate patterns for temporal expressions (docs/dates.md), and their reading into intervals.
 
 One alternation holds every candidate form; the alternatives come longest-first because Python's
 `re` takes the first alternative that matches at a position, not the longest, and it is tried only

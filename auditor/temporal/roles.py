@@ -1,4 +1,4 @@
-"""What a temporal expression says about the content: its role (DESIGN.md §3.2).
+"""What a temporal expression says about the content: its role (docs/dates.md).
 
 The cue lexicon below is ours. A role is decided from the words just before the expression (in
 the same sentence, after any earlier expression), then the words just after it, then the
