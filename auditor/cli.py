@@ -141,7 +141,7 @@ def _finish(run: dict, out_dir: Path, summary_lines) -> None:
 def ingest(paths, config_path, db, jobs, wait, quiet):
     """Ingest documents under PATH... into the database (unchanged files are skipped)."""
     from auditor.history.lock import ScanLock
-    from auditor.ingest import ingest_corpus
+    from auditor.ingest.pipeline import ingest_corpus
     from auditor.store import Store
 
     config = _config(config_path, db=db)

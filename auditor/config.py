@@ -17,6 +17,8 @@ from pathlib import Path
 from typing import Any
 
 from auditor.errors import ConfigError
+from auditor.retrieval.bm25 import Params
+from auditor.retrieval.tokenize import Tokenizer
 
 
 @dataclass(frozen=True)
@@ -234,9 +236,6 @@ def _build(raw: dict, base: Path, source: Path | None, where: str, warn) -> Conf
 
 def _check_retrieval(retrieval: RetrievalConfig, where: str) -> None:
     """Let the BM25 and tokenizer registries judge their settings now, so the message names the file."""
-    from auditor.retrieval.bm25 import Params
-    from auditor.retrieval.tokenize import Tokenizer
-
     try:
         Params(retrieval.variant, retrieval.k1, retrieval.b, retrieval.delta)
         Tokenizer(retrieval.language, retrieval.stopwords)

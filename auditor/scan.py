@@ -113,7 +113,7 @@ def scan(
 ) -> ScanOutcome:
     """The whole job under the scan lock: ingest, audit, diff, gate, report."""
     from auditor.history.lock import ScanLock
-    from auditor.ingest import ingest_corpus
+    from auditor.ingest.pipeline import ingest_corpus
 
     as_of = as_of or config.audit_date()
     sets = load_question_files(config)  # fail on a bad question file before any work

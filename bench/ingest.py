@@ -138,7 +138,7 @@ def reference_parse(kind: str, files: list[Path]) -> float:
 
 def run_ingest(folder: Path, files: list[Path], include, jobs: int) -> dict:
     from auditor.config import Config, CorpusConfig
-    from auditor.ingest import ingest_corpus
+    from auditor.ingest.pipeline import ingest_corpus
     from auditor.store import Store
 
     with tempfile.TemporaryDirectory() as work:

@@ -257,7 +257,7 @@ def main(argv=None) -> int:
         return 0
 
     from auditor.config import load_config
-    from auditor.ingest import ingest_corpus
+    from auditor.ingest.pipeline import ingest_corpus
     from auditor.judgement.audit import run_audit
     from auditor.questions.sets import load_questions
     from auditor.report import write_report

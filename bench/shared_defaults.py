@@ -71,7 +71,7 @@ def fetch_python_manual() -> Path | None:
 def ingested_store(config_text: str, folder: Path):
     """Write a config into `folder`, ingest its corpus (incrementally) and return (store, config)."""
     from auditor.config import load_config
-    from auditor.ingest import ingest_corpus
+    from auditor.ingest.pipeline import ingest_corpus
     from auditor.store import Store
 
     folder.mkdir(parents=True, exist_ok=True)

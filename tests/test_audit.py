@@ -341,7 +341,7 @@ def test_a_file_that_breaks_stays_searchable_and_its_owner_sees_the_failure(tmp_
     from ingest_helpers import make_pdf
 
     from auditor.config import load_config
-    from auditor.ingest import ingest_corpus
+    from auditor.ingest.pipeline import ingest_corpus
     from auditor.retrieval.index import PassageIndex
     from auditor.store import Store
 

@@ -205,7 +205,7 @@ DEMO = Path(__file__).resolve().parent.parent / "fixtures" / "demo"
 def demo_store(tmp_path_factory):
     """The demo knowledge base ingested by the real ingest into a fresh database."""
     from auditor.config import load_config
-    from auditor.ingest import ingest_corpus
+    from auditor.ingest.pipeline import ingest_corpus
     from auditor.store import Store
 
     target = tmp_path_factory.mktemp("calibrate") / "demo"

@@ -165,7 +165,7 @@ KILLER = r"""
 import json, os, signal, sys, threading, time
 sys.path.insert(0, os.environ["AUDITOR_TEST_REPO"])
 mode, target, at, counts_file = sys.argv[1], sys.argv[2], int(sys.argv[3]), sys.argv[4]
-import auditor.ingest, auditor.judgement.audit, auditor.report, auditor.history.runs
+import auditor.ingest.pipeline, auditor.judgement.audit, auditor.report, auditor.history.runs
 
 stage = [None]
 counts = {}
@@ -184,7 +184,7 @@ def staged(module, name, label):
             stage[0] = previous
     setattr(module, name, wrapper)
 
-staged(auditor.ingest, "ingest_corpus", "ingest")
+staged(auditor.ingest.pipeline, "ingest_corpus", "ingest")
 staged(auditor.judgement.audit, "run_audit", "audit")
 staged(auditor.report, "write_report", "report")
 staged(auditor.history.runs, "update_latest", "latest")

@@ -15,12 +15,12 @@ from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 from auditor.errors import AuditorError
+from auditor.ingest.failures import IngestFailure
 from auditor.ingest.html import parse_html
 from auditor.ingest.markdown import parse_markdown
 from auditor.ingest.pdf import parse_pdf
 from auditor.ingest.segment import document_text, segment
 from auditor.ingest.text import parse_text
-from auditor.ingest.walk import IngestFailure
 from auditor.models import Block, MetaDate, ParsedDocument
 
 FUZZ = settings(

@@ -105,8 +105,8 @@ def test_the_sparse_gigabyte_is_refused_by_size_unread(ingested):
 
 
 def test_a_deep_page_tree_is_an_ingest_failure():
+    from auditor.ingest.failures import IngestFailure
     from auditor.ingest.pdf import parse_pdf
-    from auditor.ingest.walk import IngestFailure
 
     with pytest.raises(IngestFailure, match="damaged PDF"):
         parse_pdf(hostile_corpus.pdf_deep_page_tree(), "deep.pdf")
@@ -116,7 +116,7 @@ def test_a_corpus_of_more_files_than_sql_variables_ingests(tmp_path):
     # Stock SQLite (and Python's bundled builds) allow 32,766 host parameters, Debian's 250,000; the
     # limit is lowered here so that 300 files stand for 33,000 (sqlite3.Connection.setlimit, 3.11+).
     from auditor.config import Config, CorpusConfig
-    from auditor.ingest import ingest_corpus
+    from auditor.ingest.pipeline import ingest_corpus
 
     root = tmp_path / "kb"
     root.mkdir()

@@ -13,7 +13,7 @@ from pathlib import Path
 import pytest
 from ingest_helpers import config_for, encrypt_pdf, html_page, make_pdf, write_tree
 
-from auditor.ingest import ingest_corpus
+from auditor.ingest.pipeline import ingest_corpus
 from auditor.store import Store
 
 REPO = Path(__file__).resolve().parent.parent

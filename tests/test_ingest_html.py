@@ -10,9 +10,9 @@ from datetime import date
 import pytest
 from ingest_helpers import html_page
 
+from auditor.ingest.failures import IngestFailure
 from auditor.ingest.html import parse_html
-from auditor.ingest.pipeline import choose_doc_date
-from auditor.ingest.walk import IngestFailure
+from auditor.ingest.parse import choose_doc_date
 
 PAGE = html_page(
     """

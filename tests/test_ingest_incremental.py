@@ -9,7 +9,7 @@ import numpy as np
 from ingest_helpers import config_for, write_tree
 
 from auditor.config import RetrievalConfig
-from auditor.ingest import ingest_corpus
+from auditor.ingest.pipeline import ingest_corpus
 from auditor.retrieval.tokenize import Tokenizer
 from auditor.retrieval.vocabulary import Vocabulary
 from auditor.store import Store

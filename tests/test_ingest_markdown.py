@@ -6,8 +6,8 @@ from datetime import date
 
 import pytest
 
+from auditor.ingest.failures import IngestFailure
 from auditor.ingest.markdown import parse_markdown
-from auditor.ingest.walk import IngestFailure
 
 DOC = """---
 title: Start, stop or move service

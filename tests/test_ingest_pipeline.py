@@ -10,7 +10,7 @@ import numpy as np
 import pytest
 from ingest_helpers import config_for, html_page, make_pdf, write_tree, xmp_packet
 
-from auditor.ingest import ingest_corpus
+from auditor.ingest.pipeline import ingest_corpus
 from auditor.retrieval.tokenize import Tokenizer
 from auditor.retrieval.vocabulary import Vocabulary
 from auditor.store import Store

@@ -6,8 +6,8 @@ import time
 
 from ingest_helpers import config_for, make_pdf, misbehave, replicate_pages, words, write_tree
 
-from auditor.ingest import ingest_corpus
-from auditor.ingest.pipeline import run_tasks
+from auditor.ingest.pipeline import ingest_corpus
+from auditor.ingest.pool import run_tasks
 from auditor.store import Store
 
 

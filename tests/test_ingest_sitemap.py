@@ -5,7 +5,7 @@ from __future__ import annotations
 from ingest_helpers import config_for, html_page, write_tree
 
 from auditor.config import SitemapConfig
-from auditor.ingest import ingest_corpus
+from auditor.ingest.pipeline import ingest_corpus
 from auditor.ingest.sitemap import read_sitemap
 from auditor.store import Store
 

@@ -6,8 +6,8 @@ import codecs
 
 import pytest
 
+from auditor.ingest.failures import IngestFailure
 from auditor.ingest.text import decode_text, parse_text
-from auditor.ingest.walk import IngestFailure
 
 SAMPLE = "Water rates\n\nCafé prices rose — 5 € per m³.\nSecond line.\n\n\nLast paragraph."
 

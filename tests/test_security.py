@@ -125,7 +125,7 @@ def test_the_recorder_sees_spliced_sql(recorded, tmp_path):
 
 def test_include_globs_never_reach_outside_the_source_root(tmp_path):
     from auditor.config import Config, CorpusConfig
-    from auditor.ingest import ingest_corpus
+    from auditor.ingest.pipeline import ingest_corpus
     from auditor.store import Store
 
     root, outside = tmp_path / "kb", tmp_path / "outside"

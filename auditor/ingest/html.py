@@ -22,8 +22,8 @@ import re
 from bs4 import BeautifulSoup, Comment, Doctype, NavigableString, ProcessingInstruction, Tag
 
 from auditor.ingest.dates import parse_http_date, parse_time_element, parse_w3c_datetime
+from auditor.ingest.failures import IngestFailure
 from auditor.ingest.text import decode_text, sniff_bom
-from auditor.ingest.walk import IngestFailure
 from auditor.models import Block, MetaDate, ParsedDocument
 
 # Chromium's HTML parser stops nesting at 512 levels (kMaximumHTMLParserDOMTreeDepth, from

@@ -13,8 +13,8 @@ import re
 import yaml
 
 from auditor.ingest.dates import parse_meta_value
+from auditor.ingest.failures import IngestFailure
 from auditor.ingest.text import decode_text
-from auditor.ingest.walk import IngestFailure
 from auditor.models import Block, MetaDate, ParsedDocument
 
 _FRONT_MATTER = re.compile(r"\A---[ \t]*\n(.*?\n)?(?:---|\.\.\.)[ \t]*(?:\n|\Z)", re.S)

@@ -15,7 +15,7 @@ import logging
 import re
 
 from auditor.ingest.dates import parse_pdf_date
-from auditor.ingest.walk import IngestFailure
+from auditor.ingest.failures import IngestFailure
 from auditor.models import Block, MetaDate, ParsedDocument
 
 logging.getLogger("pypdf").setLevel(logging.ERROR)  # its warnings would flood the progress bar

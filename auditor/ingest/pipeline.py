@@ -17,40 +17,34 @@ What an owner can expect:
 Only the main process writes to SQLite; workers read, detect, parse, segment, tokenize and extract
 dated statements (the CPU-heavy part) and send plain data back.
 
-This module holds three parts (the timeout-safe process pool, the per-file work done in a worker,
-and the store writes); it is past 400 lines because the pool has no module of its own yet.
+The process pool is auditor/ingest/pool.py, the work of one file auditor/ingest/parse.py; this
+module decides what to parse and writes the results.
 """
 
 from __future__ import annotations
 
 import hashlib
 import json
-import multiprocessing as mp
 import os
 import sys
 import time
-from collections.abc import Callable, Iterator
 from dataclasses import dataclass, field
 from datetime import UTC, datetime
-from multiprocessing.connection import wait
 from pathlib import Path
 
-from auditor.errors import AuditorError, InputError
-from auditor.ingest.walk import (
-    IngestFailure,
-    SourceFile,
-    detect_kind,
-    discover,
-    glob_match,
-    read_file,
-    sha256,
-    storable,
-)
-from auditor.models import MetaDate
+from auditor.errors import InputError
+from auditor.ingest.failures import IngestFailure
+from auditor.ingest.owners import owner_from_config
+from auditor.ingest.parse import Settings, parse_file, warm_up
+from auditor.ingest.pool import run_tasks
+from auditor.ingest.sitemap import lastmod_dates
+from auditor.ingest.walk import SourceFile, discover, read_file, resolve_roots, sha256, storable
+from auditor.retrieval.tokenize import Tokenizer
+from auditor.retrieval.vocabulary import Vocabulary
 
 # The code whose output is stored per file: when any of it changes, every file is parsed again
 # (a better date pattern or parser must reach documents that did not change).
-_PARSER_SOURCES = ("ingest/*.py", "segment.py", "temporal*.py", "models.py")
+_PARSER_SOURCES = ("ingest/*.py", "temporal/*.py", "models.py")
 
 
 def parser_fingerprint() -> str:
@@ -61,245 +55,6 @@ def parser_fingerprint() -> str:
         for source in sorted(package.glob(pattern)):
             digest.update(source.name.encode() + b"\0" + source.read_bytes())
     return digest.hexdigest()[:16]
-
-
-DATE_KINDS_FOR_DOC_DATE = ("modified", "reviewed", "published", "created")
-
-
-# --- process pool with a per-task timeout -------------------------------------------------------
-# concurrent.futures cannot stop a task that hangs, and a worker that dies breaks its whole pool;
-# here each worker is a process with its own pipe, so a task that overruns its deadline costs that
-# worker (killed and replaced) and its one file, and the run goes on. Workers are started with
-# "spawn" (safe beside an open SQLite connection) and report when ready, so their start-up (imports)
-# does not count against the first file's timeout.
-
-
-def _serve(conn, target: Callable, settings, init: Callable | None) -> None:
-    """Worker main loop: init(settings), then receive a task, send back target(task, settings);
-    None ends it."""
-    if init is not None:
-        init(settings)
-    conn.send(("ready", None))
-    while True:
-        try:
-            task = conn.recv()
-        except (EOFError, KeyboardInterrupt):
-            return
-        if task is None:
-            return
-        try:
-            result = ("ok", target(task, settings))
-        except BaseException as exc:  # reported for this task only; the worker lives on
-            result = ("error", f"{type(exc).__name__}: {' '.join(str(exc).split())[:200]}")
-        conn.send(result)
-
-
-class _Worker:
-    def __init__(self, ctx, target, settings, init=None):
-        self.conn, child = ctx.Pipe()
-        self.process = ctx.Process(target=_serve, args=(child, target, settings, init), daemon=True)
-        self.process.start()
-        child.close()
-        self.ready = False
-        self.task = None
-        self.deadline = None
-
-    def stop(self, kill: bool = False) -> None:
-        if kill:
-            self.process.kill()
-        else:
-            try:
-                self.conn.send(None)
-            except (OSError, BrokenPipeError):
-                pass
-        self.process.join(timeout=5)
-        if self.process.is_alive():
-            self.process.kill()
-            self.process.join(timeout=5)
-        self.conn.close()
-
-
-def run_tasks(
-    tasks: list, target: Callable, settings, *, jobs: int, timeout: float, init: Callable | None = None
-) -> Iterator[tuple[object, str, object]]:
-    """Run target(task, settings) for every task in `jobs` worker processes; each worker first
-    runs init(settings) (imports, warm-up) before its first task's clock starts.
-
-    Yields (task, status, value) as tasks finish, in completion order: status "ok" with the
-    return value, "error" with an exception summary, "timeout" with the seconds allowed, or
-    "crash" with the worker's exit code.
-    """
-    if not tasks:
-        return
-    ctx = mp.get_context("spawn")
-    pending = list(reversed(tasks))
-    workers = [_Worker(ctx, target, settings, init) for _ in range(max(1, min(jobs, len(tasks))))]
-    startup_failures = 0
-
-    def assign() -> None:
-        for w in workers:
-            if w.ready and w.task is None and pending:
-                w.task = pending.pop()
-                w.conn.send(w.task)
-                w.deadline = time.monotonic() + timeout
-
-    try:
-        while pending or any(w.task is not None for w in workers):
-            assign()
-            deadlines = [w.deadline for w in workers if w.task is not None]
-            wait_for = max(0.0, min(deadlines) - time.monotonic()) if deadlines else None
-            ready = wait([w.conn for w in workers], timeout=wait_for)
-            finished = []
-            for i, w in enumerate(workers):
-                if w.conn in ready:
-                    try:
-                        status, value = w.conn.recv()
-                    except (EOFError, OSError):
-                        w.process.join(timeout=5)
-                        task, code = w.task, w.process.exitcode
-                        w.stop(kill=True)
-                        workers[i] = _Worker(ctx, target, settings, init)
-                        if task is not None:
-                            finished.append((task, "crash", code))
-                        else:
-                            startup_failures += 1
-                            if startup_failures > 3:
-                                raise AuditorError(
-                                    f"ingest worker processes fail to start (exit code {code})"
-                                ) from None
-                        continue
-                    if status == "ready":
-                        w.ready = True
-                        continue
-                    finished.append((w.task, status, value))
-                    w.task, w.deadline = None, None
-                elif w.task is not None and time.monotonic() >= w.deadline:
-                    finished.append((w.task, "timeout", timeout))
-                    w.stop(kill=True)
-                    workers[i] = _Worker(ctx, target, settings, init)
-            # Hand out the next files before the caller writes these results, so that workers
-            # parse while the main process writes to SQLite.
-            assign()
-            yield from finished
-    finally:
-        for w in workers:
-            w.stop(kill=w.task is not None)
-
-
-# --- the work of one file (runs in a worker process) --------------------------------------------
-
-
-@dataclass
-class _Settings:
-    language: str
-    stopwords: str
-    day_first: bool
-    fiscal_year_start: int
-    hemisphere: str
-
-
-_TOKENIZERS: dict = {}
-
-
-def warm_up(settings: _Settings) -> None:
-    """Import the parsers and run each costly first call once, so that a worker's start-up does
-    not count against the per-file timeout."""
-    from auditor.ingest import html, markdown, pdf, text  # noqa: F401
-    from auditor.retrieval.tokenize import Tokenizer
-    from auditor.temporal import extract as temporal
-
-    try:
-        key = (settings.language, settings.stopwords)
-        _TOKENIZERS.setdefault(key, Tokenizer(*key)).tokenize("warm up the stemmer")
-        temporal.extract(
-            "Updated 1 March 2024, effective next month.",
-            reference_date=None,
-            day_first=settings.day_first,
-            fiscal_year_start=settings.fiscal_year_start,
-            hemisphere=settings.hemisphere,
-        )
-    except Exception:  # the same error will be reported for each file, with its name
-        pass
-
-
-def choose_doc_date(dates: list[MetaDate]) -> MetaDate | None:
-    """The document date: a modified/reviewed date first, then published, then created, each in
-    the parser's most-specific-first order."""
-    for kinds in (("modified", "reviewed"), ("published",), ("created",)):
-        for d in dates:
-            if d.kind in kinds:
-                return d
-    return None
-
-
-def parse_file(task: dict, settings: _Settings) -> dict:
-    """Read, detect, parse, segment, tokenize and date one file. Spawn-safe (top level).
-
-    Returns {"ok": True, ...document fields, "passages": [...]} or {"ok": False, "kind", "message"}.
-    """
-    from auditor.ingest.dates import file_time_date
-    from auditor.ingest.html import parse_html
-    from auditor.ingest.markdown import parse_markdown
-    from auditor.ingest.pdf import parse_pdf
-    from auditor.ingest.segment import segment
-    from auditor.ingest.text import parse_text
-    from auditor.retrieval.tokenize import Tokenizer
-    from auditor.temporal import extract as temporal
-
-    parsers = {"pdf": parse_pdf, "html": parse_html, "markdown": parse_markdown, "text": parse_text}
-    cpu = time.process_time()
-    result = _parse_file(task, settings, parsers, segment, temporal, Tokenizer, file_time_date)
-    result["cpu"] = (os.getpid(), time.process_time() - cpu)  # for the bench: work per worker
-    return result
-
-
-def _parse_file(task, settings, parsers, segment, temporal, Tokenizer, file_time_date) -> dict:
-    file = task["file"]
-    try:
-        data = read_file(Path(file), task["doc_path"])
-        kind = detect_kind(data, task["kind"], file)
-        parsed = parsers[kind](data, file)
-    except IngestFailure as exc:
-        return {"ok": False, "kind": exc.kind, "message": str(exc)}
-    except RecursionError:
-        return {"ok": False, "kind": "parse_error", "message": f"{file!r}: nested too deeply to parse"}
-    except MemoryError:
-        return {"ok": False, "kind": "parse_error", "message": f"{file!r}: out of memory while parsing"}
-    dates = list(parsed.dates)
-    if task.get("sitemap"):
-        dates.append(task["sitemap"])
-    chosen = choose_doc_date(dates)
-    if chosen is not None:
-        doc_date, doc_date_source = chosen.value, chosen.source
-    else:
-        doc_date, doc_date_source = file_time_date(task["mtime"]), "file:mtime"
-    expires = next((d.value for d in dates if d.kind == "expires"), None)
-    key = (settings.language, settings.stopwords)
-    tokenizer = _TOKENIZERS.get(key) or _TOKENIZERS.setdefault(key, Tokenizer(*key))
-    passages = []
-    for p in segment(parsed.blocks):
-        statements = temporal.extract(
-            p.text,
-            reference_date=doc_date,
-            day_first=settings.day_first,
-            fiscal_year_start=settings.fiscal_year_start,
-            hemisphere=settings.hemisphere,
-        )
-        passages.append((p, tokenizer.tokenize(p.text), statements))
-    return {
-        "ok": True,
-        "kind": kind,
-        "sha256": sha256(data),
-        "size": len(data),
-        "title": parsed.title,
-        "owner": parsed.owner,
-        "tags": list(parsed.tags),
-        "dates": dates,
-        "doc_date": doc_date,
-        "doc_date_source": doc_date_source,
-        "expires": expires,
-        "passages": passages,
-    }
 
 
 # --- the main process ---------------------------------------------------------------------------
@@ -340,14 +95,6 @@ def _now() -> str:
     return datetime.now(UTC).isoformat(timespec="seconds").replace("+00:00", "Z")
 
 
-def owner_from_config(config, rel: str) -> str | None:
-    """The config's owner for a path relative to its source root (first matching glob), else None."""
-    for glob, owner in config.owners:
-        if glob_match(glob, rel):
-            return owner
-    return None
-
-
 def ingest_corpus(store, config, *, paths=None, jobs=None, progress=False) -> IngestSummary:
     """Bring the store up to date with the corpus at `paths` (default config.corpus.paths).
 
@@ -369,11 +116,6 @@ def ingest_corpus(store, config, *, paths=None, jobs=None, progress=False) -> In
 
 
 def _ingest(store, config, given: list, jobs, progress) -> IngestSummary:
-    from auditor.ingest.sitemap import lastmod_dates
-    from auditor.ingest.walk import resolve_roots
-    from auditor.retrieval.tokenize import Tokenizer
-    from auditor.retrieval.vocabulary import Vocabulary
-
     started = time.monotonic()
     corpus = config.corpus
     files, skipped = discover(given, corpus)
@@ -454,7 +196,7 @@ def _ingest(store, config, given: list, jobs, progress) -> IngestSummary:
     _touch_unchanged(store, config, unchanged, now)
     summary.unchanged = len(unchanged)
 
-    settings = _Settings(
+    settings = Settings(
         config.retrieval.language,
         config.retrieval.stopwords,
         corpus.day_first,
@@ -633,8 +375,6 @@ def _mark_removed(store, known: dict, seen: set[str], now: str) -> int:
 
 def _retokenize_if_needed(store, tokenizer) -> int:
     """Re-tokenize every stored passage when the tokenizer fingerprint changed; returns how many."""
-    from auditor.retrieval.vocabulary import Vocabulary
-
     fingerprint = tokenizer.fingerprint()
     stored = store.get_meta("tokenizer")
     if stored == fingerprint:

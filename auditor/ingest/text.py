@@ -11,7 +11,7 @@ from __future__ import annotations
 import codecs
 import re
 
-from auditor.ingest.walk import IngestFailure
+from auditor.ingest.failures import IngestFailure
 from auditor.models import Block, ParsedDocument
 
 _BOMS = [
@@ -34,7 +34,7 @@ def sniff_bom(data: bytes) -> tuple[str, int] | None:
     return None
 
 
-def _utf16_without_bom(data: bytes) -> str | None:
+def utf16_without_bom(data: bytes) -> str | None:
     sample = data[:4096]
     if len(sample) < 4 or len(sample) % 2:
         return None
@@ -70,7 +70,7 @@ def decode_text(data: bytes, path: str, *, declared: str | None = None, kind: st
             break
         except (UnicodeDecodeError, LookupError):
             continue
-    if text is None and (utf16 := _utf16_without_bom(data)):
+    if text is None and (utf16 := utf16_without_bom(data)):
         try:
             text = data.decode(utf16)
         except UnicodeDecodeError:

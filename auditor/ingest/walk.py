@@ -25,6 +25,8 @@ from functools import lru_cache
 from pathlib import Path
 
 from auditor.errors import InputError
+from auditor.ingest.failures import IngestFailure
+from auditor.ingest.text import sniff_bom, utf16_without_bom
 
 # Extensions we parse; content (magic bytes) has the last word (see detect_kind).
 EXTENSIONS = {
@@ -54,19 +56,6 @@ _BINARY_MAGIC = [
     (b"\xfd7zXZ\x00", "an xz file"),
     (b"7z\xbc\xaf", "a 7-Zip archive"),
 ]
-
-
-class IngestFailure(InputError):
-    """A file that cannot be ingested; `kind` is the ingest_errors kind (encrypted, needs_ocr,
-    too_large, empty, unreadable, not_a_<kind>, timeout, parse_error, symlink)."""
-
-    def __init__(self, kind: str, path: str, message: str):
-        super().__init__(f"{str(path)!r}: {message}")
-        self.kind = kind
-        self.path = str(path)
-
-    def __reduce__(self):  # picklable across the worker pipe
-        return (IngestFailure, (self.kind, self.path, str(self).split(": ", 1)[-1]))
 
 
 @dataclass(frozen=True)
@@ -315,9 +304,7 @@ def detect_kind(data: bytes, declared: str, file: str) -> str:
     for magic, what in _BINARY_MAGIC:
         if data.startswith(magic):
             raise IngestFailure(f"not_a_{declared}", file, f"named as {declared} but the content is {what}")
-    from auditor.ingest.text import _utf16_without_bom, sniff_bom
-
-    if not sniff_bom(head) and not _utf16_without_bom(data):
+    if not sniff_bom(head) and not utf16_without_bom(data):
         sample = data[:8192]
         controls = sum(sample.count(bytes([b])) for b in _BINARY_BYTES)
         if controls > max(1, len(sample) // 200):  # text has (almost) none of these

@@ -19,7 +19,7 @@ from datetime import UTC, date, datetime
 from pathlib import Path
 
 from auditor.config import Config, SupportConfig
-from auditor.ingest.pipeline import owner_from_config
+from auditor.ingest.owners import owner_from_config
 from auditor.judgement.support import Judged, judge, passage_support
 from auditor.models import Freshness, Question, TemporalExpression
 from auditor.store import SEARCHED_STATUSES, Store, dumps

@@ -18,6 +18,8 @@ from pathlib import Path
 
 from auditor.config import Config
 from auditor.errors import InputError
+from auditor.judgement.audit import current_thresholds, question_support
+from auditor.retrieval.index import PassageIndex
 from auditor.store import Store, dumps
 
 REQUIRED = ("question", "answerable")
@@ -167,9 +169,6 @@ def calibrate(
     With `holdout`, each answerable question's expected documents are hidden and the share of those
     questions that then get the gap verdict is measured (how often a removed answer would be caught).
     """
-    from auditor.judgement.audit import current_thresholds, question_support
-    from auditor.retrieval.index import PassageIndex
-
     labels = load_labels(labels_path)
     previous = current_thresholds(store, config)
     index = PassageIndex.load_or_build(store, config.retrieval)

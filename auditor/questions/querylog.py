@@ -38,14 +38,19 @@ from pathlib import Path
 
 from auditor.errors import InputError
 from auditor.models import Question
+from auditor.questions.files import (
+    COUNT_COLUMNS,
+    TEXT_COLUMNS,
+    TIMESTAMP_COLUMNS,
+    generated_id,
+    header_line,
+    read_records,
+    read_text,
+    sniff_format,
+)
 from auditor.questions.redact import PLACEHOLDERS
 from auditor.questions.redact import redact as redact_text
 
-# Column names that mark a query log (first present wins); "question" is accepted as the text
-# column only once a count or timestamp column has made the file a query log.
-TEXT_COLUMNS = ("query", "text", "search", "utterance", "question")
-COUNT_COLUMNS = ("count", "hits", "frequency", "freq", "searches", "occurrences")
-TIMESTAMP_COLUMNS = ("timestamp", "time", "ts", "datetime", "date", "created_at")
 CARRIED_COLUMNS = ("owner", "topic")
 
 # Words that change nothing about what is asked; common practice, no single source.
@@ -155,8 +160,6 @@ def _read(
     """[(line, raw text, count, carried fields)] of the log; InputError on structural problems.
 
     `parsed` is (format, columns, records) when the caller has read the file already."""
-    from auditor.questions.sets import header_line, read_records, read_text, sniff_format
-
     if parsed is None:
         content = read_text(path)
         fmt = sniff_format(path, content)
@@ -316,8 +319,6 @@ def _import(path: Path, text_column, count_column, similarity, redact, parsed):
         wording = min(variants, key=lambda v: (-variants[v], firsts[v], v))
         merged.append((count, first, wording, _top(owners), _top(topics), len(variants)))
     merged.sort(key=lambda m: (-m[0], m[1]))
-
-    from auditor.questions.sets import generated_id
 
     questions = [
         Question(id=generated_id(i, len(merged)), question=wording, owner=owner, topic=topic, weight=float(count))
