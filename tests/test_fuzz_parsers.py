@@ -23,9 +23,11 @@ from auditor.ingest.segment import document_text, segment
 from auditor.ingest.text import parse_text
 from auditor.models import Block, MetaDate, ParsedDocument
 
+# No wall-clock deadline: on a shared machine it fails on load, not on slow code. The work is bounded
+# by the number and size of the examples instead.
 FUZZ = settings(
     max_examples=100,
-    deadline=3000,
+    deadline=None,
     derandomize=True,
     suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large],
 )
@@ -351,7 +353,7 @@ def test_the_unmutated_pdf_parses():
     assert parsed is not None and [b.page for b in parsed.blocks][-1] == 2
 
 
-@settings(max_examples=80, deadline=5000, derandomize=True, suppress_health_check=[HealthCheck.too_slow])
+@settings(max_examples=80, deadline=None, derandomize=True, suppress_health_check=[HealthCheck.too_slow])
 @given(
     st.lists(st.tuples(st.integers(0, len(PDF) - 1), st.binary(min_size=1, max_size=8)), min_size=1, max_size=6),
     st.sampled_from(["overwrite", "insert", "delete"]),

@@ -14,6 +14,7 @@ from pathlib import Path
 import pytest
 
 from auditor.errors import StoreError
+from auditor.history import lock as lock_module
 from auditor.history.lock import ScanLock, read_holder
 
 REPO = Path(__file__).resolve().parent.parent
@@ -43,10 +44,10 @@ def test_second_holder_is_refused_with_the_holders_pid_and_start(tmp_path):
     db = tmp_path / "audit.db"
     child = start_holder(db)
     try:
-        started = time.monotonic()
+        waits: list[str] = []
         with pytest.raises(StoreError) as refused:
-            ScanLock(db).acquire()
-        assert time.monotonic() - started < 2.0  # refused at once, not after a wait
+            ScanLock(db, on_wait=waits.append).acquire()
+        assert waits == []  # refused at once: it never started waiting
         holder = read_holder(db)
         assert holder["pid"] == child.pid
         assert str(refused.value) == (
@@ -122,27 +123,64 @@ def test_workers_forked_by_a_killed_holder_do_not_keep_the_lock(tmp_path):
 def test_waiting_holder_gets_the_lock_when_it_is_released(tmp_path):
     db = tmp_path / "audit.db"
     child = start_holder(db)
+    waiting = threading.Event()
+    said: list[str] = []
 
-    def release_soon():
-        time.sleep(0.5)
-        child.stdin.write("\n")
-        child.stdin.flush()
+    def release_once_waited_for():
+        # The holder lets go only after the waiter has said it is waiting: the waiter really met a
+        # held lock, whatever the timing of the two processes.
+        if waiting.wait(60):
+            child.stdin.write("\n")
+            child.stdin.flush()
 
-    threading.Thread(target=release_soon).start()
-    with ScanLock(db, wait=30) as lock:
-        assert lock.held
-        assert child.wait(10) == 0
-        assert lock.taken_over is None  # released cleanly, not killed
+    def on_wait(line: str) -> None:
+        said.append(line)
+        waiting.set()
+
+    releaser = threading.Thread(target=release_once_waited_for)
+    releaser.start()
+    try:
+        with ScanLock(db, wait=120, on_wait=on_wait) as lock:
+            assert lock.held
+            assert child.wait(10) == 0
+            assert lock.taken_over is None  # released cleanly, not killed
+    finally:
+        waiting.set()
+        releaser.join()
+        child.kill()
+        child.wait(10)
+    assert len(said) == 1 and said[0].startswith(f"{str(db)!r}: waiting for the lock (pid {child.pid} since 20")
+    assert said[0].endswith("), up to 120 s")
 
 
-def test_waiting_gives_up_after_the_wait(tmp_path):
+class FakeClock:
+    """time.monotonic and time.sleep for the lock module: sleeping advances the clock at once."""
+
+    def __init__(self):
+        self.now = 1000.0
+        self.sleeps: list[float] = []
+
+    def monotonic(self) -> float:
+        return self.now
+
+    def sleep(self, seconds: float) -> None:
+        self.sleeps.append(seconds)
+        self.now += seconds
+
+
+def test_waiting_gives_up_after_the_wait(tmp_path, monkeypatch):
     db = tmp_path / "audit.db"
     child = start_holder(db)
+    clock = FakeClock()
+    monkeypatch.setattr(lock_module, "time", clock)
+    said: list[str] = []
     try:
-        started = time.monotonic()
         with pytest.raises(StoreError) as refused:
-            ScanLock(db, wait=0.5).acquire()
-        assert time.monotonic() - started >= 0.5
+            ScanLock(db, wait=0.5, on_wait=said.append).acquire()
+        # It retried every POLL_SECONDS until the wait was spent (on the module's clock), not less.
+        assert sum(clock.sleeps) == pytest.approx(0.5)
+        assert len([s for s in clock.sleeps if s == pytest.approx(lock_module.POLL_SECONDS)]) == 5
+        assert len(said) == 1 and "waiting for the lock" in said[0]
         assert str(refused.value).startswith(
             f"{str(db)!r}: another scan still holds the lock after waiting 0.5 s (pid {child.pid} since "
         )

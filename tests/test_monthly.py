@@ -137,8 +137,12 @@ def test_two_scans_at_once_one_runs_the_other_is_refused_or_waits(tmp_path):
             stderr=subprocess.PIPE,
             text=True,
         )
-        time.sleep(1.0)
-        assert waiting.poll() is None  # still waiting for the lock
+        # The waiting scan says once, on stderr, that it met the held lock; nothing else of it
+        # reaches stderr before the lock is free (--quiet), so its first line is that one.
+        said = waiting.stderr.readline()
+        assert said.startswith(f"{str(db)!r}: waiting for the lock (pid {first.pid} since 20"), said
+        assert said.rstrip().endswith("), up to 120 s")
+        assert waiting.poll() is None  # it said so and is still waiting
     finally:
         (root / "stage-calls.json.resume").touch()
     out, err = first.communicate(timeout=300)

@@ -17,8 +17,10 @@ import fcntl
 import json
 import os
 import socket
+import sys
 import time
 import weakref
+from collections.abc import Callable
 from datetime import UTC, datetime
 from pathlib import Path
 
@@ -50,13 +52,15 @@ class ScanLock:
     """Exclusive lock on the audit database at `db_path`; a context manager.
 
     With `wait=0` a second holder is refused at once with StoreError; with `wait > 0` it retries
-    for up to that many seconds first.
+    for up to that many seconds first, and says once, through `on_wait` (default: a line on stderr),
+    that it is waiting and for whom.
     """
 
-    def __init__(self, db_path: str | Path, wait: float = 0.0):
+    def __init__(self, db_path: str | Path, wait: float = 0.0, on_wait: Callable[[str], object] | None = None):
         self.db_path = Path(db_path)
         self.path = self.db_path.with_name(self.db_path.name + ".lock")
         self.wait = max(0.0, float(wait or 0.0))
+        self.on_wait = on_wait or _tell_stderr
         self.taken_over: dict | None = None  # holder info left by a killed scan, if any
         self._fd: int | None = None
 
@@ -70,6 +74,7 @@ class ScanLock:
         except OSError as exc:
             raise StoreError(f"{str(self.path)!r}: cannot create the scan lock ({exc.strerror})") from None
         deadline = time.monotonic() + self.wait
+        waiting = False
         try:
             while True:
                 try:
@@ -78,6 +83,12 @@ class ScanLock:
                 except BlockingIOError:
                     if time.monotonic() >= deadline:
                         raise StoreError(self._refusal(fd)) from None
+                    if not waiting:
+                        waiting = True
+                        self.on_wait(
+                            f"{str(self.db_path)!r}: waiting for the lock ({describe_holder(_read_holder(fd))}), "
+                            f"up to {self.wait:g} s"
+                        )
                     time.sleep(min(POLL_SECONDS, max(0.0, deadline - time.monotonic())))
             left = _read_holder(fd)
             self.taken_over = left or None
@@ -170,3 +181,7 @@ def _write(fd: int, text: str) -> None:
 
 def _utc_now() -> str:
     return datetime.now(UTC).strftime("%Y-%m-%dT%H:%M:%SZ")
+
+
+def _tell_stderr(line: str) -> None:
+    print(line, file=sys.stderr, flush=True)
