@@ -19,7 +19,8 @@ import re
 import zipfile
 from pathlib import Path
 
-FOLDER = Path("/work/shared/data/scifact")
+# Beside the repository, never inside it: <checkout>/../shared/data/scifact/ wherever the checkout is.
+FOLDER = Path(__file__).resolve().parents[1].parent / "shared" / "data" / "scifact"
 
 # A quoted item of the printed list: '...' or "..." with backslash escapes inside.
 _ITEM = re.compile(r"'((?:[^'\\]|\\.)*)'|\"((?:[^\"\\]|\\.)*)\"", re.S)

@@ -22,7 +22,7 @@ from pathlib import Path
 REPO = Path(__file__).resolve().parent.parent
 sys.path[:0] = [str(REPO), str(REPO / "bench")]
 
-from claims_data import fill_store, load_scifact  # noqa: E402
+from claims_data import FOLDER, fill_store, load_scifact  # noqa: E402
 
 from auditor.config import RetrievalConfig  # noqa: E402
 from auditor.retrieval.index import PassageIndex  # noqa: E402
@@ -91,7 +91,7 @@ def bm25s_ndcg(corpus: dict, claims: list, tokenizer: Tokenizer, k1: float, b: f
 def main() -> int:
     data = load_scifact()
     if data is None:
-        print("SciFact not found in /work/shared/data/scifact/; nothing to measure")
+        print(f"SciFact not found at {FOLDER / 'scifact.zip'}; nothing to measure")
         return 0
     corpus, claims = data
     print(f"SciFact: {len(corpus)} abstracts, {len(claims)} claims, {sum(len(c) for _, _, c in claims)} relevant pairs")

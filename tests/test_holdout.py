@@ -16,7 +16,9 @@ from auditor.retrieval.tokenize import Tokenizer
 
 REPO = Path(__file__).resolve().parent.parent
 SCIFACT = REPO.parent / "shared" / "data" / "scifact" / "scifact.zip"
-pytestmark = pytest.mark.skipif(not SCIFACT.is_file(), reason="SciFact not in ../shared/data/scifact")
+pytestmark = pytest.mark.skipif(
+    not SCIFACT.is_file(), reason=f"SciFact not found at {SCIFACT} (../shared/data/scifact/ beside the checkout)"
+)
 
 
 def _bench():

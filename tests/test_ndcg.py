@@ -2,14 +2,17 @@
 
 from __future__ import annotations
 
+import importlib.util
+import shutil
 import sys
 from pathlib import Path
 
 import pytest
 
-sys.path.insert(0, str(Path(__file__).resolve().parent.parent / "bench"))
+REPO = Path(__file__).resolve().parent.parent
+sys.path.insert(0, str(REPO / "bench"))
 
-from claims_data import load_scifact, parse_sentences  # noqa: E402
+from claims_data import FOLDER, load_scifact, parse_sentences  # noqa: E402
 from ndcg import bm25s_ndcg, evaluate, ndcg_at_k  # noqa: E402
 
 from auditor.config import RetrievalConfig  # noqa: E402
@@ -36,8 +39,26 @@ def test_parse_printed_sentence_lists():
 def scifact():
     data = load_scifact()
     if data is None:
-        pytest.skip("SciFact not present in /work/shared/data/scifact/")
+        pytest.skip(f"SciFact not found at {FOLDER / 'scifact.zip'} (../shared/data/scifact/ beside the checkout)")
     return data
+
+
+def test_scifact_is_read_beside_whichever_checkout_runs(tmp_path):
+    # The reader copied into another checkout looks in that checkout's ../shared, not in a fixed
+    # folder: with nothing there it finds nothing, and with the data linked there it reads it.
+    checkout = tmp_path / "elsewhere" / "corpus-auditor"
+    (checkout / "bench").mkdir(parents=True)
+    shutil.copy(REPO / "bench" / "claims_data.py", checkout / "bench" / "claims_data.py")
+    spec = importlib.util.spec_from_file_location("claims_data_elsewhere", checkout / "bench" / "claims_data.py")
+    module = importlib.util.module_from_spec(spec)
+    spec.loader.exec_module(module)
+    assert module.FOLDER == tmp_path / "elsewhere" / "shared" / "data" / "scifact"
+    assert module.load_scifact() is None
+    if (FOLDER / "scifact.zip").is_file():
+        module.FOLDER.parent.mkdir(parents=True)
+        module.FOLDER.symlink_to(FOLDER, target_is_directory=True)
+        corpus, claims = module.load_scifact()
+        assert len(corpus) == 5183 and len(claims) == 300  # the README counts, as below
 
 
 def test_scifact_counts_as_documented(scifact):
