@@ -82,6 +82,15 @@ def demo_scans(tmp_path_factory):
     return config, first, second
 
 
+# The flags fixtures/demo/README.md promises ("Which question exercises what"); the other flags (weak,
+# no_answer_type, ...) are the judge's own business and not part of the demo's specification.
+PROMISED_FLAGS = {"stale_competitor", "file_dated"}
+
+
+def split(cell: str) -> list[str]:
+    return sorted(x for x in cell.split(";") if x)
+
+
 def test_demo_verdicts_match_expected(demo_scans):
     _, first, _ = demo_scans
     want = expected()
@@ -89,13 +98,53 @@ def test_demo_verdicts_match_expected(demo_scans):
     assert set(got) == set(want)
     mismatches = []
     for qid, row in want.items():
-        reasons = sorted(r for r in row["reasons"].split(";") if r)
-        if got[qid]["verdict"] != row["verdict"] or sorted(got[qid]["reasons"]) != reasons:
+        if got[qid]["verdict"] != row["verdict"] or sorted(got[qid]["reasons"]) != split(row["reasons"]):
             mismatches.append(
-                f"{qid}: expected {row['verdict']} {reasons}, got {got[qid]['verdict']} "
+                f"{qid}: expected {row['verdict']} {split(row['reasons'])}, got {got[qid]['verdict']} "
                 f"{got[qid]['reasons']} (support {got[qid]['support']:.2f})"
             )
     assert not mismatches, "\n".join(mismatches)
+
+
+def deciding_passages(question: dict, document: str) -> list[dict]:
+    """The evidence of `document` that decides the question's verdict on its own: a fresh supporting
+    passage for a covered question (auditor/judgement/support.py: "covered — some supporting passage
+    is fresh"); a stale supporting passage with one of the question's stale reasons for a stale one."""
+    found = []
+    for e in question["evidence"]:
+        if e["document"] != document or not e["supporting"]:
+            continue
+        if question["verdict"] == "covered" and e["fresh"]:
+            found.append(e)
+        if question["verdict"] == "stale" and not e["fresh"] and set(e["reasons"]) & set(question["reasons"]):
+            found.append(e)
+    return found
+
+
+def test_the_deciding_document_decides_each_verdict(demo_scans):
+    _, first, _ = demo_scans
+    got = {q["id"]: q for q in first.run["questions"]}
+    wrong = []
+    for qid, row in expected().items():
+        q = got[qid]
+        if row["verdict"] == "gap":
+            if any(e["supporting"] for e in q["evidence"]):
+                wrong.append(f"{qid}: a gap with supporting evidence {[e['document'] for e in q['evidence']]}")
+        elif not deciding_passages(q, row["document"]):
+            shown = [(e["document"], e["supporting"], e["fresh"], e["reasons"]) for e in q["evidence"]]
+            wrong.append(f"{qid}: {row['document']} does not decide the {q['verdict']} verdict; evidence {shown}")
+    assert not wrong, "\n".join(wrong)
+
+
+def test_the_promised_flags_and_no_others_of_their_kind(demo_scans):
+    _, first, _ = demo_scans
+    got = {q["id"]: sorted(set(q["flags"]) & PROMISED_FLAGS) for q in first.run["questions"]}
+    want = {qid: split(row["flags"]) for qid, row in expected().items()}
+    assert got == want
+    # The fixture's own premise for file_dated: q43 rests on the undated contact directory alone.
+    (q43,) = [q for q in first.run["questions"] if q["id"] == "q43"]
+    fresh = [e for e in q43["evidence"] if e["supporting"] and e["fresh"]]
+    assert {(e["document"], e["as_of_source"]) for e in fresh} == {("customer-care/contact-directory.txt", "file")}
 
 
 def test_every_verdict_and_stale_reason_occurs(demo_scans):
@@ -112,10 +161,6 @@ def test_results_json_follows_format_1(demo_scans):
     assert data["format"] == 1
     assert RUN_KEYS <= set(data["run"]) and {"documents", "passages", "failed"} <= set(data["run"]["corpus"])
     assert SUMMARY_KEYS <= set(data["summary"])
-    assert data["summary"]["questions"] == len(data["questions"]) == len(expected())
-    assert (
-        data["summary"]["covered"] + data["summary"]["stale"] + data["summary"]["gap"] == data["summary"]["questions"]
-    )
     for q in data["questions"]:
         assert QUESTION_KEYS <= set(q)
         for e in q["evidence"]:
@@ -123,13 +168,49 @@ def test_results_json_follows_format_1(demo_scans):
     # Questions keep the order of the question set.
     with open(DEMO / "questions.csv", newline="", encoding="utf-8") as f:
         assert [q["id"] for q in data["questions"]] == [row["id"] for row in csv.DictReader(f)]
-    # The demo ships one broken PDF: it is reported, and the run still finished.
-    assert data["ingest_errors"] and all({"document", "error"} <= set(e) for e in data["ingest_errors"])
-    gap_weight = sum(q["weight"] for q in data["questions"] if q["verdict"] == "gap")
-    assert data["summary"]["fallback_exposure"] == pytest.approx(gap_weight / data["summary"]["weight"])
     for name in ("index.html", "gaps.csv"):
         assert (first.out_dir / name).is_file()
     assert list((first.out_dir / "owners").glob("*.csv"))
+
+
+def test_results_json_values_are_the_demos(demo_scans):
+    config, first, second = demo_scans
+    data = json.loads((first.out_dir / "results.json").read_text(encoding="utf-8"))
+    run, summary = data["run"], data["summary"]
+    # Both scans write the same report folder (reports/<audit date>/): the file is the second run's.
+    assert second.out_dir == first.out_dir and run["id"] == second.run["run"]["id"] == 2
+    # fixtures/demo/README.md: audit date 2026-12-01, default horizon 365 days.
+    assert run["as_of"] == "2026-12-01" and run["horizon_days"] == 365
+    # README: 25 files in kb/; the writing template is excluded by config and scan-2019.pdf is broken
+    # on purpose, so 23 documents are audited and 1 failed.
+    assert sum(1 for p in (DEMO / "kb").rglob("*") if p.is_file()) == 25
+    assert (run["corpus"]["documents"], run["corpus"]["failed"]) == (23, 1)
+    with Store(config.database) as store:
+        # The same scan's database: every passage of an ingested document is counted once.
+        passages = store.query(
+            "SELECT count(*) AS n FROM passages JOIN documents ON documents.id = passages.document_id "
+            "WHERE documents.status = 'active'"
+        )[0]["n"]
+    assert run["corpus"]["passages"] == passages and passages > 23
+    # The one ingest error is the broken PDF, named in the project's one-line error form.
+    assert [e["document"] for e in data["ingest_errors"]] == ["quality/scan-2019.pdf"]
+    broken = config.source.parent / "kb" / "quality" / "scan-2019.pdf"
+    assert data["ingest_errors"][0]["error"].startswith(f"{str(broken)!r}: ")
+    assert "\n" not in data["ingest_errors"][0]["error"]
+    # README "Which question exercises what": covered q01-q26 and q43 (27), stale q27-q35 (9), gap
+    # q36-q42 (7); weights from questions.csv. README gate line: fallback exposure 184/1662, stale
+    # exposure 179/1662.
+    assert (summary["questions"], summary["covered"], summary["stale"], summary["gap"]) == (43, 27, 9, 7)
+    with open(DEMO / "questions.csv", newline="", encoding="utf-8") as f:
+        weights = {row["id"]: float(row["weight"]) for row in csv.DictReader(f)}
+    assert summary["weight"] == sum(weights.values()) == 1662
+    assert sum(weights[f"q{i}"] for i in range(36, 43)) == 184
+    assert sum(weights[f"q{i}"] for i in range(27, 36)) == 179
+    assert summary["fallback_exposure"] == pytest.approx(184 / 1662)
+    assert summary["stale_exposure"] == pytest.approx(179 / 1662)
+    assert [q["weight"] for q in data["questions"]] == [weights[q["id"]] for q in data["questions"]]
+    # The gate of audit.toml passes with these figures (README: limits 0.25, 0.20, 0.30, 0.20).
+    assert data["gate"]["passed"] is True
 
 
 def test_second_scan_reparses_nothing_and_gives_identical_results(demo_scans):
@@ -174,12 +255,31 @@ def test_audit_of_a_query_log_reports_merges_and_redactions(demo_scans, tmp_path
             str(tmp_path / "log-report"),
         ],
     )
-    assert result.exit_code in (0, 3), result.output
-    summary = [line for line in result.stderr.splitlines() if line.startswith("querylog.csv: ")]
-    assert summary and "merged" in summary[0] and "redacted" in summary[0]
+    # Counted by hand from querylog.csv (fixtures/demo/README.md "Query log": 41 lines, six with
+    # personal data). Exact duplicates, same words up to case and punctuation: the phone-payment
+    # question 3 lines (2 merged), and 2 lines each of report a leak, late fee, water my lawn, brown
+    # water, autopay, irrigation rebate, payment plan (1 merged each): 9. Near duplicates at the default
+    # Jaccard 0.85 (auditor/questions/querylog.py): "how do i pay my water bill by phone" (8/9 of its words
+    # shared) and "how do i report a water leak in the street" (9/10); "what is the late fee amount"
+    # (5/6 = 0.83) stays apart: 2. So 41 - 11 = 30 questions. Redacted: the two example.org/.com
+    # addresses, the two 555-01xx numbers, the test card written twice.
+    lines = result.stderr.splitlines()
+    assert lines[0] == (
+        "querylog.csv: 41 log lines -> 30 questions (9 exact and 2 near duplicates merged, 0 empty); "
+        "redacted 2 email, 2 phone, 2 card"
+    )
     data = json.loads((tmp_path / "log-report" / "results.json").read_text(encoding="utf-8"))
+    summary = data["summary"]
+    assert summary["questions"] == 30
+    # The log asks what the demo's question set shows are gaps (autopay, paperless, trash pickup, water
+    # softeners) and five personal requests the help centre cannot answer, so its gap share, 9/30,
+    # is over audit.toml's 0.25: the gate fails and the audit exits 3 (docs/scheduling.md exit codes).
+    assert summary["gap"] == 9
+    assert result.exit_code == 3, result.output
+    assert lines[1:] == ["gate failed: gap_share 0.30 > max 0.25"]
     # Weights are traffic counts: they add up to the log's total count (merging keeps every hit).
     with open(DEMO / "querylog.csv", newline="", encoding="utf-8") as f:
         total = sum(int(row["count"]) for row in csv.DictReader(f) if row["text"].strip())
-    assert data["summary"]["weight"] == pytest.approx(total)
-    assert "@example" not in json.dumps(data)
+    assert total == 854  # README
+    assert summary["weight"] == pytest.approx(total)
+    assert "@example" not in json.dumps(data) and "4111" not in json.dumps(data)

@@ -110,7 +110,7 @@ def test_every_question_has_an_expected_verdict_and_back():
 
 def test_expected_verdicts_cover_every_verdict_and_reason():
     rows = read_csv("expected.csv")
-    assert list(rows[0]) == ["id", "verdict", "reasons", "document", "why"]
+    assert list(rows[0]) == ["id", "verdict", "reasons", "flags", "document", "why"]
     docs = set(kb_documents())
     seen_reasons = set()
     for r in rows:
@@ -119,6 +119,9 @@ def test_expected_verdicts_cover_every_verdict_and_reason():
         assert set(reasons) <= set(STALE_REASONS), r
         assert bool(reasons) == (r["verdict"] == "stale"), f"{r['id']}: reasons only and always on stale"
         seen_reasons.update(reasons)
+        # the flags the README promises; both are flags of a covered verdict (auditor/judgement/support.py)
+        assert set(filter(None, r["flags"].split(";"))) <= {"stale_competitor", "file_dated"}, r
+        assert not r["flags"] or r["verdict"] == "covered", r
         assert r["why"].strip(), r
         if r["verdict"] == "gap":
             assert r["document"] == "", r
