@@ -1,7 +1,7 @@
 """The report in a real browser: Debian's headless Chromium driven by Playwright's Python package.
 
-Skipped cleanly when Chromium or Playwright is missing. Screenshots and timings go to
-test-artifacts/ (git-ignored).
+Skipped cleanly when Chromium or Playwright is missing. Screenshots go to test-artifacts/
+(git-ignored); timings are bench/report_browser.py's.
 """
 
 from __future__ import annotations
@@ -244,17 +244,11 @@ def test_a_bare_format1_run_works_in_the_browser(tmp_path, browser):
     p.close()
 
 
-def metrics(cdp) -> dict:
-    return {m["name"]: m["value"] for m in cdp.send("Performance.getMetrics")["metrics"]}
-
-
 @pytest.mark.slow
-def test_large_run_opens_and_filters_within_a_second(tmp_path_factory, browser):
-    """10,000 questions: page size, time to open and to filter, rows built by the script.
+def test_large_run_opens_and_filters(tmp_path_factory, browser):
+    """10,000 questions: page size, the first rows listed, filters, rows built by the script.
 
-    Times are the renderer main thread's CPU time (Chrome DevTools Protocol Performance.getMetrics
-    "ThreadTime"), which other work on a shared machine does not inflate the way it does wall
-    time; wall times are recorded beside them in test-artifacts/report-large-timing.json.
+    How fast it opens and filters is measured by bench/report_browser.py, not here.
     """
     from auditor.report.html import SERVER_ROWS, verdict_sentence
 
@@ -266,40 +260,17 @@ def test_large_run_opens_and_filters_within_a_second(tmp_path_factory, browser):
     errors = []
     p.on("console", lambda m: errors.append(m.text) if m.type == "error" else None)
     p.on("pageerror", lambda e: errors.append(str(e)))
-    cdp = p.context.new_cdp_session(p)
-    cdp.send("Performance.enable", {"timeDomain": "threadTicks"})
     p.goto(index.as_uri())
     p.wait_for_selector("html[data-ready]", state="attached")
-    opened_cpu = metrics(cdp)["ThreadTime"]
-    opened_wall = p.evaluate("() => performance.getEntriesByType('navigation')[0].domContentLoadedEventEnd")
     assert p.inner_text("#shown") == "10000 of 10000 questions shown (the first 500 listed)"
     assert p.locator(VISIBLE_ROWS).count() == 500
 
-    def timed(script):
-        before = metrics(cdp)["ThreadTime"]
-        wall = p.evaluate(script)
-        return metrics(cdp)["ThreadTime"] - before, wall
-
     gaps = [i for i, q in enumerate(run["questions"]) if q["verdict"] == "gap"]
-    filter_cpu, filter_wall = timed("""() => {
-        const s = document.getElementById('f-verdict');
-        const t0 = performance.now();
-        s.value = 'gap';
-        s.dispatchEvent(new Event('change'));
-        document.body.getBoundingClientRect();  // force the layout the filter causes
-        return performance.now() - t0;
-    }""")
+    p.select_option("#f-verdict", "gap")
     assert p.inner_text("#shown").startswith(f"{len(gaps)} of 10000 questions shown")
     assert p.locator(VISIBLE_ROWS).count() == min(500, len(gaps))
     leak = [i for i in gaps if "leak" in run["questions"][i]["question"].lower()]
-    search_cpu, search_wall = timed("""() => {
-        const s = document.getElementById('f-text');
-        const t0 = performance.now();
-        s.value = 'leak';
-        s.dispatchEvent(new Event('input'));
-        document.body.getBoundingClientRect();
-        return performance.now() - t0;
-    }""")
+    p.fill("#f-text", "leak")
     ids = p.locator(f"{VISIBLE_ROWS} .qid").all_text_contents()
     assert ids == [run["questions"][i]["id"] for i in leak][:500]
     if p.is_visible("#show-all"):
@@ -308,7 +279,7 @@ def test_large_run_opens_and_filters_within_a_second(tmp_path_factory, browser):
     # A row past the server-written ones is built by the script, with its explanation and evidence.
     late = next(i for i in leak if i >= SERVER_ROWS)
     p.click(f"#q{late} summary")
-    p.locator(f"#q{late} + tr.ev-row").wait_for(timeout=2000)
+    p.locator(f"#q{late} + tr.ev-row").wait_for()
     assert p.locator(f"#q{late} + tr.ev-row article.ev").count() == 3
     q = run["questions"][late]
     assert shown_text(p.locator(f"#q{late} .why p").first) == verdict_sentence(q, run["run"]["thresholds"])
@@ -317,22 +288,6 @@ def test_large_run_opens_and_filters_within_a_second(tmp_path_factory, browser):
     assert p.locator(f"#q{late} .why .chip.miss").all_text_contents() == q["missing_terms"]
     ARTIFACTS.mkdir(exist_ok=True)
     p.screenshot(path=str(ARTIFACTS / "report-large.png"))
-    timing = {
-        "questions": len(run["questions"]),
-        "page_bytes": size,
-        "open_cpu_ms": round(opened_cpu * 1000),
-        "open_wall_ms": round(opened_wall),
-        "filter_verdict_cpu_ms": round(filter_cpu * 1000),
-        "filter_verdict_wall_ms": round(filter_wall),
-        "filter_text_cpu_ms": round(search_cpu * 1000),
-        "filter_text_wall_ms": round(search_wall),
-    }
-    (ARTIFACTS / "report-large-timing.json").write_text(json.dumps(timing, indent=2) + "\n")
-    print(timing)
     assert errors == []
-    assert size < 15_000_000
-    # The issue's target: the page opens and filters within a second.
-    assert (
-        timing["open_cpu_ms"] < 1000 and timing["filter_verdict_cpu_ms"] < 1000 and timing["filter_text_cpu_ms"] < 1000
-    ), timing
+    assert size < 15_000_000  # the report's size target for 10,000 questions (bench/README.md, scale.py)
     p.close()
