@@ -143,9 +143,7 @@ def main() -> int:
     ours = statistics.median(r["open_cpu_ms"] for r in rows["ours"])
     reference = statistics.median(r["open_cpu_ms"] for r in rows["bare table"])
     print(f"open CPU, median: ours {ours:.0f} ms, bare table {reference:.0f} ms, ratio {ours / reference:.2f}")
-    worst = max(
-        max(r["open_cpu_ms"], r["filter_verdict_cpu_ms"], r["filter_text_cpu_ms"]) for r in rows["ours"]
-    )
+    worst = max(max(r["open_cpu_ms"], r["filter_verdict_cpu_ms"], r["filter_text_cpu_ms"]) for r in rows["ours"])
     verdict = "within" if worst < TARGET_MS else "over"
     print(f"target: open and filter within {TARGET_MS} ms of CPU: worst {worst:.0f} ms, {verdict} the target")
     return 0
