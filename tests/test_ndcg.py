@@ -46,13 +46,13 @@ def scifact():
 def test_scifact_is_read_beside_whichever_checkout_runs(tmp_path):
     # The reader copied into another checkout looks in that checkout's ../shared, not in a fixed
     # folder: with nothing there it finds nothing, and with the data linked there it reads it.
-    checkout = tmp_path / "elsewhere" / "corpus-auditor"
+    checkout = tmp_path.resolve() / "elsewhere" / "corpus-auditor"
     (checkout / "bench").mkdir(parents=True)
     shutil.copy(REPO / "bench" / "claims_data.py", checkout / "bench" / "claims_data.py")
     spec = importlib.util.spec_from_file_location("claims_data_elsewhere", checkout / "bench" / "claims_data.py")
     module = importlib.util.module_from_spec(spec)
     spec.loader.exec_module(module)
-    assert module.FOLDER == tmp_path / "elsewhere" / "shared" / "data" / "scifact"
+    assert module.FOLDER == checkout.parent / "shared" / "data" / "scifact"
     assert module.load_scifact() is None
     if (FOLDER / "scifact.zip").is_file():
         module.FOLDER.parent.mkdir(parents=True)
