@@ -18,6 +18,19 @@ import click
 from auditor import __version__
 from auditor.config import Config, load_config
 from auditor.errors import AuditorError, InputError
+from auditor.history.diff import diff_runs, format_diff
+from auditor.history.lock import ScanLock
+from auditor.history.runs import format_runs, list_runs, load_run, previous_run
+from auditor.ingest.pipeline import ingest_corpus
+from auditor.judgement.calibrate import calibrate as run_calibrate
+from auditor.judgement.calibrate import format_calibration
+from auditor.report import write_report
+from auditor.results import Run
+from auditor.retrieval.index import PassageIndex, describe_hits
+from auditor.scan import audit_and_report, default_out_dir, load_question_files, question_lines, summary_lines
+from auditor.scan import scan as run_scan
+from auditor.store import Store
+from auditor.temporal.extract import extract
 
 EXIT_GATE_FAILED = 3
 
@@ -110,24 +123,20 @@ def cli():
 @quiet_option
 def scan(config_path, as_of, out, wait, jobs, quiet):
     """The main job: ingest, audit, compare with the last run, gate, report."""
-    from auditor.scan import scan as run_scan
-    from auditor.scan import summary_lines
-
     config = _config(config_path, as_of=as_of, out=out)
     outcome = run_scan(config, wait=wait, jobs=jobs, progress=_progress(quiet))
     for line in outcome.question_lines:
         click.echo(line, err=True)
     click.echo(f"ingest: {outcome.ingest_line}")
-    _finish(outcome.run, outcome.out_dir, summary_lines)
+    _finish(outcome.run, outcome.out_dir)
 
 
-def _finish(run: dict, out_dir: Path, summary_lines) -> None:
+def _finish(run: Run, out_dir: Path) -> None:
     for line in summary_lines(run):
         click.echo(line)
     click.echo(f"report: {out_dir / 'index.html'}")
-    gate = run.get("gate")
-    if gate is not None and not gate["passed"]:
-        click.echo(gate["message"], err=True)
+    if run.gate is not None and not run.gate.passed:
+        click.echo(run.gate.message, err=True)
         sys.exit(EXIT_GATE_FAILED)
 
 
@@ -140,10 +149,6 @@ def _finish(run: dict, out_dir: Path, summary_lines) -> None:
 @quiet_option
 def ingest(paths, config_path, db, jobs, wait, quiet):
     """Ingest documents under PATH... into the database (unchanged files are skipped)."""
-    from auditor.history.lock import ScanLock
-    from auditor.ingest.pipeline import ingest_corpus
-    from auditor.store import Store
-
     config = _config(config_path, db=db)
     with ScanLock(config.database, wait=wait), Store(config.database) as store:
         summary = ingest_corpus(store, config, paths=[Path(p) for p in paths], jobs=jobs, progress=_progress(quiet))
@@ -168,17 +173,13 @@ def ingest(paths, config_path, db, jobs, wait, quiet):
 @wait_option
 def audit(question_files, config_path, db, as_of, horizon, out, wait):
     """Audit the stored corpus against a question set and write the report."""
-    from auditor.history.lock import ScanLock
-    from auditor.scan import audit_and_report, load_question_files, question_lines, summary_lines
-    from auditor.store import Store
-
     config = _config(config_path, db=db, as_of=as_of, horizon=horizon, out=out)
     sets = load_question_files(config, [Path(p) for p in question_files] or None)
     for line in question_lines(sets):
         click.echo(line, err=True)
     with ScanLock(config.database, wait=wait), Store(config.database) as store:
         run, out_dir = audit_and_report(store, config, sets, as_of=config.audit_date())
-    _finish(run, out_dir, summary_lines)
+    _finish(run, out_dir)
 
 
 @cli.command()
@@ -188,15 +189,10 @@ def audit(question_files, config_path, db, as_of, horizon, out, wait):
 @click.option("--out", type=click.Path(file_okay=False), help="Report folder (default: reports/<as-of>/).")
 def report(config_path, db, run_id, out):
     """Write the report of a stored run again, without re-auditing."""
-    from auditor.history.runs import load_run
-    from auditor.report import write_report
-    from auditor.scan import default_out_dir
-    from auditor.store import Store
-
     config = _config(config_path, db=db, out=out)
     with Store(config.database) as store:
         run = load_run(store, run_id)
-    out_dir = default_out_dir(config, date.fromisoformat(run["run"]["as_of"]))
+    out_dir = default_out_dir(config, date.fromisoformat(run.info.as_of))
     click.echo(f"report: {write_report(run, out_dir)}")
 
 
@@ -205,9 +201,6 @@ def report(config_path, db, run_id, out):
 @db_option
 def runs(config_path, db):
     """Run history."""
-    from auditor.history.runs import format_runs, list_runs
-    from auditor.store import Store
-
     with Store(_config(config_path, db=db).database) as store:
         click.echo(format_runs(list_runs(store)))
 
@@ -219,13 +212,10 @@ def runs(config_path, db):
 @db_option
 def diff(base, head, config_path, db):
     """What changed between two runs (default: the newest and the one before it)."""
-    from auditor.history.runs import diff_runs, format_diff, load_run, previous_run
-    from auditor.store import Store
-
     with Store(_config(config_path, db=db).database) as store:
         head_run = load_run(store, head)
         if base is None:
-            base = previous_run(store, head_run["run"]["id"])
+            base = previous_run(store, head_run.info.id) if head_run.info.id is not None else None
             if base is None:
                 raise InputError(f"{str(store.path)!r}: only one run stored; nothing to compare with")
         click.echo(format_diff(diff_runs(load_run(store, base), head_run)))
@@ -242,14 +232,9 @@ def diff(base, head, config_path, db):
 @click.option("--hemisphere", type=click.Choice(["north", "south"]), help="For seasons (default: the config's).")
 def dates(files, config_path, reference_date, day_first, fiscal_year_start, hemisphere):
     """Temporal expressions in FILE... (or standard input) as JSON lines."""
-    from auditor.temporal.extract import extract
-
     corpus = _config(config_path).corpus
-    settings = {
-        "day_first": corpus.day_first if day_first is None else day_first,
-        "fiscal_year_start": fiscal_year_start or corpus.fiscal_year_start,
-        "hemisphere": hemisphere or corpus.hemisphere,
-    }
+    if day_first is None:
+        day_first = corpus.day_first
     for name in files or ("-",):
         if name == "-":
             text = sys.stdin.read()
@@ -258,7 +243,13 @@ def dates(files, config_path, reference_date, day_first, fiscal_year_start, hemi
                 text = Path(name).read_text(encoding="utf-8", errors="replace")
             except OSError as exc:
                 raise InputError(f"{name!r}: cannot read ({exc.strerror})") from None
-        for expression in extract(text, reference_date or date.today(), **settings):
+        for expression in extract(
+            text,
+            reference_date or date.today(),
+            day_first=day_first,
+            fiscal_year_start=fiscal_year_start or corpus.fiscal_year_start,
+            hemisphere=hemisphere or corpus.hemisphere,
+        ):
             click.echo(json.dumps(expression.as_json(), ensure_ascii=False))
 
 
@@ -270,9 +261,6 @@ def dates(files, config_path, reference_date, day_first, fiscal_year_start, hemi
 @click.option("--json", "as_json", is_flag=True, help="JSON instead of text.")
 def search(query, config_path, db, k, as_json):
     """Top passages for QUERY with a per-term score breakdown."""
-    from auditor.retrieval.index import PassageIndex, describe_hits
-    from auditor.store import Store
-
     config = _config(config_path, db=db)
     with Store(config.database) as store:
         result = PassageIndex.load_or_build(store, config.retrieval).search(query, k)
@@ -316,10 +304,6 @@ def search(query, config_path, db, k, as_json):
 )
 def calibrate(labels, config_path, db, target_precision, holdout):
     """Choose support thresholds from labelled questions; later audits use them."""
-    from auditor.judgement.calibrate import calibrate as run_calibrate
-    from auditor.judgement.calibrate import format_calibration
-    from auditor.store import Store
-
     config = _config(config_path, db=db)
     with Store(config.database) as store:
         outcome = run_calibrate(store, config, Path(labels), target_precision=target_precision, holdout=holdout)

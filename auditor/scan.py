@@ -11,16 +11,26 @@ from pathlib import Path
 
 from auditor.config import Config
 from auditor.errors import InputError
+from auditor.history.diff import diff_runs
+from auditor.history.gate import evaluate_gate
+from auditor.history.lock import ScanLock
+from auditor.history.runs import apply_retention, load_run, previous_run, record_gate, update_latest
+from auditor.ingest.pipeline import ingest_corpus
+from auditor.judgement.audit import run_audit
 from auditor.models import Question
+from auditor.questions.querylog import QueryLogSummary
+from auditor.questions.sets import read_question_file, store_questions
+from auditor.report import write_report
+from auditor.results import GateResult, Run
 from auditor.store import Store
 
 
 @dataclass
 class ScanOutcome:
-    run: dict
+    run: Run
     out_dir: Path
     ingest_line: str
-    gate: dict | None
+    gate: GateResult | None
     question_lines: list[str]
 
 
@@ -33,13 +43,11 @@ def default_out_dir(config: Config, as_of: date) -> Path:
 class QuestionSet:
     path: Path
     questions: list[Question]
-    log_summary: object | None  # querylog.QueryLogSummary when the file was a query log
+    log_summary: QueryLogSummary | None  # when the file was a query log
 
 
 def load_question_files(config: Config, paths: list[Path] | None = None) -> list[QuestionSet]:
     """Every configured question file, in order; ids must stay unique across files."""
-    from auditor.questions.sets import read_question_file
-
     files = list(paths or config.questions)
     if not files:
         where = repr(str(config.source)) if config.source else "the command line"
@@ -62,8 +70,6 @@ def load_question_files(config: Config, paths: list[Path] | None = None) -> list
 def store_question_sets(store: Store, sets: list[QuestionSet]) -> list[Question]:
     """Keep each set in the store (redacted already: query logs are cleaned on import) and return
     all questions in order."""
-    from auditor.questions.sets import store_questions
-
     for qset in sets:
         store_questions(store, qset.questions, qset.path.name)
     return [q for qset in sets for q in qset.questions]
@@ -78,22 +84,17 @@ def audit_and_report(
     horizon_days: int | None = None,
     out_dir: Path | None = None,
     gate: bool = True,
-) -> tuple[dict, Path]:
+) -> tuple[Run, Path]:
     """Audit, attach the diff against the previous run and the gate outcome, write the report."""
-    from auditor.history.gate import evaluate_gate
-    from auditor.history.runs import apply_retention, diff_runs, load_run, previous_run, record_gate, update_latest
-    from auditor.judgement.audit import run_audit
-    from auditor.report import write_report
-
     questions = store_question_sets(store, sets)
     run = run_audit(store, config, questions, as_of=as_of, horizon_days=horizon_days)
-    run_id = run["run"]["id"]
+    run_id = run.info.id
+    assert run_id is not None  # run_audit stored it
     base_id = previous_run(store, run_id)
-    run["diff"] = diff_runs(load_run(store, base_id), run) if base_id is not None else None
-    run["history"] = load_run(store, run_id).get("history", [])
-    run["gate"] = evaluate_gate(run, run["diff"], config.gate) if gate else None
-    if run["gate"] is not None:
-        record_gate(store, run_id, run["gate"])
+    run.diff = diff_runs(load_run(store, base_id), run) if base_id is not None else None
+    run.gate = evaluate_gate(run, run.diff, config.gate) if gate else None
+    if run.gate is not None:
+        record_gate(store, run_id, run.gate)
     out_dir = out_dir or default_out_dir(config, as_of)
     write_report(run, out_dir)
     update_latest(out_dir)
@@ -112,9 +113,6 @@ def scan(
     jobs: int | None = None,
 ) -> ScanOutcome:
     """The whole job under the scan lock: ingest, audit, diff, gate, report."""
-    from auditor.history.lock import ScanLock
-    from auditor.ingest.pipeline import ingest_corpus
-
     as_of = as_of or config.audit_date()
     sets = load_question_files(config)  # fail on a bad question file before any work
     with ScanLock(config.database, wait=wait):
@@ -122,7 +120,7 @@ def scan(
             summary = ingest_corpus(store, config, jobs=jobs, progress=progress)
             run, out_dir = audit_and_report(store, config, sets, as_of=as_of, out_dir=out_dir)
     return ScanOutcome(
-        run=run, out_dir=out_dir, ingest_line=summary.line(), gate=run.get("gate"), question_lines=question_lines(sets)
+        run=run, out_dir=out_dir, ingest_line=summary.line(), gate=run.gate, question_lines=question_lines(sets)
     )
 
 
@@ -131,16 +129,16 @@ def question_lines(sets: list[QuestionSet]) -> list[str]:
     return [f"{qset.path.name}: {qset.log_summary.line()}" for qset in sets if qset.log_summary is not None]
 
 
-def summary_lines(run: dict) -> list[str]:
+def summary_lines(run: Run) -> list[str]:
     """The few lines a lead reads in the terminal after a scan or audit."""
-    s = run["summary"]
-    corpus = run["run"]["corpus"]
+    s, info = run.summary, run.info
+    corpus = info.corpus
     lines = [
-        f"audit {run['run']['as_of']} (run {run['run']['id']}, horizon {run['run']['horizon_days']} days): "
-        f"{corpus['documents']} documents, {corpus['passages']} passages, {corpus['failed']} failed",
-        f"{s['questions']} questions: {s['covered']} covered, {s['stale']} stale, {s['gap']} gap",
-        f"weighted fallback exposure {s['fallback_exposure']:.1%}, stale exposure {s['stale_exposure']:.1%}",
+        f"audit {info.as_of} (run {info.id}, horizon {info.horizon_days} days): "
+        f"{corpus.documents} documents, {corpus.passages} passages, {corpus.failed} failed",
+        f"{s.questions} questions: {s.covered} covered, {s.stale} stale, {s.gap} gap",
+        f"weighted fallback exposure {s.fallback_exposure:.1%}, stale exposure {s.stale_exposure:.1%}",
     ]
-    if run.get("diff"):
-        lines.append(f"since run {run['diff'].get('base_run', '?')}: {run['diff'].get('summary', '')}")
+    if run.diff:
+        lines.append(f"since run {run.diff.base_run}: {run.diff.summary}")
     return lines

@@ -10,8 +10,9 @@ from __future__ import annotations
 import contextlib
 import json
 import sqlite3
-from collections.abc import Iterator
+from collections.abc import Iterator, Sequence, Sized
 from pathlib import Path
+from typing import TypeVar
 
 import sqlite_utils
 
@@ -157,7 +158,12 @@ CREATE TABLE IF NOT EXISTS calibrations (
 
 # Documents whose passages are searched: a file that failed to re-parse keeps its last good version
 # searchable (the assistant's own index most likely still holds it) while the report lists the error.
-SEARCHED_STATUSES = "('active', 'failed')"
+SEARCHED = ("active", "failed")
+SEARCHED_STATUSES = "(" + ", ".join(f"'{status}'" for status in SEARCHED) + ")"  # the same, as SQL
+
+# Values bound in one `IN (?, ...)` list: well under SQLite's SQLITE_MAX_VARIABLE_NUMBER (999 before 3.32).
+CHUNK = 500
+_T = TypeVar("_T")
 
 # version -> SQL that brings a database of version-1 to that version.
 MIGRATIONS: dict[int, str] = {}
@@ -248,6 +254,17 @@ class Store:
 
     def __exit__(self, *exc) -> None:
         self.close()
+
+
+def chunked(values: Sequence[_T], size: int = CHUNK) -> Iterator[Sequence[_T]]:
+    """`values` in slices of at most `size`, for `IN (...)` queries over long id lists."""
+    for start in range(0, len(values), size):
+        yield values[start : start + size]
+
+
+def marks(values: Sized) -> str:
+    """The `?, ?, ...` placeholders of an `IN (...)` list of `values`."""
+    return ",".join("?" * len(values))
 
 
 def dumps(value) -> str:

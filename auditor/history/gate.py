@@ -19,6 +19,7 @@ A figure passes when it is at most its limit; limits left unset (None) are not c
 from __future__ import annotations
 
 from auditor.config import GateConfig
+from auditor.results import Diff, GateCheck, GateResult, Run
 
 # limit (the config key) -> figure it bounds; the order of the checks and of the message.
 LIMITS = {
@@ -30,31 +31,27 @@ LIMITS = {
 }
 
 
-def gate_figures(run: dict, diff: dict | None) -> dict[str, float | int]:
-    """The figures the limits bound, computed from the run object and its diff (see module doc)."""
-    questions = run.get("questions", [])
-    summary = run.get("summary", {})
-    total = summary.get("questions", len(questions))
-    gaps = summary.get("gap", sum(q["verdict"] == "gap" for q in questions))
-    stale = summary.get("stale", sum(q["verdict"] == "stale" for q in questions))
+def gate_figures(run: Run, diff: Diff | None) -> dict[str, float | int]:
+    """The figures the limits bound, computed from the run's summary and its diff (see module doc)."""
+    summary = run.summary
+    total = summary.questions
     if diff is None:
-        new_gaps = sum(q["verdict"] == "gap" for q in questions)
+        new_gaps = summary.gap
     else:
-        new_gaps = len(diff["new_gaps"]) + sum(item["after"] == "gap" for item in diff["added"])
+        new_gaps = len(diff.new_gaps) + sum(item.after == "gap" for item in diff.added)
     return {
-        "gap_share": gaps / total if total else 0.0,
-        "fallback_exposure": float(summary.get("fallback_exposure", 0.0)),
-        "stale_share": stale / total if total else 0.0,
-        "stale_exposure": float(summary.get("stale_exposure", 0.0)),
+        "gap_share": summary.gap / total if total else 0.0,
+        "fallback_exposure": float(summary.fallback_exposure),
+        "stale_share": summary.stale / total if total else 0.0,
+        "stale_exposure": float(summary.stale_exposure),
         "new_gaps": int(new_gaps),
     }
 
 
-def evaluate_gate(run: dict, diff: dict | None, limits: GateConfig) -> dict:
+def evaluate_gate(run: Run, diff: Diff | None, limits: GateConfig) -> GateResult:
     """Check the run against the configured limits.
 
-    Returns {"passed": bool, "checks": [{"limit", "figure", "max", "value", "passed"}],
-    "message": one line}, e.g. "gate failed: fallback_exposure 0.27 > max 0.20".
+    The message is one line, e.g. "gate failed: fallback_exposure 0.27 > max 0.20".
     """
     figures = gate_figures(run, diff)
     checks = []
@@ -63,20 +60,20 @@ def evaluate_gate(run: dict, diff: dict | None, limits: GateConfig) -> dict:
         if maximum is None:
             continue
         value = figures[figure]
-        checks.append({"limit": limit, "figure": figure, "max": maximum, "value": value, "passed": value <= maximum})
-    failed = [c for c in checks if not c["passed"]]
+        checks.append(GateCheck(limit=limit, figure=figure, max=maximum, value=value, passed=value <= maximum))
+    failed = [c for c in checks if not c.passed]
     if failed:
         message = "gate failed: " + ", ".join(_describe(c, ">") for c in failed)
     elif checks:
         message = "gate passed: " + ", ".join(_describe(c, "<=") for c in checks)
     else:
         message = "gate passed: no limits set"
-    return {"passed": not failed, "checks": checks, "message": message}
+    return GateResult(passed=not failed, checks=checks, message=message)
 
 
-def _describe(check: dict, relation: str) -> str:
-    value, maximum = _pair(check["value"], check["max"], integer=check["figure"] == "new_gaps")
-    return f"{check['figure']} {value} {relation} max {maximum}"
+def _describe(check: GateCheck, relation: str) -> str:
+    value, maximum = _pair(check.value, check.max, integer=check.figure == "new_gaps")
+    return f"{check.figure} {value} {relation} max {maximum}"
 
 
 def _pair(value: float, maximum: float, *, integer: bool) -> tuple[str, str]:

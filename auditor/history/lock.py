@@ -21,9 +21,9 @@ import sys
 import time
 import weakref
 from collections.abc import Callable
-from datetime import UTC, datetime
 from pathlib import Path
 
+from auditor.clock import utc_now
 from auditor.errors import StoreError
 
 POLL_SECONDS = 0.1  # how often a waiting scan retries; flock(2) itself has no timeout
@@ -92,7 +92,7 @@ class ScanLock:
                     time.sleep(min(POLL_SECONDS, max(0.0, deadline - time.monotonic())))
             left = _read_holder(fd)
             self.taken_over = left or None
-            self.holder = {"pid": os.getpid(), "host": socket.gethostname(), "started": _utc_now()}
+            self.holder = {"pid": os.getpid(), "host": socket.gethostname(), "started": utc_now()}
             _write(fd, json.dumps(self.holder) + "\n")
         except BaseException:
             os.close(fd)  # closing drops the flock too
@@ -177,10 +177,6 @@ def _read_holder(fd: int) -> dict:
 def _write(fd: int, text: str) -> None:
     os.ftruncate(fd, 0)
     os.pwrite(fd, text.encode("utf-8"), 0)
-
-
-def _utc_now() -> str:
-    return datetime.now(UTC).strftime("%Y-%m-%dT%H:%M:%SZ")
 
 
 def _tell_stderr(line: str) -> None:

@@ -1,52 +1,124 @@
-"""Run history: list stored runs, rebuild a run object, diff two runs, keep the last N.
+"""Stored runs: save a run, list the stored runs, load one back, keep the last N, point `latest` at a report.
 
 A run is stored as one `runs` row (summary, corpus, thresholds, ingest errors, report-only extras as
 JSON) and one `results` row per question (the results.json question object, in question-set order);
-see `store.SCHEMA`. `load_run` turns those rows back into the run object that `audit.run_audit`
-produced, so `auditor report --run ID` renders an old run exactly as it was, with its history, its
-diff against the run before it and its gate outcome.
+see `store.SCHEMA`. `save_run` writes them from an `auditor.results.Run`; `load_run` turns them back
+into the same run, so `auditor report --run ID` renders an old run exactly as it was, with its
+history, its diff against the run before it and its gate outcome. Runs stored by older versions,
+which lack keys added since, load through `Run.from_json`'s defaults.
 """
 
 from __future__ import annotations
 
 import json
 import os
+from collections.abc import Callable
+from dataclasses import dataclass
 from pathlib import Path
+from typing import Any, TypeVar
 
+from auditor.clock import utc_now
 from auditor.errors import AuditorError, StoreError
-from auditor.store import Store, dumps
+from auditor.history.diff import diff_runs
+from auditor.results import (
+    Brief,
+    DocumentEntry,
+    GateResult,
+    HistoryEntry,
+    IngestError,
+    QuestionResult,
+    Run,
+    RunInfo,
+    Summary,
+)
+from auditor.store import Store, chunked, dumps, marks
 
-# Diff categories, in the order a reader wants them: what got worse first.
-DIFF_CATEGORIES = ("new_gaps", "newly_stale", "resolved_gaps", "refreshed", "added", "removed")
+T = TypeVar("T")
 
-_LABELS = {  # singular, plural
-    "new_gaps": ("new gap", "new gaps"),
-    "newly_stale": ("newly stale", "newly stale"),
-    "resolved_gaps": ("resolved gap", "resolved gaps"),
-    "refreshed": ("refreshed", "refreshed"),
-    "added": ("question added", "questions added"),
-    "removed": ("question removed", "questions removed"),
-}
+
+@dataclass(kw_only=True)
+class StoredRun:
+    """A row of the run history (`auditor runs`); `summary` is None until the run is done."""
+
+    id: int
+    started: str | None
+    finished: str | None
+    status: str
+    as_of: str | None
+    horizon_days: int | None
+    summary: Summary | None
+
+
+# --- saving a run ---------------------------------------------------------------------------------
+
+
+def save_run(store: Store, run: Run) -> int:
+    """Store `run` in one transaction: the run row ('running'), its results, then 'done' with the
+    summary. Sets `run.info.id` and `run.info.finished` and returns the id."""
+    info = run.info
+    with store.transaction():
+        cursor = store.db.execute(
+            "INSERT INTO runs (started, status, as_of, horizon_days, config_fingerprint, corpus_fingerprint, "
+            "thresholds) VALUES (?, 'running', ?, ?, ?, ?, ?)",
+            [
+                info.started,
+                info.as_of,
+                info.horizon_days,
+                info.config_fingerprint,
+                info.corpus_fingerprint,
+                dumps(info.thresholds.to_json() if info.thresholds else {}),
+            ],
+        )
+        run_id = cursor.lastrowid
+        assert run_id is not None
+        info.id = run_id
+        store.db.conn.executemany(
+            "INSERT INTO results (run_id, position, qid, verdict, weight, result) VALUES (?, ?, ?, ?, ?, ?)",
+            [(run_id, i, q.id, q.verdict, q.weight, dumps(q.to_json())) for i, q in enumerate(run.questions)],
+        )
+        info.finished = utc_now()
+        store.db.execute(
+            "UPDATE runs SET status = 'done', finished = ?, corpus = ?, summary = ?, ingest_errors = ?, "
+            "extras = ? WHERE id = ?",
+            [
+                info.finished,
+                dumps(info.corpus.to_json()),
+                dumps(run.summary.to_json()),
+                dumps([e.to_json() for e in run.ingest_errors]),
+                dumps(
+                    {
+                        "documents": [d.to_json() for d in run.documents],
+                        "briefs": [b.to_json() for b in run.briefs],
+                        "title": info.title,
+                        "tokenizer": info.tokenizer.to_json() if info.tokenizer else None,
+                    }
+                ),
+                run_id,
+            ],
+        )
+    return run_id
 
 
 # --- reading runs ---------------------------------------------------------------------------------
 
 
-def list_runs(store: Store) -> list[dict]:
-    """Every stored run, oldest first: {id, started, finished, status, as_of, horizon_days, summary}."""
+def list_runs(store: Store) -> list[StoredRun]:
+    """Every stored run, oldest first."""
     rows = store.query("SELECT id, started, finished, status, as_of, horizon_days, summary FROM runs ORDER BY id")
+    runs = []
     for row in rows:
-        row["summary"] = _json(store, row["id"], "summary", row["summary"], {})
-    return rows
+        summary = _json(store, row["id"], "summary", row["summary"], {})
+        runs.append(StoredRun(**{**row, "summary": Summary.from_json(summary) if summary else None}))
+    return runs
 
 
-def load_run(store: Store, run_id: int | None = None) -> dict:
-    """The run object of a stored run (results.json format 1 plus the extensions of the contract).
+def load_run(store: Store, run_id: int | None = None) -> Run:
+    """A stored run, as `judgement.audit.run_audit` returned it.
 
     `run_id=None` loads the newest run with status 'done'. `history` lists the done runs before it
     (oldest first), `diff` compares it with the newest done run before it (None for the first run),
     `gate` is the stored gate outcome (None when no gate ran). Raises StoreError naming the
-    database and the run when there is no such finished run.
+    database and the run when there is no such finished run, or when its rows cannot be read.
     """
     if run_id is None:
         row = _one(store, "SELECT * FROM runs WHERE status = 'done' ORDER BY id DESC LIMIT 1")
@@ -67,11 +139,12 @@ def load_run(store: Store, run_id: int | None = None) -> dict:
                 f"only finished runs can be reported or compared"
             )
     run = _run_object(store, row)
-    run["history"] = history(store, row["id"])
+    run.history = history(store, row["id"])
     base_id = previous_run(store, row["id"])
     if base_id is not None:
-        base = _run_object(store, _one(store, "SELECT * FROM runs WHERE id = ?", [base_id]))
-        run["diff"] = diff_runs(base, run)
+        base_row = _one(store, "SELECT * FROM runs WHERE id = ?", [base_id])
+        assert base_row is not None
+        run.diff = diff_runs(_run_object(store, base_row), run)
     return run
 
 
@@ -85,46 +158,68 @@ def previous_run(store: Store, run_id: int) -> int | None:
     return row["id"] if row else None
 
 
-def history(store: Store, run_id: int) -> list[dict]:
-    """Done runs before `run_id`, oldest first, as {id, as_of, summary} for the report's trend chart."""
+def history(store: Store, run_id: int) -> list[HistoryEntry]:
+    """Done runs before `run_id`, oldest first, for the report's trend chart."""
     rows = store.query("SELECT id, as_of, summary FROM runs WHERE status = 'done' AND id < ? ORDER BY id", [run_id])
     return [
-        {"id": r["id"], "as_of": r["as_of"], "summary": _json(store, r["id"], "summary", r["summary"], {})}
+        HistoryEntry(
+            id=r["id"],
+            as_of=r["as_of"],
+            summary=Summary.from_json(_json(store, r["id"], "summary", r["summary"], {})),
+        )
         for r in rows
     ]
 
 
-def _run_object(store: Store, row: dict) -> dict:
+def _run_object(store: Store, row: dict) -> Run:
+    """The run of one `runs` row and its `results` rows (each part read as results.json format 1)."""
     run_id = row["id"]
-    extras = _json(store, run_id, "extras", row["extras"], {})
-    questions = [
-        _json(store, run_id, f"results[{r['position']}]", r["result"], None)
-        for r in store.query("SELECT position, result FROM results WHERE run_id = ? ORDER BY position", [run_id])
-    ]
-    return {
-        "format": 1,
-        "run": {
-            "id": run_id,
-            "as_of": row["as_of"],
-            "horizon_days": row["horizon_days"],
-            "started": row["started"],
-            "finished": row["finished"],
-            "title": extras.get("title"),
-            "tokenizer": extras.get("tokenizer"),
-            "corpus": _json(store, run_id, "corpus", row["corpus"], {}),
-            "thresholds": _json(store, run_id, "thresholds", row["thresholds"], {}),
-            "config_fingerprint": row["config_fingerprint"],
-            "corpus_fingerprint": row["corpus_fingerprint"],
-        },
-        "summary": _json(store, run_id, "summary", row["summary"], {}),
-        "questions": questions,
-        "ingest_errors": _json(store, run_id, "ingest_errors", row["ingest_errors"], []),
-        "documents": extras.get("documents", []),
-        "briefs": extras.get("briefs", []),
-        "history": [],
-        "diff": None,
-        "gate": _json(store, run_id, "gate", row["gate"], None) if row["gate"] else None,
+
+    def part(name: str, reader: Callable[[Any], T], data: Any) -> T:
+        try:
+            return reader(data)
+        except (KeyError, TypeError, ValueError, AttributeError) as exc:
+            raise StoreError(
+                f"{str(store.path)!r}: run {run_id} has an unreadable {name} ({type(exc).__name__}: {exc}); "
+                f"delete the run or restore the database from a backup"
+            ) from None
+
+    def column(name: str, default: Any) -> Any:
+        return _json(store, run_id, name, row[name], default)
+
+    extras = column("extras", {})
+    head = {
+        "id": run_id,
+        "as_of": row["as_of"],
+        "horizon_days": row["horizon_days"],
+        "started": row["started"],
+        "finished": row["finished"],
+        "title": extras.get("title"),
+        "tokenizer": extras.get("tokenizer"),
+        "corpus": column("corpus", {}),
+        "thresholds": column("thresholds", {}),
+        "config_fingerprint": row["config_fingerprint"],
+        "corpus_fingerprint": row["corpus_fingerprint"],
     }
+    results = store.query("SELECT position, result FROM results WHERE run_id = ? ORDER BY position", [run_id])
+    return Run(
+        info=part("run", RunInfo.from_json, head),
+        summary=part("summary", Summary.from_json, column("summary", {})),
+        questions=[
+            part(
+                f"results[{r['position']}]",
+                QuestionResult.from_json,
+                _json(store, run_id, f"results[{r['position']}]", r["result"], None),
+            )
+            for r in results
+        ],
+        ingest_errors=part(
+            "ingest_errors", lambda d: [IngestError.from_json(e) for e in d], column("ingest_errors", [])
+        ),
+        documents=part("extras", lambda d: [DocumentEntry.from_json(e) for e in d.get("documents", [])], extras),
+        briefs=part("extras", lambda d: [Brief.from_json(b) for b in d.get("briefs", [])], extras),
+        gate=part("gate", GateResult.from_json, column("gate", None)),
+    )
 
 
 def _one(store: Store, sql: str, params=()) -> dict | None:
@@ -147,11 +242,11 @@ def _json(store: Store, run_id: int, column: str, text: str | None, default):
 # --- writing around a run -------------------------------------------------------------------------
 
 
-def record_gate(store: Store, run_id: int, gate: dict | None) -> None:
-    """Store a gate outcome (evaluate_gate's dict) with its run."""
+def record_gate(store: Store, run_id: int, gate: GateResult | None) -> None:
+    """Store a gate outcome (gate.evaluate_gate's) with its run."""
     with store.transaction():
         cursor = store.db.execute(
-            "UPDATE runs SET gate = ? WHERE id = ?", [dumps(gate) if gate is not None else None, run_id]
+            "UPDATE runs SET gate = ? WHERE id = ?", [dumps(gate.to_json()) if gate is not None else None, run_id]
         )
     if cursor.rowcount == 0:
         raise StoreError(f"{str(store.path)!r}: no run {run_id} to record the gate outcome on")
@@ -177,11 +272,10 @@ def apply_retention(store: Store, keep: int) -> list[int]:
             r["id"]
             for r in store.query("SELECT id FROM runs WHERE id < ? AND id != ? ORDER BY id", [oldest_kept, newest])
         ]
-        if doomed:
-            marks = ",".join("?" * len(doomed))
+        for chunk in chunked(doomed):
             # Results first: the foreign key cascades only when PRAGMA foreign_keys is on.
-            store.db.execute(f"DELETE FROM results WHERE run_id IN ({marks})", doomed)
-            store.db.execute(f"DELETE FROM runs WHERE id IN ({marks})", doomed)
+            store.db.execute(f"DELETE FROM results WHERE run_id IN ({marks(chunk)})", chunk)
+            store.db.execute(f"DELETE FROM runs WHERE id IN ({marks(chunk)})", chunk)
     return doomed
 
 
@@ -235,116 +329,10 @@ def _remove_dead_temporaries(link: Path) -> None:
             continue
 
 
-# --- diff -----------------------------------------------------------------------------------------
-
-
-def diff_runs(base: dict, head: dict) -> dict:
-    """What changed from run `base` to run `head`, question by question (matched by question id).
-
-    Each change is in exactly one list:
-      new_gaps       covered or stale before, gap now
-      newly_stale    covered before, stale now
-      resolved_gaps  gap before, covered or stale now (`after` says which)
-      refreshed      stale before, covered now
-      added          in head's question set only (whatever its verdict)
-      removed        in base's question set only
-    Items are {id, question, owner, weight, before, after, reasons} with before/after the verdicts
-    (None when absent) and reasons head's stale reasons (base's for removed); weight is head's
-    (base's for removed). `weights` sums the weights per list, `counts` the items; `summary` is one
-    line of text ("1 new gap (weight 12), ...; fallback exposure 0.21 -> 0.18").
-    """
-    base_q = _keyed(base.get("questions", []))
-    head_q = _keyed(head.get("questions", []))
-    lists: dict[str, list[dict]] = {name: [] for name in DIFF_CATEGORIES}
-    for key, after in head_q.items():
-        before = base_q.get(key)
-        if before is None:
-            lists["added"].append(_item(after, None, after["verdict"]))
-            continue
-        was, now = before["verdict"], after["verdict"]
-        if was == now:
-            continue
-        if now == "gap":
-            category = "new_gaps"
-        elif was == "gap":
-            category = "resolved_gaps"
-        elif now == "stale":
-            category = "newly_stale"
-        else:
-            category = "refreshed"
-        lists[category].append(_item(after, was, now))
-    for key, before in base_q.items():
-        if key not in head_q:
-            lists["removed"].append(_item(before, before["verdict"], None))
-
-    base_sum, head_sum = base.get("summary", {}), head.get("summary", {})
-    diff = {
-        "base_run": base["run"].get("id"),
-        "base_as_of": base["run"].get("as_of"),
-        "head_run": head["run"].get("id"),
-        "head_as_of": head["run"].get("as_of"),
-        **lists,
-        "counts": {name: len(items) for name, items in lists.items()},
-        "weights": {name: _round(sum(i["weight"] for i in items)) for name, items in lists.items()},
-        "exposure": {
-            "fallback": [base_sum.get("fallback_exposure"), head_sum.get("fallback_exposure")],
-            "stale": [base_sum.get("stale_exposure"), head_sum.get("stale_exposure")],
-        },
-    }
-    diff["summary"] = _diff_line(diff)
-    return diff
-
-
-def _keyed(questions: list[dict]) -> dict[tuple[str, int], dict]:
-    # A question set should not repeat an id; if one does, its n-th use is matched with the n-th.
-    seen: dict[str, int] = {}
-    keyed = {}
-    for q in questions:
-        n = seen.get(q["id"], 0)
-        seen[q["id"]] = n + 1
-        keyed[(q["id"], n)] = q
-    return keyed
-
-
-def _item(q: dict, before: str | None, after: str | None) -> dict:
-    return {
-        "id": q["id"],
-        "question": q.get("question"),
-        "owner": q.get("owner"),
-        "weight": float(q.get("weight", 1.0)),
-        "before": before,
-        "after": after,
-        "reasons": list(q.get("reasons") or []),
-    }
-
-
-def _round(value: float) -> float:
-    return round(value, 6)
-
-
-def _diff_line(diff: dict) -> str:
-    parts = []
-    for name in DIFF_CATEGORIES:
-        n = diff["counts"][name]
-        if n:
-            label = _LABELS[name][0 if n == 1 else 1]
-            parts.append(f"{n} {label} (weight {_figure(diff['weights'][name])})")
-    changes = ", ".join(parts) if parts else "no verdict changed"
-    before, after = diff["exposure"]["fallback"]
-    exposure = ""
-    if before is not None and after is not None:
-        exposure = f"; fallback exposure {before:.2f} -> {after:.2f}"
-    return changes + exposure
-
-
-def _figure(value: float) -> str:
-    return f"{value:g}"
-
-
 # --- text for the CLI -----------------------------------------------------------------------------
 
 
-def format_runs(runs: list[dict]) -> str:
+def format_runs(runs: list[StoredRun]) -> str:
     """The run history as an aligned text table, one run a line."""
     if not runs:
         return "no runs yet"
@@ -363,20 +351,20 @@ def format_runs(runs: list[dict]) -> str:
     )
     rows = [header]
     for r in runs:
-        s = r.get("summary") or {}
+        s = r.summary
         rows.append(
             (
-                str(r["id"]),
-                r["status"],
-                r["as_of"] or "",
-                r["started"] or "",
-                r["finished"] or "-",
-                _count(s, "questions"),
-                _count(s, "covered"),
-                _count(s, "stale"),
-                _count(s, "gap"),
-                _share(s, "fallback_exposure"),
-                _share(s, "stale_exposure"),
+                str(r.id),
+                r.status,
+                r.as_of or "",
+                r.started or "",
+                r.finished or "-",
+                _count(s.questions if s else None),
+                _count(s.covered if s else None),
+                _count(s.stale if s else None),
+                _count(s.gap if s else None),
+                _share(s.fallback_exposure if s else None),
+                _share(s.stale_exposure if s else None),
             )
         )
     widths = [max(len(row[i]) for row in rows) for i in range(len(header))]
@@ -388,37 +376,9 @@ def format_runs(runs: list[dict]) -> str:
     return "\n".join(lines)
 
 
-def _count(summary: dict, key: str) -> str:
-    value = summary.get(key)
+def _count(value: float | None) -> str:
     return "-" if value is None else f"{value:g}" if isinstance(value, float) else str(value)
 
 
-def _share(summary: dict, key: str) -> str:
-    value = summary.get(key)
+def _share(value: float | None) -> str:
     return "-" if value is None else f"{value:.2f}"
-
-
-def format_diff(diff: dict | None) -> str:
-    """The diff as text: the one-line summary, then each non-empty list, one question a line."""
-    if diff is None:
-        return "no earlier finished run to compare with"
-    lines = [
-        f"run {diff['head_run']} ({diff['head_as_of']}) against run {diff['base_run']} "
-        f"({diff['base_as_of']}): {diff['summary']}"
-    ]
-    for name in DIFF_CATEGORIES:
-        items = diff[name]
-        if not items:
-            continue
-        lines.append("")
-        lines.append(f"{_LABELS[name][1]} ({len(items)}, weight {_figure(diff['weights'][name])}):")
-        width = max(len(str(i["id"])) for i in items)
-        for i in items:
-            change = f"{i['before'] or '-'} -> {i['after'] or '-'}"
-            reasons = f" ({', '.join(i['reasons'])})" if i["reasons"] and i["after"] == "stale" else ""
-            owner = i["owner"] or "unassigned"
-            lines.append(
-                f"  {str(i['id']).ljust(width)}  weight {_figure(i['weight'])}  {change}{reasons}  "
-                f"[{owner}]  {i['question']}"
-            )
-    return "\n".join(lines)

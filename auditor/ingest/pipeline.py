@@ -32,6 +32,7 @@ from dataclasses import dataclass, field
 from datetime import UTC, datetime
 from pathlib import Path
 
+from auditor.clock import utc_now
 from auditor.errors import InputError
 from auditor.ingest.failures import IngestFailure
 from auditor.ingest.owners import owner_from_config
@@ -91,8 +92,6 @@ class IngestSummary:
         )
 
 
-def _now() -> str:
-    return datetime.now(UTC).isoformat(timespec="seconds").replace("+00:00", "Z")
 
 
 def ingest_corpus(store, config, *, paths=None, jobs=None, progress=False) -> IngestSummary:
@@ -130,7 +129,7 @@ def _ingest(store, config, given: list, jobs, progress) -> IngestSummary:
         row["path"]: row
         for row in store.query("SELECT id, path, sha256, status, meta_dates, owner, owner_source FROM documents")
     }
-    now = _now()
+    now = utc_now()
     seen: set[str] = set()
     tasks, unchanged, by_path = [], [], {}
 

@@ -23,57 +23,58 @@ depends only on the input, never on dict or set order.
 from __future__ import annotations
 
 import re
-from collections import Counter
+from collections import Counter, defaultdict
+from collections.abc import Sequence
 
 from auditor.questions.redact import PLACEHOLDERS
+from auditor.results import Brief, Evidence, QuestionResult
 
 UNASSIGNED = "unassigned"
 EXAMPLES = 3
 
 
-def _owner(question: dict) -> str:
-    owner = (question.get("owner") or "").strip()
+def _owner(question: QuestionResult) -> str:
+    owner = (question.owner or "").strip()
     if owner and owner != UNASSIGNED:
         return owner
     best = _best_evidence(question)
-    owner = ((best or {}).get("owner") or "").strip()
+    owner = ((best.owner if best else None) or "").strip()
     return owner if owner and owner != UNASSIGNED else UNASSIGNED
 
 
-def _best_evidence(question: dict) -> dict | None:
-    evidence = question.get("evidence") or []
-    if not evidence:
+def _best_evidence(question: QuestionResult) -> Evidence | None:
+    if not question.evidence:
         return None
-    # Evidence is stored best first; `rank`, when present, says so explicitly.
-    return min(enumerate(evidence), key=lambda e: (e[1].get("rank", e[0] + 1), e[0]))[1]
+    # Evidence is stored best first; `rank` says so explicitly.
+    return min(enumerate(question.evidence), key=lambda e: (e[1].rank, e[0]))[1]
 
 
-def nearest_topic(question: dict) -> str | None:
+def nearest_topic(question: QuestionResult) -> str | None:
     """The question's topic, else its best evidence's top heading, else that passage's folder."""
-    topic = (question.get("topic") or "").strip()
+    topic = (question.topic or "").strip()
     if topic:
         return topic
     best = _best_evidence(question)
     if best is None:
         return None
-    section = (best.get("section") or "").split("›")[0].strip()
+    section = (best.section or "").split("›")[0].strip()
     if section:
         return section
-    document = (best.get("document") or "").strip()
+    document = (best.document or "").strip()
     if not document:
         return None
     folder, _, name = document.rpartition("/")
     return folder or name
 
 
-def missing_terms(question: dict) -> list[str]:
+def missing_terms(question: QuestionResult) -> list[str]:
     """The question's missing terms, less those that only come from a redaction placeholder.
 
     A redacted query "my email is [email]" keeps the word; "write to [email]" tokenizes to the
     term "email" through its placeholder alone — nothing an owner should write about.
     """
-    terms = list(dict.fromkeys(question.get("missing_terms") or ()))
-    text = question.get("question") or ""
+    terms = list(dict.fromkeys(question.missing_terms))
+    text = question.question or ""
     kinds = [k for k, placeholder in PLACEHOLDERS.items() if placeholder in text]
     if not kinds:
         return terms
@@ -84,13 +85,13 @@ def missing_terms(question: dict) -> list[str]:
     return [t for t in terms if t not in only_placeholder]
 
 
-def _ordered_terms(members: list[dict], shared_only: bool) -> list[str]:
-    weight: Counter = Counter()
-    count: Counter = Counter()
+def _ordered_terms(members: list[QuestionResult], shared_only: bool) -> list[str]:
+    weight: dict[str, float] = defaultdict(float)
+    count: Counter[str] = Counter()
     first: dict[str, int] = {}
     for m in members:
         for term in missing_terms(m):
-            weight[term] += float(m.get("weight", 1.0))
+            weight[term] += float(m.weight)
             count[term] += 1
             first.setdefault(term, len(first))
     terms = [t for t in first if not shared_only or count[t] >= 2]
@@ -98,44 +99,44 @@ def _ordered_terms(members: list[dict], shared_only: bool) -> list[str]:
 
 
 def _vote(values: list[tuple[str | None, float]], default):
-    tally: Counter = Counter()
+    tally: dict[str, float] = defaultdict(float)
     for value, weight in values:
         if value is not None and value != UNASSIGNED:
             tally[value] += weight
     return min(tally, key=lambda v: (-tally[v], v)) if tally else default
 
 
-def _brief(members: list[dict], shared_only: bool) -> dict:
+def _brief(members: list[QuestionResult], shared_only: bool) -> Brief:
     terms = _ordered_terms(members, shared_only)
     if shared_only and not terms:  # cannot happen for a pass-1 brief, kept for safety
         terms = _ordered_terms(members, False)
-    topic = _vote([(nearest_topic(m), float(m.get("weight", 1.0))) for m in members], None)
+    topic = _vote([(nearest_topic(m), float(m.weight)) for m in members], None)
     if terms:
         title = ", ".join(terms[:3]) + (f" ({topic})" if topic else "")
     else:
-        title = topic or members[0].get("question", "")
-    return {
-        "title": title,
-        "terms": terms,
-        "weight": sum(float(m.get("weight", 1.0)) for m in members),
-        "owner": _vote([(_owner(m), float(m.get("weight", 1.0))) for m in members], UNASSIGNED),
-        "questions": [m.get("id") for m in members],
-        "examples": [m.get("question", "") for m in members[:EXAMPLES]],
-        "topic": topic,
-    }
+        title = topic or members[0].question
+    return Brief(
+        title=title,
+        terms=terms,
+        weight=sum(float(m.weight) for m in members),
+        owner=_vote([(_owner(m), float(m.weight)) for m in members], UNASSIGNED),
+        questions=[m.id for m in members],
+        examples=[m.question for m in members[:EXAMPLES]],
+        topic=topic,
+    )
 
 
-def content_briefs(question_results: list[dict], *, min_shared_terms: int = 1) -> list[dict]:
-    """Content briefs (module docstring) for the gap questions of a run object's `questions`."""
+def content_briefs(question_results: Sequence[QuestionResult], *, min_shared_terms: int = 1) -> list[Brief]:
+    """Content briefs (module docstring) for the gap questions of a run's `questions`."""
     if not isinstance(min_shared_terms, int) or min_shared_terms < 1:
         raise ValueError(f"min_shared_terms must be a whole number of at least 1, got {min_shared_terms!r}")
-    gaps = [(pos, q) for pos, q in enumerate(question_results) if q.get("verdict") == "gap"]
-    gaps.sort(key=lambda pq: (-float(pq[1].get("weight", 1.0)), pq[0]))
+    gaps = [(pos, q) for pos, q in enumerate(question_results) if q.verdict == "gap"]
+    gaps.sort(key=lambda pq: (-float(pq[1].weight), pq[0]))
 
     # Pass 1: leader clustering on missing terms.
     seeds: list[frozenset] = []
-    clusters: list[list[dict]] = []
-    leftovers: list[dict] = []
+    clusters: list[list[QuestionResult]] = []
+    leftovers: list[QuestionResult] = []
     for _pos, q in gaps:
         terms = frozenset(missing_terms(q))
         if not terms:
@@ -153,8 +154,8 @@ def content_briefs(question_results: list[dict], *, min_shared_terms: int = 1) -
             clusters[best].append(q)
 
     order = {id(q): i for i, (_pos, q) in enumerate(gaps)}
-    made: list[tuple[int, dict]] = []  # (weight order of the brief's first question, brief)
-    alone: list[dict] = []
+    made: list[tuple[int, Brief]] = []  # (weight order of the brief's first question, brief)
+    alone: list[QuestionResult] = []
     for members in clusters:
         if len(members) > 1:
             made.append((order[id(members[0])], _brief(members, shared_only=True)))
@@ -162,7 +163,7 @@ def content_briefs(question_results: list[dict], *, min_shared_terms: int = 1) -
             alone.append(members[0])
 
     # Pass 2: what stands alone is grouped by nearest topic, in weight order.
-    by_topic: dict[str, list[dict]] = {}
+    by_topic: dict[str, list[QuestionResult]] = {}
     for q in sorted(alone + leftovers, key=lambda q: order[id(q)]):
         topic = nearest_topic(q)
         if topic is None:
@@ -172,5 +173,5 @@ def content_briefs(question_results: list[dict], *, min_shared_terms: int = 1) -
     for members in by_topic.values():
         made.append((order[id(members[0])], _brief(members, shared_only=False)))
 
-    made.sort(key=lambda ob: (-ob[1]["weight"], ob[1]["title"], ob[0]))
+    made.sort(key=lambda ob: (-ob[1].weight, ob[1].title, ob[0]))
     return [brief for _order, brief in made]

@@ -13,9 +13,9 @@ from __future__ import annotations
 
 import csv
 from dataclasses import dataclass
-from datetime import UTC, datetime
 from pathlib import Path
 
+from auditor.clock import utc_now
 from auditor.config import Config
 from auditor.errors import InputError
 from auditor.judgement.audit import current_thresholds, question_support
@@ -170,7 +170,7 @@ def calibrate(
     questions that then get the gap verdict is measured (how often a removed answer would be caught).
     """
     labels = load_labels(labels_path)
-    previous = current_thresholds(store, config)
+    previous = current_thresholds(store, config).to_json()
     index = PassageIndex.load_or_build(store, config.retrieval)
     k = config.retrieval.top_k
     texts = [l.question for l in labels]
@@ -212,7 +212,7 @@ def calibrate(
         "unanswerable": sum(unanswerable),
         "holdout": held,
     }
-    created = datetime.now(UTC).strftime("%Y-%m-%dT%H:%M:%SZ")
+    created = utc_now()
     with store.transaction():
         calibration_id = store.db.execute(
             "INSERT INTO calibrations (created, labels, thresholds, metrics) VALUES (?, ?, ?, ?)",

@@ -1,8 +1,8 @@
 """The report of a run: index.html, results.json, gaps.csv, owners/<slug>.csv and owners/<slug>.html.
 
-`write_report(run, out_dir)` reads only the run object (docs/results-json.md plus the extensions listed in
-the project notes), so a stored run can be reported again at any time with the same bytes out.
-Who owns a question, and the CSV columns, are documented in `auditor.report.exports`.
+`write_report(run, out_dir)` reads only the run (`auditor.results.Run`, docs/results-json.md), so a
+stored run can be reported again at any time with the same bytes out. Who owns a question, and the
+CSV columns, are documented in `auditor.report.exports`.
 """
 
 from __future__ import annotations
@@ -11,15 +11,17 @@ import re
 from pathlib import Path
 
 from auditor.report.exports import all_owners, document_owner, owner_questions, owner_slugs, write_atomic, write_exports
-from auditor.report.html import Highlighter, build_view, render_page, summarize
+from auditor.report.html import Highlighter, build_view, render_page
+from auditor.results import Run, Summary
 
-# The page must stay under 15 MB (the size a browser opens comfortably, docs/results-json.md) with room to spare; when a run is too big for
-# the full evidence, fewer items and shorter passage text go into the page (results.json keeps all).
+# The page must stay under 15 MB (the size a browser opens comfortably, docs/results-json.md) with room
+# to spare; when a run is too big for the full evidence, fewer items and shorter passage text go into
+# the page (results.json keeps all).
 PAGE_LIMIT_BYTES = 14_500_000
 PAGE_LEVELS = ((3, 5_000_000), (2, 2_500_000), (1, 1_000_000), (0, 0))
 
 
-def _render_within_limit(run: dict, **view_args) -> str:
+def _render_within_limit(run: Run, **view_args) -> str:
     for page_evidence, text_budget in PAGE_LEVELS:
         page = render_page(build_view(run, page_evidence=page_evidence, text_budget=text_budget, **view_args))
         if len(page.encode("utf-8")) <= PAGE_LIMIT_BYTES:
@@ -40,7 +42,7 @@ def _remove_stale_owner_files(owners_dir: Path, written: set[str]) -> None:
             path.unlink()
 
 
-def write_report(run: dict, out_dir: Path) -> Path:
+def write_report(run: Run, out_dir: Path) -> Path:
     """Write every file of the report into `out_dir` and return the path of index.html.
 
     Each file goes to a temporary name and is renamed into place; index.html is renamed last so
@@ -51,60 +53,57 @@ def write_report(run: dict, out_dir: Path) -> Path:
     out_dir = Path(out_dir)
     out_dir.mkdir(parents=True, exist_ok=True)
     owners = all_owners(run)
-    tokenizer = (run.get("run") or {}).get("tokenizer")
-    tokenizer = tokenizer if isinstance(tokenizer, dict) else {}
-    highlighter = Highlighter(
-        tokenizer.get("language", "english"), tokenizer.get("stopwords", "english")
-    )  # one word cache for every page
+    highlighter = Highlighter(run.info.tokenizer)  # one word cache for every page
     slugs = owner_slugs(owners)
     write_exports(run, out_dir, slugs)
 
-    questions = list(run.get("questions") or [])
-    documents = list(run.get("documents") or [])
     owner_links = []
     for owner in owners:
         own_q = owner_questions(run, owner)
-        own_d = [d for d in documents if document_owner(d) == owner]
+        own_d = [d for d in run.documents if document_owner(d) == owner]
         slug = slugs[owner]
-        links = {
+        owner_page_links = {
             "files": [
                 ("Full report", "../index.html"),
                 (f"{owner} CSV", f"{slug}.csv"),
                 ("results.json", "../results.json"),
             ]
         }
+        counts = Summary.of(own_q)
         page = _render_within_limit(
             run,
             questions=own_q,
             documents=own_d,
-            summary=summarize(own_q),
+            summary=counts,
             owner=owner,
-            links=links,
+            links=owner_page_links,
             highlighter=highlighter,
         )
         write_atomic(out_dir / "owners" / f"{slug}.html", page)
-        counts = summarize(own_q)
         owner_links.append(
             {
                 "name": owner,
                 "slug": slug,
                 "questions": len(own_q),
-                "covered": counts["covered"],
-                "stale": counts["stale"],
-                "gap": counts["gap"],
-                "at_risk": sum(float(q.get("weight") or 0) for q in own_q if q.get("verdict") in ("gap", "stale")),
+                "covered": counts.covered,
+                "stale": counts.stale,
+                "gap": counts.gap,
+                "at_risk": sum(float(q.weight or 0) for q in own_q if q.verdict in ("gap", "stale")),
             }
         )
 
     _remove_stale_owner_files(
         out_dir / "owners", {f"{slug}.{ext}" for slug in slugs.values() for ext in ("csv", "html")}
     )
-    links = {"files": [("results.json", "results.json"), ("gaps.csv", "gaps.csv")], "owners": owner_links}
+    links: dict[str, list] = {
+        "files": [("results.json", "results.json"), ("gaps.csv", "gaps.csv")],
+        "owners": owner_links,
+    }
     page = _render_within_limit(
         run,
-        questions=questions,
-        documents=documents,
-        summary=run.get("summary") or summarize(questions),
+        questions=run.questions,
+        documents=run.documents,
+        summary=run.summary,
         links=links,
         highlighter=highlighter,
     )

@@ -12,7 +12,8 @@ import math
 
 from markupsafe import Markup, escape
 
-VERDICT_ORDER = ("covered", "stale", "gap")
+from auditor.models import VERDICTS
+
 MAX_OWNER_BARS = 14
 
 
@@ -68,7 +69,7 @@ def verdicts_by_owner(counts: dict[str, dict[str, int]]) -> Markup:
             f'class="label">{escape(_truncate(owner, 22))}<title>{escape(owner)}</title></text>'
         )
         x = float(label_w)
-        for verdict in VERDICT_ORDER:
+        for verdict in VERDICTS:
             n = c.get(verdict, 0)
             if not n:
                 continue
@@ -86,7 +87,7 @@ def verdicts_by_owner(counts: dict[str, dict[str, int]]) -> Markup:
         body.append(f'<text x="{_fmt(x + 6)}" y="{_fmt(y + bar_h * 0.68)}" class="axis">{total}</text>')
     ly = height - 8
     lx = label_w
-    for verdict in VERDICT_ORDER:
+    for verdict in VERDICTS:
         body.append(
             f'<rect x="{lx}" y="{ly - 10}" width="12" height="12" class="v-{verdict}"/>'
             f'<text x="{lx + 17}" y="{ly}" class="axis">{verdict}</text>'

@@ -43,11 +43,13 @@ import os
 import re
 import tempfile
 import unicodedata
+from collections.abc import Iterable
 from pathlib import Path
+from typing import Any
+
+from auditor.results import DocumentEntry, Evidence, QuestionResult, Run
 
 UNASSIGNED = "unassigned"
-# The keys of results.json format 1 (docs/results-json.md), which come first in that file.
-FORMAT1_KEYS = ("format", "run", "summary", "questions", "ingest_errors")
 CSV_COLUMNS = (
     "id",
     "question",
@@ -70,23 +72,23 @@ _FORMULA_START = ("=", "+", "-", "@", "\t", "\r")
 # --- owners ---------------------------------------------------------------------------------------
 
 
-def best_evidence(question: dict) -> dict | None:
+def best_evidence(question: QuestionResult) -> Evidence | None:
     """The first supporting evidence item in rank order, else the first item, else None."""
-    evidence = question.get("evidence") or []
-    for item in evidence:
-        if item.get("supporting"):
+    for item in question.evidence:
+        if item.supporting:
             return item
-    return evidence[0] if evidence else None
+    return question.evidence[0] if question.evidence else None
 
 
-def _named(owner) -> str | None:
+def _named(owner: str | None) -> str | None:
     name = str(owner or "").strip()
     return name if name and name != UNASSIGNED else None
 
 
-def question_owner(question: dict) -> str:
+def question_owner(question: QuestionResult) -> str:
     """Owner of a question by the rule in this module's docstring (blank counts as none)."""
-    return _named(question.get("owner")) or _named((best_evidence(question) or {}).get("owner")) or UNASSIGNED
+    best = best_evidence(question)
+    return _named(question.owner) or _named(best.owner if best else None) or UNASSIGNED
 
 
 def slugify(name: str) -> str:
@@ -96,7 +98,7 @@ def slugify(name: str) -> str:
     return slug[:60].strip("-") or "owner"
 
 
-def owner_slugs(owners) -> dict[str, str]:
+def owner_slugs(owners: Iterable[str]) -> dict[str, str]:
     """Map each owner name to a unique slug; clashes get -2, -3 ... in sorted name order."""
     slugs: dict[str, str] = {}
     used: set[str] = set()
@@ -111,14 +113,14 @@ def owner_slugs(owners) -> dict[str, str]:
     return slugs
 
 
-def document_owner(document: dict) -> str:
-    return _named(document.get("owner")) or UNASSIGNED
+def document_owner(document: DocumentEntry) -> str:
+    return _named(document.owner) or UNASSIGNED
 
 
-def all_owners(run: dict) -> list[str]:
+def all_owners(run: Run) -> list[str]:
     """Every owner with a question or a document in the run, sorted."""
-    names = {question_owner(q) for q in run.get("questions") or []}
-    names |= {document_owner(d) for d in run.get("documents") or []}
+    names = {question_owner(q) for q in run.questions}
+    names |= {document_owner(d) for d in run.documents}
     return sorted(names)
 
 
@@ -151,7 +153,7 @@ def _umask() -> int:
     return mask
 
 
-def _finite(value):
+def _finite(value: Any) -> Any:
     """JSON has no NaN/Infinity; write null instead of producing an unreadable file."""
     if isinstance(value, float) and not math.isfinite(value):
         return None
@@ -162,10 +164,9 @@ def _finite(value):
     return value
 
 
-def results_json(run: dict) -> str:
-    """The run object as-is, format-1 keys first, pretty-printed (UTF-8, not ASCII-escaped)."""
-    ordered = {k: run[k] for k in FORMAT1_KEYS if k in run}
-    ordered.update((k, v) for k, v in run.items() if k not in ordered)
+def results_json(run: Run) -> str:
+    """results.json: the run's JSON (`Run.to_json`), pretty-printed (UTF-8, not ASCII-escaped)."""
+    ordered = run.to_json()
     try:
         text = json.dumps(ordered, indent=2, ensure_ascii=False, allow_nan=False)
     except ValueError:  # a NaN or infinity somewhere: write null there rather than invalid JSON
@@ -173,14 +174,14 @@ def results_json(run: dict) -> str:
     return text + "\n"
 
 
-def _cell(value) -> str:
+def _cell(value: object) -> str:
     if value is None:
         return ""
     text = str(value)
     return "'" + text if text.startswith(_FORMULA_START) else text
 
 
-def _number(value) -> str:
+def _number(value: float | None) -> str:
     if value is None:
         return ""
     if isinstance(value, float) and value.is_integer():
@@ -188,29 +189,29 @@ def _number(value) -> str:
     return repr(value) if isinstance(value, float) else str(value)
 
 
-def csv_row(question: dict) -> list[str]:
-    best = best_evidence(question) or {}
+def csv_row(question: QuestionResult) -> list[str]:
+    best = best_evidence(question)
     return [
-        _cell(question.get("id")),
-        _cell(question.get("question")),
+        _cell(question.id),
+        _cell(question.question),
         _cell(question_owner(question)),
-        _cell(question.get("topic")),
-        _number(question.get("weight", 1.0)),
-        _cell(question.get("verdict")),
-        _cell(";".join(question.get("reasons") or [])),
-        _cell(";".join(question.get("flags") or [])),
-        _number(question.get("support")),
-        _cell(";".join(question.get("missing_terms") or [])),
-        _cell(question.get("action")),
-        _cell(best.get("document")),
-        _cell(best.get("section")),
-        _cell(best.get("as_of")),
+        _cell(question.topic),
+        _number(question.weight),
+        _cell(question.verdict),
+        _cell(";".join(question.reasons)),
+        _cell(";".join(question.flags)),
+        _number(question.support),
+        _cell(";".join(question.missing_terms)),
+        _cell(question.action),
+        _cell(best.document if best else None),
+        _cell(best.section if best else None),
+        _cell(best.as_of if best else None),
     ]
 
 
-def questions_csv(questions: list[dict]) -> str:
+def questions_csv(questions: list[QuestionResult]) -> str:
     """CSV text (RFC 4180, CRLF line ends) of `questions`, ordered by weight then input order."""
-    order = sorted(range(len(questions)), key=lambda i: (-float(questions[i].get("weight") or 0.0), i))
+    order = sorted(range(len(questions)), key=lambda i: (-float(questions[i].weight or 0.0), i))
     buf = io.StringIO(newline="")
     writer = csv.writer(buf, lineterminator="\r\n")
     writer.writerow(CSV_COLUMNS)
@@ -219,15 +220,15 @@ def questions_csv(questions: list[dict]) -> str:
     return buf.getvalue()
 
 
-def gap_questions(run: dict) -> list[dict]:
-    return [q for q in run.get("questions") or [] if q.get("verdict") in ("gap", "stale")]
+def gap_questions(run: Run) -> list[QuestionResult]:
+    return [q for q in run.questions if q.verdict in ("gap", "stale")]
 
 
-def owner_questions(run: dict, owner: str) -> list[dict]:
-    return [q for q in run.get("questions") or [] if question_owner(q) == owner]
+def owner_questions(run: Run, owner: str) -> list[QuestionResult]:
+    return [q for q in run.questions if question_owner(q) == owner]
 
 
-def write_exports(run: dict, out_dir: Path, slugs: dict[str, str]) -> list[Path]:
+def write_exports(run: Run, out_dir: Path, slugs: dict[str, str]) -> list[Path]:
     """Write results.json, gaps.csv and owners/<slug>.csv; return the paths written."""
     written = []
     path = out_dir / "results.json"

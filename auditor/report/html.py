@@ -29,6 +29,19 @@ from auditor.models import STALE_REASONS, VERDICTS
 from auditor.report import charts
 from auditor.report.exports import best_evidence, question_owner
 from auditor.report.views import _date, _humanize, _num, _pct, _share, diff_view, gate_view, inventory
+from auditor.results import (
+    Brief,
+    Corpus,
+    DocumentEntry,
+    Evidence,
+    HistoryEntry,
+    QuestionResult,
+    Run,
+    Summary,
+    Thresholds,
+    TokenizerSettings,
+)
+from auditor.retrieval.tokenize import Tokenizer
 
 HERE = Path(__file__).parent
 PAGE_EVIDENCE = 3  # evidence items per question in the page (results.json keeps all)
@@ -65,7 +78,7 @@ FLAG_TEXT = {
 }
 
 
-def _verdict_class(verdict) -> str:
+def _verdict_class(verdict: str) -> str:
     return verdict if verdict in VERDICTS else "other"
 
 
@@ -109,15 +122,15 @@ def _environment() -> Environment:
 class Highlighter:
     """Finds the words of a text whose token (per the run's tokenizer) is one of the matched terms.
 
-    `language` and `stopwords` are the tokenizer settings of the run (`run.tokenizer` when the run
-    object carries it, else the defaults, which are the project's defaults too).
+    `settings` are the tokenizer settings of the run (`run.tokenizer` when the run carries them,
+    else the defaults, which are the project's defaults too).
     """
 
-    def __init__(self, language: str = "english", stopwords: str = "english"):
+    def __init__(self, settings: TokenizerSettings | None = None):
+        settings = settings or TokenizerSettings()
+        self._tok: Tokenizer | None
         try:
-            from auditor.retrieval.tokenize import Tokenizer
-
-            self._tok = Tokenizer(language, stopwords)
+            self._tok = Tokenizer(settings.language, settings.stopwords)
         except Exception:  # the page still renders, matching words as written
             self._tok = None
         self._cache: dict[str, str] = {}
@@ -143,7 +156,7 @@ class Highlighter:
             hit = self._words[text] = [(s, e, self.token(w), w.casefold()) for s, e, w in spans]
         return hit
 
-    def ranges(self, text: str, terms) -> list[int]:
+    def ranges(self, text: str, terms: list[str]) -> list[int]:
         """Flat [start, end, start, end, ...] of matched words, in UTF-16 code units (as JS counts)."""
         wanted = set(terms)
         if not wanted:
@@ -163,16 +176,16 @@ def _cut(text: str, limit: int) -> tuple[str, bool]:
 # --- explanations (plain text; the template escapes them) -----------------------------------------
 
 
-def verdict_sentence(q: dict, thresholds: dict) -> str:
-    verdict, support = q.get("verdict"), q.get("support")
-    threshold = thresholds.get("support")
+def verdict_sentence(q: QuestionResult, thresholds: Thresholds | None) -> str:
+    verdict, support = q.verdict, q.support
+    threshold = thresholds.support if thresholds else None
     if verdict == "gap":
         s = "No passage supports this question"
         if support is not None and threshold is not None:
             s += f" (best support {_num(support)}, threshold {_num(threshold)})"
         return s + "; the assistant would fall back to an outside source or answer without grounding."
     if verdict == "stale":
-        reasons = [REASON_TEXT.get(r, str(r)) for r in q.get("reasons") or []]
+        reasons = [REASON_TEXT.get(r, str(r)) for r in q.reasons]
         s = "Supported only by stale passages"
         return s + (": " + "; ".join(reasons) + "." if reasons else ".")
     if verdict == "covered":
@@ -180,25 +193,25 @@ def verdict_sentence(q: dict, thresholds: dict) -> str:
     return f"Verdict: {verdict}."
 
 
-def best_line(q: dict, best: dict) -> str | None:
+def best_line(q: QuestionResult, best: Evidence | None) -> str | None:
     """Which passage supports a covered question (stale and gap rows name it in their action)."""
-    if q.get("verdict") != "covered" or not best.get("document"):
+    if q.verdict != "covered" or best is None or not best.document:
         return None
-    line = "Supported by " + str(best["document"])
-    if best.get("section"):
-        line += " › " + str(best["section"])
-    if best.get("as_of"):
-        line += ", as of " + str(best["as_of"])
+    line = "Supported by " + str(best.document)
+    if best.section:
+        line += " › " + str(best.section)
+    if best.as_of:
+        line += ", as of " + str(best.as_of)
     return line
 
 
 def _script_row(row: dict) -> dict:
     """What the script needs to build a row that is not written as HTML (see SERVER_ROWS)."""
-    q = row["q"]
-    out = {"id": q.get("id"), "q": q.get("question"), "a": q.get("action"), "y": row["why"]}
+    q: QuestionResult = row["q"]
+    out = {"id": q.id, "q": q.question, "a": q.action, "y": row["why"]}
     for key, value in (
         ("ac", row["action_text"]),
-        ("m", q.get("missing_terms")),
+        ("m", q.missing_terms),
         ("f", [list(f) for f in row["flags"]]),
         ("b", row["best_line"]),
     ):
@@ -207,17 +220,16 @@ def _script_row(row: dict) -> dict:
     return out
 
 
-def action_sentence(q: dict) -> str | None:
-    action = q.get("action")
-    best = best_evidence(q) or {}
-    where = best.get("document")
-    if action == "write":
-        terms = q.get("missing_terms") or []
+def action_sentence(q: QuestionResult) -> str | None:
+    best = best_evidence(q)
+    where = best.document if best else None
+    if q.action == "write":
+        terms = q.missing_terms
         s = "Write: add a passage that answers this question"
         return s + (f", using the words users use ({', '.join(terms)})." if terms else ".")
-    if action == "refresh":
+    if q.action == "refresh":
         return "Refresh: bring " + (where or "the supporting passage") + " up to date and state when it was reviewed."
-    if action == "retire":
+    if q.action == "retire":
         return (
             "Retire: remove or rewrite "
             + (where or "the supporting passage")
@@ -229,25 +241,11 @@ def action_sentence(q: dict) -> str | None:
 # --- the view model -------------------------------------------------------------------------------
 
 
-def summarize(questions: list[dict]) -> dict:
-    """Summary figures of a subset of questions, computed as docs/judgement.md defines them."""
-    weight = sum(float(q.get("weight") or 0) for q in questions)
-    counts = {v: sum(1 for q in questions if q.get("verdict") == v) for v in VERDICTS}
-    wsum = {v: sum(float(q.get("weight") or 0) for q in questions if q.get("verdict") == v) for v in VERDICTS}
-    return {
-        "questions": len(questions),
-        **counts,
-        "weight": weight,
-        "fallback_exposure": _share(wsum["gap"], weight),
-        "stale_exposure": _share(wsum["stale"], weight),
-    }
-
-
-def _figures(summary: dict, corpus: dict) -> list[dict]:
-    n = summary.get("questions") or 0
-    figs = [{"key": "questions", "label": "Questions", "value": n, "text": str(n)}]
+def _figures(summary: Summary, corpus: Corpus) -> list[dict]:
+    n = summary.questions or 0
+    figs: list[dict] = [{"key": "questions", "label": "Questions", "value": n, "text": str(n)}]
     for v in VERDICTS:
-        c = summary.get(v) or 0
+        c = getattr(summary, v) or 0
         figs.append(
             {
                 "key": v,
@@ -262,8 +260,8 @@ def _figures(summary: dict, corpus: dict) -> list[dict]:
         {
             "key": "fallback_exposure",
             "label": "Fallback exposure",
-            "value": summary.get("fallback_exposure"),
-            "text": _pct(summary.get("fallback_exposure")),
+            "value": summary.fallback_exposure,
+            "text": _pct(summary.fallback_exposure),
             "note": "weighted share of gap questions",
             "cls": "gap",
         }
@@ -272,8 +270,8 @@ def _figures(summary: dict, corpus: dict) -> list[dict]:
         {
             "key": "stale_exposure",
             "label": "Stale exposure",
-            "value": summary.get("stale_exposure"),
-            "text": _pct(summary.get("stale_exposure")),
+            "value": summary.stale_exposure,
+            "text": _pct(summary.stale_exposure),
             "note": "weighted share of stale questions",
             "cls": "stale",
         }
@@ -282,8 +280,8 @@ def _figures(summary: dict, corpus: dict) -> list[dict]:
         {
             "key": "freshness",
             "label": "Corpus freshness F",
-            "value": corpus.get("freshness"),
-            "text": _num(corpus.get("freshness"), 3),
+            "value": corpus.freshness,
+            "text": _num(corpus.freshness, 3),
             "note": "share of passages up to date",
         }
     )
@@ -291,21 +289,22 @@ def _figures(summary: dict, corpus: dict) -> list[dict]:
         {
             "key": "mean_age_days",
             "label": "Mean age A",
-            "value": corpus.get("mean_age_days"),
-            "text": "–" if corpus.get("mean_age_days") is None else f"{_num(corpus.get('mean_age_days'), 1)} d",
+            "value": corpus.mean_age_days,
+            "text": "–" if corpus.mean_age_days is None else f"{_num(corpus.mean_age_days, 1)} d",
             "note": "days out of date, 0 when fresh",
         }
     )
     return figs
 
 
-def _evidence_ages(questions: list[dict], audit: date | None) -> tuple[list[int], int]:
+def _evidence_ages(questions: list[QuestionResult], audit: date | None) -> tuple[list[int], int]:
     """Age of the youngest supporting passage of each question that has one; undated counted."""
-    ages, undated = [], 0
+    ages: list[int] = []
+    undated = 0
     if audit is None:
         return ages, undated
     for q in questions:
-        dated = [_date(e.get("as_of")) for e in q.get("evidence") or [] if e.get("supporting")]
+        dated = [_date(e.as_of) for e in q.evidence if e.supporting]
         if not dated:
             continue
         known = [d for d in dated if d is not None]
@@ -316,43 +315,39 @@ def _evidence_ages(questions: list[dict], audit: date | None) -> tuple[list[int]
     return ages, undated
 
 
-def _owner_counts(questions: list[dict], owners: list[str]) -> dict[str, dict[str, int]]:
+def _owner_counts(questions: list[QuestionResult], owners: list[str]) -> dict[str, dict[str, int]]:
     counts: dict[str, dict[str, int]] = {}
     for q, owner in zip(questions, owners):
         c = counts.setdefault(owner, {})
-        c[q.get("verdict")] = c.get(q.get("verdict"), 0) + 1
+        c[q.verdict] = c.get(q.verdict, 0) + 1
     return counts
 
 
-def _trend_points(run: dict) -> list[dict]:
-    entries = list(run.get("history") or [])
-    current = {
-        "id": (run.get("run") or {}).get("id"),
-        "as_of": (run.get("run") or {}).get("as_of"),
-        "summary": run.get("summary") or {},
-    }
-    if not entries or entries[-1].get("id") != current["id"]:
+def _trend_points(run: Run) -> list[dict]:
+    entries = list(run.history)
+    current = HistoryEntry(id=run.info.id, as_of=run.info.as_of, summary=run.summary)
+    if not entries or entries[-1].id != current.id:
         entries.append(current)
     points = []
     for e in entries:
-        s = e.get("summary") or {}
+        s = e.summary
         points.append(
             {
-                "label": str(e.get("as_of") or e.get("id") or ""),
-                "covered_share": _share(s.get("covered") or 0, s.get("questions") or 0),
-                "stale_exposure": s.get("stale_exposure"),
-                "fallback_exposure": s.get("fallback_exposure"),
+                "label": str(e.as_of or e.id or ""),
+                "covered_share": _share(s.covered or 0, s.questions or 0),
+                "stale_exposure": s.stale_exposure,
+                "fallback_exposure": s.fallback_exposure,
             }
         )
     return points
 
 
 def _page_data(
-    questions,
-    owners_of,
-    owner_index,
-    topic_index,
-    horizon,
+    questions: list[QuestionResult],
+    owners_of: list[str],
+    owner_index: dict[str, int],
+    topic_index: dict[str, int],
+    horizon: int | None,
     *,
     page_evidence: int,
     text_budget: int,
@@ -373,68 +368,62 @@ def _page_data(
     hl = highlighter
     passages: dict[str, dict] = {}
     reason_codes: dict[str, int] = {r: k for k, r in enumerate(STALE_REASONS)}
-    all_signals = sorted(
-        {k for q in questions for e in (q.get("evidence") or [])[:page_evidence] for k in (e.get("signals") or {})}
-    )
+    all_signals = sorted({k for q in questions for e in q.evidence[:page_evidence] for k in e.signals})
     rows = []
     keyed = []  # (evidence item, passage key, matched terms): highlight once the text is cut
     for i, q in enumerate(questions):
-        items = (q.get("evidence") or [])[:page_evidence]
-        qterms = sorted({t for e in items for t in (e.get("terms") or {})})
-        snames = sorted({k for e in items for k in (e.get("signals") or {})})
-        answer_type = next((e.get("answer_type") for e in items if e.get("answer_type")), None)
+        items = q.evidence[:page_evidence]
+        qterms = sorted({t for e in items for t in e.terms})
+        snames = sorted({k for e in items for k in e.signals})
+        answer_type = next((e.answer_type for e in items if e.answer_type), None)
         ev_out = []
         for j, e in enumerate(items):
-            key = str(e["passage"]) if e.get("passage") is not None else f"{i}.{j}"
+            key = str(e.passage) if e.passage is not None else f"{i}.{j}"
             if key not in passages:
                 passages[key] = {
-                    "d": e.get("document"),
-                    "sec": e.get("section"),
-                    "pg": e.get("page"),
-                    "ao": e.get("as_of"),
-                    "src": e.get("as_of_source"),
-                    "ex": e.get("expires"),
-                    "st": [
-                        [s.get("expression"), s.get("role"), s.get("start"), s.get("end"), s.get("granularity")]
-                        for s in e.get("statements") or []
-                    ],
-                    "_raw": e.get("text") or "",
+                    "d": e.document,
+                    "sec": e.section,
+                    "pg": e.page,
+                    "ao": e.as_of,
+                    "src": e.as_of_source,
+                    "ex": e.expires,
+                    "st": [[s.expression, s.role, s.start, s.end, s.granularity] for s in e.statements],
+                    "_raw": e.text or "",
                 }
-            terms = e.get("terms") or {}
+            terms = e.terms
             contrib = [round(float(terms.get(t) or 0), 2) for t in qterms]
             item = [
                 key,
-                e.get("rank", j + 1),
-                round(float(e.get("score") or 0), 2),
-                round(float(e.get("support") or 0), 3),
-                int(bool(e.get("supporting"))),
-                int(bool(e.get("fresh"))),
-                [reason_codes.setdefault(str(r), len(reason_codes)) for r in e.get("reasons") or []],
+                e.rank,
+                round(float(e.score or 0), 2),
+                round(float(e.support or 0), 3),
+                int(bool(e.supporting)),
+                int(bool(e.fresh)),
+                [reason_codes.setdefault(str(r), len(reason_codes)) for r in e.reasons],
                 contrib,
             ]
-            signals = e.get("signals") or {}
-            found = e.get("answer_type_found")
+            found = e.answer_type_found
             keyed.append(
                 (
                     item,
                     key,
                     [t for t in qterms if float(terms.get(t) or 0) > 0],
-                    [round(float(signals.get(k) or 0), 2) for k in snames],
+                    [round(float(e.signals.get(k) or 0), 2) for k in snames],
                     None if found is None else int(bool(found)),
                 )
             )
             ev_out.append(item)
         row = {
-            "v": q.get("verdict"),
+            "v": q.verdict,
             "o": owner_index[owners_of[i]],
-            "t": topic_index.get(str(q.get("topic")), -1),
-            "w": q.get("weight", 1.0),
-            "s": q.get("support"),
+            "t": topic_index.get(str(q.topic), -1),
+            "w": q.weight,
+            "s": q.support,
             "k": qterms,
             "e": ev_out,
         }
-        if q.get("horizon_days") and q.get("horizon_days") != horizon:
-            row["h"] = q["horizon_days"]
+        if q.horizon_days and q.horizon_days != horizon:
+            row["h"] = q.horizon_days
         if snames != all_signals:
             row["sk"] = snames
         if answer_type:
@@ -445,22 +434,28 @@ def _page_data(
         limit = max(MIN_PASSAGE_CHARS, min(PASSAGE_CHARS, text_budget // len(passages)))
     for p in passages.values():
         p["txt"], p["cut"] = _cut(p.pop("_raw"), limit)
-    for item, key, matched, signal_values, found in keyed:
+    for item, key, matched, signal_values, found_code in keyed:
         flat = hl.ranges(passages[key]["txt"], matched)
         coded, end = [], 0
         for k in range(0, len(flat), 2):
             coded += [flat[k] - end, flat[k + 1] - flat[k]]
             end = flat[k + 1]
-        item += [coded, signal_values, found]
-    return {"q": rows, "p": passages, "h": horizon, "sk": all_signals, "R": sorted(reason_codes, key=reason_codes.get)}
+        item += [coded, signal_values, found_code]
+    return {
+        "q": rows,
+        "p": passages,
+        "h": horizon,
+        "sk": all_signals,
+        "R": sorted(reason_codes, key=lambda r: reason_codes[r]),
+    }
 
 
 def build_view(
-    run: dict,
+    run: Run,
     *,
-    questions: list[dict],
-    documents: list[dict],
-    summary: dict,
+    questions: list[QuestionResult],
+    documents: list[DocumentEntry],
+    summary: Summary,
     owner: str | None = None,
     links: dict | None = None,
     page_evidence: int = PAGE_EVIDENCE,
@@ -471,30 +466,27 @@ def build_view(
 
     Pass one `highlighter` to several calls to share its word cache between pages.
     """
-    meta = run.get("run") or {}
-    corpus = meta.get("corpus") or {}
-    audit = _date(meta.get("as_of"))
-    horizon = meta.get("horizon_days")
-    thresholds = meta.get("thresholds") or {}
+    info = run.info
+    audit = _date(info.as_of)
+    horizon = info.horizon_days
     owners_of = [question_owner(q) for q in questions]
     owner_names = sorted(set(owners_of))
     owner_index = {name: k for k, name in enumerate(owner_names)}
-    topics = sorted({str(q["topic"]) for q in questions if q.get("topic") not in (None, "")})
+    topics = sorted({str(q.topic) for q in questions if q.topic not in (None, "")})
     topic_index = {t: k for k, t in enumerate(topics)}
 
     rows = []
     for i, (q, own) in enumerate(zip(questions, owners_of)):
-        best = best_evidence(q) or {}
         rows.append(
             {
                 "i": i,
                 "q": q,
                 "owner": own,
-                "verdict": q.get("verdict"),
-                "why": verdict_sentence(q, thresholds),
+                "verdict": q.verdict,
+                "why": verdict_sentence(q, info.thresholds),
                 "action_text": action_sentence(q),
-                "flags": [(f, FLAG_TEXT.get(f, "")) for f in q.get("flags") or []],
-                "best_line": best_line(q, best),
+                "flags": [(f, FLAG_TEXT.get(f, "")) for f in q.flags],
+                "best_line": best_line(q, best_evidence(q)),
             }
         )
 
@@ -504,37 +496,34 @@ def build_view(
     points = _trend_points(run) if owner is None else []
     chart_trend = charts.trend(points) if len(points) >= 2 else None
 
-    index_of = {str(q.get("id")): i for i, q in enumerate(questions)}
-    briefs = []
-    for b in run.get("briefs") or []:
-        if owner is not None and (b.get("owner") or "unassigned") != owner:
+    index_of = {str(q.id): i for i, q in enumerate(questions)}
+    briefs: list[dict] = []
+    for b in run.briefs:
+        if owner is not None and (b.owner or "unassigned") != owner:
             continue
-        qs = [
-            (index_of[str(x)], questions[index_of[str(x)]].get("question"))
-            for x in b.get("questions") or []
-            if str(x) in index_of
-        ]
+        qs = [(index_of[str(x)], questions[index_of[str(x)]].question) for x in b.questions if str(x) in index_of]
         briefs.append({"b": b, "questions": qs})
-    briefs.sort(key=lambda item: (-float(item["b"].get("weight") or 0), str(item["b"].get("title"))))
+    briefs.sort(key=_brief_order)
 
     return {
-        "title": meta.get("title") or "Knowledge base",
+        "title": info.title or "Knowledge base",
         "owner": owner,
-        "run": meta,
-        "corpus": corpus,
+        "run": info,
+        "corpus": info.corpus,
         "summary": summary,
-        "thresholds": thresholds,
-        "figures": _figures(summary, corpus),
+        "thresholds": info.thresholds,
+        "figures": _figures(summary, info.corpus),
         "charts": {"owner": chart_owner, "age": chart_age, "trend": chart_trend},
-        "diff": diff_view(run.get("diff")) if owner is None else None,
-        "gate": gate_view(run.get("gate")) if owner is None else None,
+        "diff": diff_view(run.diff) if owner is None else None,
+        "gate": gate_view(run.gate) if owner is None else None,
         "briefs": briefs,
         "rows": rows[:SERVER_ROWS],
         "row_count": len(rows),
         "owner_names": owner_names,
         "topics": topics,
-        "inventory": inventory(documents, run.get("ingest_errors") if owner is None else [], audit),
+        "inventory": inventory(documents, run.ingest_errors if owner is None else [], audit),
         "caution": CAUTION,
+        "verdicts": VERDICTS,
         "links": links or {},
         "data": dict(
             _page_data(
@@ -547,13 +536,18 @@ def build_view(
                 text_budget=text_budget,
                 highlighter=highlighter or Highlighter(),
             ),
-            audit=meta.get("as_of"),
+            audit=info.as_of,
             server_rows=min(SERVER_ROWS, len(rows)),
             x=[_script_row(r) for r in rows[SERVER_ROWS:]],
         ),
-        "audit_date": meta.get("as_of"),
+        "audit_date": info.as_of,
         "horizon": horizon,
     }
+
+
+def _brief_order(item: dict) -> tuple[float, str]:
+    brief: Brief = item["b"]
+    return -float(brief.weight or 0), str(brief.title)
 
 
 def render_page(view: dict) -> str:

@@ -4,8 +4,10 @@ the document inventory, plus the small number and date formatters the page share
 from __future__ import annotations
 
 from datetime import date
+from typing import Any
 
 from auditor.report.exports import document_owner
+from auditor.results import Diff, DiffItem, DocumentEntry, GateResult, IngestError
 
 LIST_LIMIT = 50  # rows per document inventory list
 
@@ -13,7 +15,7 @@ LIST_LIMIT = 50  # rows per document inventory list
 # --- small helpers --------------------------------------------------------------------------------
 
 
-def _date(value) -> date | None:
+def _date(value: str | None) -> date | None:
     if not value:
         return None
     try:
@@ -26,11 +28,11 @@ def _share(part: float, whole: float) -> float:
     return part / whole if whole else 0.0
 
 
-def _pct(x) -> str:
+def _pct(x: float | None) -> str:
     return "–" if x is None else f"{float(x) * 100:.1f}%"
 
 
-def _num(x, digits: int = 2) -> str:
+def _num(x: float | None, digits: int = 2) -> str:
     if x is None:
         return "–"
     x = float(x)
@@ -41,80 +43,49 @@ def _humanize(key: str) -> str:
     return str(key).replace("_", " ").strip().capitalize()
 
 
-DIFF_ORDER = ("new_gaps", "newly_stale", "resolved_gaps", "refreshed", "added", "removed")
-DIFF_META = ("base_run", "base_as_of", "head_run", "head_as_of", "summary", "counts", "weights", "exposure")
-
-
-def _scalar_text(value) -> str:
+def _scalar_text(value: Any) -> str:
     if isinstance(value, bool):
         return "yes" if value else "no"
     if isinstance(value, float):
         return _num(value, 3)
     if isinstance(value, (list, tuple)):
         return ", ".join(_scalar_text(v) for v in value)
-    if isinstance(value, dict):
-        return "; ".join(f"{k}: {_scalar_text(v)}" for k, v in value.items())
     return "" if value is None else str(value)
 
 
-def _diff_entry(item) -> dict:
-    """One question of a diff list (runs.diff_runs items: id, question, owner, weight, before,
-    after, reasons); other fields are shown as "key value"."""
-    if not isinstance(item, dict):
-        return {"id": None, "text": _scalar_text(item), "change": "", "extra": ""}
-    change = ""
-    if "before" in item or "after" in item:
-        change = f"{item.get('before') or 'not asked'} → {item.get('after') or 'not asked'}"
+def _diff_entry(item: DiffItem) -> dict:
+    """One question of a diff list."""
+    change = f"{item.before or 'not asked'} → {item.after or 'not asked'}"
     extra = []
-    if item.get("weight") is not None:
-        extra.append(f"weight {_num(item['weight'])}")
-    if item.get("owner"):
-        extra.append(str(item["owner"]))
-    if item.get("reasons"):
-        extra.append(", ".join(map(str, item["reasons"])))
-    extra += [
-        f"{_humanize(k).lower()} {_scalar_text(v)}"
-        for k, v in item.items()
-        if k not in ("id", "question", "owner", "weight", "before", "after", "reasons") and v not in (None, "", [])
-    ]
-    return {
-        "id": item.get("id"),
-        "text": _scalar_text(item.get("question", "")),
-        "change": change,
-        "extra": " · ".join(extra),
-    }
+    if item.weight is not None:
+        extra.append(f"weight {_num(item.weight)}")
+    if item.owner:
+        extra.append(str(item.owner))
+    if item.reasons:
+        extra.append(", ".join(map(str, item.reasons)))
+    return {"id": item.id, "text": _scalar_text(item.question or ""), "change": change, "extra": " · ".join(extra)}
 
 
-def diff_view(diff: dict | None) -> dict | None:
-    """The diff against the previous run (runs.diff_runs) as groups of questions and a few facts.
-
-    Known lists come first in DIFF_ORDER; any other list or field is still shown, by name.
-    """
-    if not isinstance(diff, dict):
+def diff_view(diff: Diff | None) -> dict | None:
+    """The diff against the previous run (history/diff.py) as groups of questions and a few facts."""
+    if diff is None:
         return None
-    weights = diff.get("weights") if isinstance(diff.get("weights"), dict) else {}
-    lists = [k for k in DIFF_ORDER if isinstance(diff.get(k), (list, tuple))]
-    lists += sorted(k for k, v in diff.items() if isinstance(v, (list, tuple)) and k not in lists)
     groups = [
-        {"key": k, "title": _humanize(k), "entries": [_diff_entry(x) for x in diff[k]], "weight": weights.get(k)}
-        for k in lists
+        {
+            "key": name,
+            "title": _humanize(name),
+            "entries": [_diff_entry(x) for x in items],
+            "weight": diff.weights.get(name),
+        }
+        for name, items in diff.lists().items()
     ]
     facts = []
-    if diff.get("base_run") is not None or diff.get("base_as_of"):
-        facts.append(("Compared with", f"run #{diff.get('base_run')} of {diff.get('base_as_of')}"))
-    exposure = diff.get("exposure") if isinstance(diff.get("exposure"), dict) else {}
-    for name in sorted(exposure):
-        pair = exposure[name]
-        if isinstance(pair, (list, tuple)) and len(pair) == 2:
+    if diff.base_run is not None or diff.base_as_of:
+        facts.append(("Compared with", f"run #{diff.base_run} of {diff.base_as_of}"))
+    for name, pair in (("fallback", diff.exposure.fallback), ("stale", diff.exposure.stale)):
+        if len(pair) == 2:
             facts.append((f"{_humanize(name)} exposure", f"{_pct(pair[0])} → {_pct(pair[1])}"))
-    for k in sorted(diff):
-        if k not in lists and k not in DIFF_META:
-            facts.append((_humanize(k), _scalar_text(diff[k])))
-    return {
-        "groups": groups,
-        "facts": facts,
-        "summary": diff.get("summary") if isinstance(diff.get("summary"), str) else None,
-    }
+    return {"groups": groups, "facts": facts, "summary": diff.summary}
 
 
 GATE_COLUMNS = (
@@ -126,94 +97,76 @@ GATE_COLUMNS = (
 )
 
 
-def gate_view(gate: dict | None) -> dict | None:
-    """The gate outcome (gate.evaluate_gate: passed, checks, message) with one row per check."""
-    if not isinstance(gate, dict):
+def gate_view(gate: GateResult | None) -> dict | None:
+    """The gate outcome (history/gate.py: passed, checks, message) with one row per check."""
+    if gate is None:
         return None
-    passed = gate.get("passed", gate.get("ok"))
-    checks = [c for c in gate.get("checks") or [] if isinstance(c, dict)]
-    known = [k for k, _ in GATE_COLUMNS]
-    cols = [k for k in known if any(k in c for c in checks)]
-    cols += sorted({k for c in checks for k in c if k not in known})
-    headers = [dict(GATE_COLUMNS).get(k, _humanize(k)) for k in cols]
     rows = []
-    for c in checks:
+    for c in gate.checks:
         cells = []
-        for k in cols:
-            v = c.get(k)
+        for k, _ in GATE_COLUMNS:
+            v = getattr(c, k)
             if k == "passed":
                 cells.append("passed" if v else "failed")
             elif k in ("value", "max") and isinstance(v, float):
                 cells.append(_num(v, 3))
             else:
                 cells.append(_scalar_text(v))
-        rows.append({"cells": cells, "failed": c.get("passed", c.get("ok")) is False})
-    facts = [
-        (_humanize(k), _scalar_text(v))
-        for k, v in sorted(gate.items())
-        if k not in ("passed", "ok", "checks", "message")
-    ]
+        rows.append({"cells": cells, "failed": c.passed is False})
+    headers = [title for _, title in GATE_COLUMNS] if rows else []
     return {
-        "passed": bool(passed),
-        "message": gate.get("message"),
+        "passed": bool(gate.passed),
+        "message": gate.message,
         "headers": headers,
         "rows": rows,
         "row_count": len(rows),
-        "facts": facts,
+        "facts": [],
     }
 
 
-def inventory(documents: list[dict], ingest_errors, audit: date | None) -> dict:
+def inventory(documents: list[DocumentEntry], ingest_errors: list[IngestError], audit: date | None) -> dict:
     """Document inventory: oldest, undated, expired, failed (with reasons), and counts."""
-    docs = sorted(documents, key=lambda d: str(d.get("path")))
-    active = [d for d in docs if d.get("status", "active") == "active"]
+    docs = sorted(documents, key=lambda d: str(d.path))
+    active = [d for d in docs if d.status == "active"]
 
-    def as_of(d):
-        return _date(d.get("as_of")) or _date(d.get("doc_date"))
+    def as_of(d: DocumentEntry) -> date | None:
+        return _date(d.as_of) or _date(d.doc_date)
+
+    def expires(d: DocumentEntry) -> date | None:
+        return _date(d.expires)
 
     dated = [d for d in active if as_of(d)]
-    oldest = sorted(dated, key=lambda d: (as_of(d), str(d.get("path"))))
+    oldest = sorted(dated, key=lambda d: (as_of(d), str(d.path)))
     undated = [d for d in active if not as_of(d)]
     expired = [
-        d
-        for d in active
-        if "expired" in (d.get("reasons") or [])
-        or (audit and _date(d.get("expires")) and _date(d.get("expires")) < audit)
+        d for d in active if "expired" in d.reasons or (audit and (end := expires(d)) is not None and end < audit)
     ]
-    expired.sort(key=lambda d: (str(d.get("expires") or ""), str(d.get("path"))))
+    expired.sort(key=lambda d: (str(d.expires or ""), str(d.path)))
     # A failed file: its kinds (documents.reasons, e.g. "encrypted") and messages (ingest_errors).
-    failed = {
-        str(d.get("path")): {
-            "path": d.get("path"),
-            "owner": document_owner(d),
-            "kinds": list(d.get("reasons") or []),
-            "errors": [],
-        }
+    failed: dict[str, dict] = {
+        str(d.path): {"path": d.path, "owner": document_owner(d), "kinds": list(d.reasons), "errors": []}
         for d in docs
-        if d.get("status") == "failed"
+        if d.status == "failed"
     }
-    for err in ingest_errors or []:
-        entry = failed.setdefault(
-            str(err.get("document")), {"path": err.get("document"), "owner": None, "kinds": [], "errors": []}
-        )
-        if err.get("error") and err.get("error") not in entry["errors"]:
-            entry["errors"].append(err.get("error"))
-    failed = list(failed.values())
-    failed.sort(key=lambda f: str(f["path"]))
+    for err in ingest_errors:
+        entry = failed.setdefault(str(err.document), {"path": err.document, "owner": None, "kinds": [], "errors": []})
+        if err.error and err.error not in entry["errors"]:
+            entry["errors"].append(err.error)
+    failed_list = sorted(failed.values(), key=lambda f: str(f["path"]))
     return {
         "counts": {
             "documents": len(docs),
             "active": len(active),
-            "removed": sum(1 for d in docs if d.get("status") == "removed"),
-            "failed": len(failed),
+            "removed": sum(1 for d in docs if d.status == "removed"),
+            "failed": len(failed_list),
             "undated": len(undated),
             "expired": len(expired),
-            "stale": sum(1 for d in active if d.get("fresh") is False),
+            "stale": sum(1 for d in active if d.fresh is False),
         },
         "oldest": oldest[:LIST_LIMIT],
         "undated": undated[:LIST_LIMIT],
         "expired": expired[:LIST_LIMIT],
-        "failed": failed,
+        "failed": failed_list,
         "more": {
             "oldest": max(0, len(oldest) - LIST_LIMIT),
             "undated": max(0, len(undated) - LIST_LIMIT),

@@ -20,7 +20,7 @@ from auditor.errors import StoreError
 from auditor.retrieval.bm25 import CorpusStats, Params, SparseIndex, count_terms
 from auditor.retrieval.tokenize import Tokenizer
 from auditor.retrieval.vocabulary import Vocabulary
-from auditor.store import SEARCHED_STATUSES, Store
+from auditor.store import SEARCHED_STATUSES, Store, chunked, marks
 
 _ACTIVE = f"FROM passages p JOIN documents d ON d.id = p.document_id WHERE d.status IN {SEARCHED_STATUSES}"
 
@@ -200,11 +200,10 @@ def describe_hits(store: Store, result: SearchResult) -> list[dict]:
     """The hits of `result` with where they stand, for `auditor search` (text or JSON)."""
     ids = [hit.passage_id for hit in result.hits]
     rows = {}
-    for i in range(0, len(ids), 500):
-        chunk = ids[i : i + 500]
+    for chunk in chunked(ids):
         for row in store.query(
             "SELECT p.id, p.text, p.heading_path, p.page, d.path FROM passages p "
-            f"JOIN documents d ON d.id = p.document_id WHERE p.id IN ({','.join('?' * len(chunk))})",
+            f"JOIN documents d ON d.id = p.document_id WHERE p.id IN ({marks(chunk)})",
             chunk,
         ):
             rows[row["id"]] = row

@@ -9,7 +9,7 @@ from __future__ import annotations
 
 import numpy as np
 
-from auditor.store import Store
+from auditor.store import Store, chunked, marks
 
 _CHUNK = 500  # SQLite's default limit on bound parameters is 999 (older builds) or 32766
 
@@ -25,10 +25,10 @@ class Vocabulary:
         return self.store.db.execute("SELECT count(*) FROM terms").fetchone()[0]
 
     def _fetch(self, terms: list[str]) -> None:
-        for i in range(0, len(terms), _CHUNK):
-            chunk = terms[i : i + _CHUNK]
-            marks = ",".join("?" * len(chunk))
-            for term_id, term in self.store.db.execute(f"SELECT id, term FROM terms WHERE term IN ({marks})", chunk):
+        for chunk in chunked(terms, _CHUNK):
+            for term_id, term in self.store.db.execute(
+                f"SELECT id, term FROM terms WHERE term IN ({marks(chunk)})", chunk
+            ):
                 self._ids[term] = term_id
 
     def ids(self, tokens: list[str]) -> np.ndarray:
