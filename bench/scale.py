@@ -315,7 +315,7 @@ def main(argv=None) -> int:
     scan_s = sum(times.values())
     report_mb = (out / "index.html").stat().st_size / 1e6
     peak_gb = memory.peak_tree / 1e9
-    s = run["summary"]
+    s = run.summary.to_json()
     print()
     print(
         f"corpus: {files:,} files, {passages:,} passages ({summary.line()}; {summary.passages:,} written, "

@@ -1,8 +1,10 @@
-"""Run objects for the report tests, shaped like `run_audit` / `runs.load_run` return them.
+"""Runs for the report tests, as results.json holds them (`*_json`, docs/results-json.md) and as the
+typed runs (`auditor.results.Run`) that `run_audit` / `runs.load_run` return.
 
 `sample_run()` is the invented Fernhollow Water Cooperative (fixtures/demo/README.md) with every verdict,
 reason, flag and action, several owners, a history of three runs, a diff, a gate outcome, ingest
 errors, and hostile strings in questions, owners, topics, paths, passages, briefs and errors.
+`bare_run()` has only the keys every format-1 run has, as runs stored by older versions do.
 `large_run(n)` is a deterministic run of `n` questions over a shared pool of passages, for size and
 speed checks. All content is invented for tests only.
 """
@@ -11,6 +13,8 @@ from __future__ import annotations
 
 import random
 from datetime import date, timedelta
+
+from auditor.results import Run
 
 # Strings that must show literally and never run. The `__pwned` assignments let the browser test
 # see whether any of them executed.
@@ -63,7 +67,7 @@ def evidence(
     answer_type=None,
     answer_type_found=True,
 ):
-    # The keys and their order follow what auditor/audit.py writes for one evidence item.
+    # The keys and their order follow what auditor/judgement/audit.py writes for one evidence item.
     return {
         "rank": rank,
         "document": document,
@@ -177,8 +181,8 @@ HOSTILE_TEXT = (
 )
 
 
-def sample_run() -> dict:
-    """The demo-shaped run object with every verdict, reason, flag and hostile string."""
+def sample_json() -> dict:
+    """The demo-shaped run with every verdict, reason, flag and hostile string, as results.json holds it."""
     st_phone = statement(
         "As of February 2023",
         "2023-02-01",
@@ -859,15 +863,16 @@ def sample_run() -> dict:
         "format": 1,
         "run": {
             "id": 7,
-            "title": "Fernhollow Water Cooperative help centre",
             "as_of": AS_OF.isoformat(),
             "horizon_days": HORIZON,
             "started": "2026-12-01T06:00:00Z",
             "finished": "2026-12-01T06:02:11Z",
+            "title": "Fernhollow Water Cooperative help centre",
+            "tokenizer": {"language": "english", "stopwords": "english"},
+            "corpus": {"documents": 12, "passages": 35, "failed": 2, "freshness": 0.4571, "mean_age_days": 412.6},
             "thresholds": {"support": 0.35, "weak_margin": 0.08, "source": "default"},
             "config_fingerprint": "c0ffee1234567890abcdef",
             "corpus_fingerprint": "feedface0987654321",
-            "corpus": {"documents": 12, "passages": 35, "failed": 2, "freshness": 0.4571, "mean_age_days": 412.6},
         },
         "summary": summary,
         "questions": qs,
@@ -880,8 +885,8 @@ def sample_run() -> dict:
     }
 
 
-def bare_run() -> dict:
-    """Only the keys of docs/results-json.md, as an older stored run has them."""
+def bare_json() -> dict:
+    """Only the keys every format-1 run has (docs/results-json.md), as an older stored run has them."""
     return {
         "format": 1,
         "run": {
@@ -962,7 +967,7 @@ OWNERS = (
 )
 
 
-def large_run(n: int = 10_000, passages: int = 4_000, seed: int = 7) -> dict:
+def large_json(n: int = 10_000, passages: int = 4_000, seed: int = 7) -> dict:
     """A run of `n` questions, each with 3 evidence items drawn from `passages` shared passages."""
     rng = random.Random(seed)
     pool = []
@@ -1032,7 +1037,7 @@ def large_run(n: int = 10_000, passages: int = 4_000, seed: int = 7) -> dict:
                 action=action,
             )
         )
-    run = sample_run()
+    run = sample_json()
     run["questions"] = qs
     run["summary"] = summarize(qs)
     run["run"]["corpus"] = {
@@ -1045,3 +1050,15 @@ def large_run(n: int = 10_000, passages: int = 4_000, seed: int = 7) -> dict:
     run["diff"] = None
     run["briefs"] = []
     return run
+
+
+def sample_run() -> Run:
+    return Run.from_json(sample_json())
+
+
+def bare_run() -> Run:
+    return Run.from_json(bare_json())
+
+
+def large_run(n: int = 10_000, passages: int = 4_000, seed: int = 7) -> Run:
+    return Run.from_json(large_json(n, passages, seed))

@@ -4,13 +4,20 @@ import json
 from datetime import date
 
 import pytest
+from ingest_helpers import make_pdf
 
-from auditor.config import Config, FreshnessConfig, HorizonRule, SupportConfig
+from auditor.config import Config, FreshnessConfig, HorizonRule, SupportConfig, load_config
+from auditor.history import runs
+from auditor.history.runs import load_run
+from auditor.ingest.pipeline import ingest_corpus
 from auditor.judgement.audit import current_thresholds, run_audit
 from auditor.models import Question
+from auditor.report import write_report
+from auditor.results import IngestError, Run, Thresholds
+from auditor.retrieval.index import PassageIndex
 from auditor.retrieval.tokenize import Tokenizer
 from auditor.retrieval.vocabulary import Vocabulary
-from auditor.store import dumps
+from auditor.store import Store, dumps
 from auditor.temporal import extract as temporal
 
 AS_OF = date(2026, 12, 1)
@@ -120,84 +127,87 @@ def kb(store):
 
 def test_verdicts_summary_and_run_object(kb):
     run = run_audit(kb, Config(), QUESTIONS, as_of=AS_OF)
-    by_id = {q["id"]: q for q in run["questions"]}
-    assert [q["id"] for q in run["questions"]] == ["q1", "q2", "q3"]
-    assert by_id["q1"]["verdict"] == "covered" and by_id["q1"]["action"] is None
-    assert by_id["q2"]["verdict"] == "stale" and by_id["q2"]["reasons"] == ["too_old"]
-    assert by_id["q2"]["action"] == "refresh"
-    assert by_id["q3"]["verdict"] == "gap" and by_id["q3"]["action"] == "write"
-    assert by_id["q3"]["reasons"] == []
-    assert {"autopay", "debit"} <= set(by_id["q3"]["missing_terms"])
+    by_id = {q.id: q for q in run.questions}
+    assert [q.id for q in run.questions] == ["q1", "q2", "q3"]
+    assert by_id["q1"].verdict == "covered" and by_id["q1"].action is None
+    assert by_id["q2"].verdict == "stale" and by_id["q2"].reasons == ["too_old"]
+    assert by_id["q2"].action == "refresh"
+    assert by_id["q3"].verdict == "gap" and by_id["q3"].action == "write"
+    assert by_id["q3"].reasons == []
+    assert {"autopay", "debit"} <= set(by_id["q3"].missing_terms)
     # Weighted exposures (docs/judgement.md): gap weight 25 and stale weight 5 of 40.
-    s = run["summary"]
-    assert (s["questions"], s["covered"], s["stale"], s["gap"], s["weight"]) == (3, 1, 1, 1, 40.0)
-    assert s["fallback_exposure"] == pytest.approx(25 / 40) and s["stale_exposure"] == pytest.approx(5 / 40)
+    s = run.summary
+    assert (s.questions, s.covered, s.stale, s.gap, s.weight) == (3, 1, 1, 1, 40.0)
+    assert s.fallback_exposure == pytest.approx(25 / 40) and s.stale_exposure == pytest.approx(5 / 40)
     # The best evidence of q1 is the phone passage, with its score breakdown and owner.
-    top = by_id["q1"]["evidence"][0]
-    assert top["document"] == "billing/payments.md" and top["section"] == "Payments › By phone"
-    assert top["rank"] == 1 and top["supporting"] and top["fresh"] and top["owner"] == "Billing"
-    assert set(top["terms"]) >= {"pay", "phone", "bill"} and all(v > 0 for v in top["terms"].values())
-    assert sum(top["terms"].values()) == pytest.approx(top["score"], abs=1e-3)
-    assert by_id["q1"]["owner"] == "Billing"  # no owner in the question set: the evidence's owner
+    top = by_id["q1"].evidence[0]
+    assert top.document == "billing/payments.md" and top.section == "Payments › By phone"
+    assert top.rank == 1 and top.supporting and top.fresh and top.owner == "Billing"
+    assert set(top.terms) >= {"pay", "phone", "bill"} and all(v > 0 for v in top.terms.values())
+    assert sum(top.terms.values()) == pytest.approx(top.score, abs=1e-3)
+    assert by_id["q1"].owner == "Billing"  # no owner in the question set: the evidence's owner
     # The meter passage carries its dated statement.
-    meter = by_id["q2"]["evidence"][0]
-    assert meter["as_of_source"] == "statement" and meter["as_of"] == "2021-03-31"
-    assert meter["statements"][0]["expression"] == "March 2021" and meter["statements"][0]["role"] == "as_of"
-    head = run["run"]
-    assert head["thresholds"] == {"support": 0.45, "weak_margin": 0.05, "source": "default"}
-    assert head["horizon_days"] == 365 and head["as_of"] == "2026-12-01" and head["id"] >= 1
-    assert head["corpus"]["documents"] == 3 and head["corpus"]["passages"] == 4 and head["corpus"]["failed"] == 1
-    assert run["ingest_errors"] == [{"document": "quality/scan.pdf", "error": "encrypted PDF, no password given"}]
-    assert run["format"] == 1 and run["diff"] is None and run["gate"] is None
+    meter = by_id["q2"].evidence[0]
+    assert meter.as_of_source == "statement" and meter.as_of == "2021-03-31"
+    assert meter.statements[0].expression == "March 2021" and meter.statements[0].role == "as_of"
+    head = run.info
+    assert head.thresholds == Thresholds(support=0.45, weak_margin=0.05, source="default")
+    assert head.horizon_days == 365 and head.as_of == "2026-12-01" and head.id is not None and head.id >= 1
+    assert (head.corpus.documents, head.corpus.passages, head.corpus.failed) == (3, 4, 1)
+    assert run.ingest_errors == [IngestError(document="quality/scan.pdf", error="encrypted PDF, no password given")]
+    assert run.to_json()["format"] == 1 and run.diff is None and run.gate is None
+
+
+def test_statements_are_written_as_their_temporal_expression(kb):
+    # The results.json statement is TemporalExpression.as_json (the `auditor dates` shape), keys in
+    # the order of docs/results-json.md.
+    meter = run_audit(kb, Config(), QUESTIONS, as_of=AS_OF).questions[1].evidence[0]
+    expected = temporal.extract(meter.text, date(2021, 3, 15))[0].as_json()
+    written = meter.statements[0].to_json()
+    assert written == expected
+    assert list(written) == ["expression", "start", "end", "granularity", "role", "text"]
 
 
 def test_corpus_freshness_follows_cho_and_garcia_molina(kb):
     # F = (1/N) Σ F(e_i), A = (1/N) Σ A(e_i) with A = 0 when fresh (Cho & Garcia-Molina, SIGMOD 2000).
     # 3 of 4 passages are fresh; the meter passage is as of 2021-03-31, 2071 days before 2026-12-01.
-    corpus = run_audit(kb, Config(), QUESTIONS, as_of=AS_OF)["run"]["corpus"]
+    corpus = run_audit(kb, Config(), QUESTIONS, as_of=AS_OF).info.corpus
     age = (AS_OF - date(2021, 3, 31)).days
-    assert corpus["freshness"] == pytest.approx(0.75)
-    assert corpus["mean_age_days"] == pytest.approx(age / 4, abs=0.1)
+    assert corpus.freshness == pytest.approx(0.75)
+    assert corpus.mean_age_days == pytest.approx(age / 4, abs=0.1)
 
 
 def test_documents_inventory_lists_failed_files(kb):
-    docs = {d["path"]: d for d in run_audit(kb, Config(), QUESTIONS, as_of=AS_OF)["documents"]}
+    docs = {d.path: d for d in run_audit(kb, Config(), QUESTIONS, as_of=AS_OF).documents}
     assert list(docs) == sorted(docs)
-    assert docs["quality/scan.pdf"]["status"] == "failed" and docs["quality/scan.pdf"]["reasons"] == ["encrypted"]
+    assert docs["quality/scan.pdf"].status == "failed" and docs["quality/scan.pdf"].reasons == ["encrypted"]
     meters = docs["field/meters.md"]
-    assert (meters["status"], meters["passages"], meters["fresh"], meters["reasons"]) == (
-        "active",
-        1,
-        False,
-        ["too_old"],
-    )
-    assert docs["billing/payments.md"]["fresh"] is True and docs["billing/payments.md"]["passages"] == 2
+    assert (meters.status, meters.passages, meters.fresh, meters.reasons) == ("active", 1, False, ["too_old"])
+    assert docs["billing/payments.md"].fresh is True and docs["billing/payments.md"].passages == 2
 
 
 def test_run_and_results_are_stored(kb):
     run = run_audit(kb, Config(), QUESTIONS, as_of=AS_OF)
-    row = kb.query("SELECT * FROM runs WHERE id = ?", [run["run"]["id"]])[0]
-    assert row["status"] == "done" and row["finished"] and row["as_of"] == "2026-12-01"
-    assert json.loads(row["summary"]) == run["summary"]
-    assert json.loads(row["corpus"]) == run["run"]["corpus"]
+    row = kb.query("SELECT * FROM runs WHERE id = ?", [run.info.id])[0]
+    assert row["status"] == "done" and row["finished"] == run.info.finished and row["as_of"] == "2026-12-01"
+    assert json.loads(row["summary"]) == run.summary.to_json()
+    assert json.loads(row["corpus"]) == run.info.corpus.to_json()
     assert json.loads(row["thresholds"])["source"] == "default"
-    assert json.loads(row["extras"])["documents"] == run["documents"]
-    results = kb.query("SELECT * FROM results WHERE run_id = ? ORDER BY position", [run["run"]["id"]])
+    assert json.loads(row["extras"])["documents"] == [d.to_json() for d in run.documents]
+    results = kb.query("SELECT * FROM results WHERE run_id = ? ORDER BY position", [run.info.id])
     assert [r["qid"] for r in results] == ["q1", "q2", "q3"]
-    assert [json.loads(r["result"]) for r in results] == json.loads(dumps(run["questions"]))
+    assert [json.loads(r["result"]) for r in results] == [q.to_json() for q in run.questions]
     # A second audit records the first in its history.
     second = run_audit(kb, Config(), QUESTIONS, as_of=AS_OF)
-    assert [h["id"] for h in second["history"]] == [run["run"]["id"]]
-    assert second["run"]["id"] == run["run"]["id"] + 1
+    assert [h.id for h in second.history] == [run.info.id]
+    assert second.info.id == run.info.id + 1
 
 
 def test_a_failing_audit_stores_nothing(kb, monkeypatch):
-    import auditor.judgement.audit as audit
-
     def broken(*args, **kwargs):
         raise RuntimeError("disk full")
 
-    monkeypatch.setattr(audit, "dumps", broken)  # fails inside the storing transaction
+    monkeypatch.setattr(runs, "dumps", broken)  # fails inside the storing transaction
     with pytest.raises(RuntimeError):
         run_audit(kb, Config(), QUESTIONS, as_of=AS_OF)
     assert kb.query("SELECT count(*) AS n FROM runs")[0]["n"] == 0
@@ -207,46 +217,46 @@ def test_a_failing_audit_stores_nothing(kb, monkeypatch):
 def test_horizon_override_rules_and_question_horizons(kb):
     # --horizon 3000 makes the 2021 meter passage fresh again.
     run = run_audit(kb, Config(), QUESTIONS, as_of=AS_OF, horizon_days=3000)
-    assert run["run"]["horizon_days"] == 3000
-    assert run["questions"][1]["verdict"] == "covered" and run["questions"][1]["horizon_days"] == 3000
+    assert run.info.horizon_days == 3000
+    assert run.questions[1].verdict == "covered" and run.questions[1].horizon_days == 3000
     # A topic rule, and a per-question override that wins over it.
     config = Config(freshness=FreshnessConfig(365, (HorizonRule(3000, topic="meters"),)))
-    assert run_audit(kb, config, QUESTIONS, as_of=AS_OF)["questions"][1]["verdict"] == "covered"
+    assert run_audit(kb, config, QUESTIONS, as_of=AS_OF).questions[1].verdict == "covered"
     strict = [QUESTIONS[0], Question("q2", QUESTIONS[1].question, topic="meters", horizon_days=30)]
-    q2 = run_audit(kb, config, strict, as_of=AS_OF)["questions"][1]
-    assert q2["verdict"] == "stale" and q2["horizon_days"] == 30
+    q2 = run_audit(kb, config, strict, as_of=AS_OF).questions[1]
+    assert q2.verdict == "stale" and q2.horizon_days == 30
 
 
 def test_thresholds_come_from_calibration_then_config_then_default(kb):
-    assert current_thresholds(kb, Config())["source"] == "default"
+    assert current_thresholds(kb, Config()).source == "default"
     config = Config(support=SupportConfig(threshold=0.99))
-    assert current_thresholds(kb, config) == {"support": 0.99, "weak_margin": 0.05, "source": "config"}
+    assert current_thresholds(kb, config) == Thresholds(support=0.99, weak_margin=0.05, source="config")
     # Nothing clears 0.99: every question becomes a gap.
-    assert run_audit(kb, config, QUESTIONS, as_of=AS_OF)["summary"]["gap"] == 3
+    assert run_audit(kb, config, QUESTIONS, as_of=AS_OF).summary.gap == 3
     with kb.transaction():
         kb.db.execute(
             "INSERT INTO calibrations (created, labels, thresholds) VALUES ('x', 'l.csv', ?)",
             [dumps({"support": 0.05, "weak_margin": 0.01})],
         )
     run = run_audit(kb, config, QUESTIONS, as_of=AS_OF)
-    assert run["run"]["thresholds"] == {"support": 0.05, "weak_margin": 0.01, "source": "calibration"}
-    assert run["summary"]["gap"] < 3
+    assert run.info.thresholds == Thresholds(support=0.05, weak_margin=0.01, source="calibration")
+    assert run.summary.gap < 3
 
 
 def test_empty_question_set_and_empty_store(store):
     run = run_audit(store, Config(), [], as_of=AS_OF)
-    assert run["summary"]["questions"] == 0 and run["summary"]["fallback_exposure"] == 0.0
-    assert run["run"]["corpus"]["passages"] == 0
-    gap = run_audit(store, Config(), QUESTIONS[:1], as_of=AS_OF)["questions"][0]
-    assert gap["verdict"] == "gap" and gap["evidence"] == [] and gap["reasons"] == []
+    assert run.summary.questions == 0 and run.summary.fallback_exposure == 0.0
+    assert run.info.corpus.passages == 0
+    gap = run_audit(store, Config(), QUESTIONS[:1], as_of=AS_OF).questions[0]
+    assert gap.verdict == "gap" and gap.evidence == [] and gap.reasons == []
 
 
-def test_run_object_follows_the_contract_and_reloads_equal(kb, tmp_path):
-    # The keys of the developers' contract (results.json format 1, docs/results-json.md, and extensions).
-    from auditor.history.runs import load_run
-
-    run = run_audit(kb, Config(), QUESTIONS, as_of=AS_OF, out=tmp_path / "report")
-    assert {
+def test_run_follows_the_format_and_reloads_equal(kb, tmp_path):
+    # results.json format 1 (docs/results-json.md): every key of every part, in the documented order.
+    run = run_audit(kb, Config(), QUESTIONS, as_of=AS_OF)
+    write_report(run, tmp_path / "report")
+    written = json.loads((tmp_path / "report" / "results.json").read_text(encoding="utf-8"))
+    assert list(written) == [
         "format",
         "run",
         "summary",
@@ -257,22 +267,23 @@ def test_run_object_follows_the_contract_and_reloads_equal(kb, tmp_path):
         "history",
         "diff",
         "gate",
-    } <= set(run)
-    assert {
+    ]
+    assert list(written["run"]) == [
         "id",
         "as_of",
         "horizon_days",
         "started",
         "finished",
         "title",
+        "tokenizer",
         "corpus",
         "thresholds",
         "config_fingerprint",
         "corpus_fingerprint",
-    } <= set(run["run"])
-    assert {"documents", "passages", "failed", "freshness", "mean_age_days"} <= set(run["run"]["corpus"])
-    for q in run["questions"]:
-        assert {
+    ]
+    assert list(written["run"]["corpus"]) == ["documents", "passages", "failed", "freshness", "mean_age_days"]
+    for q in written["questions"]:
+        assert list(q) == [
             "id",
             "question",
             "owner",
@@ -280,35 +291,39 @@ def test_run_object_follows_the_contract_and_reloads_equal(kb, tmp_path):
             "weight",
             "verdict",
             "reasons",
-            "support",
-            "missing_terms",
-            "evidence",
             "flags",
             "action",
+            "support",
             "horizon_days",
-        } <= set(q)
+            "missing_terms",
+            "terms",
+            "evidence",
+        ]
         for e in q["evidence"]:
-            assert {
+            assert list(e) == [
+                "rank",
                 "document",
                 "page",
                 "section",
                 "passage",
+                "owner",
                 "score",
                 "support",
+                "signals",
+                "answer_type",
+                "answer_type_found",
                 "supporting",
                 "as_of",
                 "as_of_source",
                 "expires",
                 "fresh",
                 "reasons",
-                "text",
-                "owner",
                 "terms",
                 "statements",
-                "rank",
-            } <= set(e)
-    for d in run["documents"]:
-        assert set(d) == {
+                "text",
+            ]
+    for d in written["documents"]:
+        assert list(d) == [
             "path",
             "title",
             "kind",
@@ -321,30 +336,20 @@ def test_run_object_follows_the_contract_and_reloads_equal(kb, tmp_path):
             "as_of",
             "fresh",
             "reasons",
-        }
-    # The gap question becomes a content brief (auditor/briefs.py) naming it.
-    assert any("q3" in b["questions"] for b in run["briefs"])
-    # With `out`, the report is written from the same run object.
-    written = json.loads((tmp_path / "report" / "results.json").read_text(encoding="utf-8"))
+        ]
     assert [q["verdict"] for q in written["questions"]] == ["covered", "stale", "gap"]
-    # What runs.load_run rebuilds from the store is the run we returned.
-    loaded = load_run(kb, run["run"]["id"])
-    assert json.loads(dumps(loaded["questions"])) == json.loads(dumps(run["questions"]))
-    assert loaded["summary"] == run["summary"] and loaded["run"]["corpus"] == run["run"]["corpus"]
-    assert loaded["documents"] == run["documents"] and loaded["run"]["thresholds"] == run["run"]["thresholds"]
+    # The gap question becomes a content brief (judgement/briefs.py) naming it.
+    assert any("q3" in b.questions for b in run.briefs)
+    # What runs.load_run rebuilds from the store is the run we returned, and results.json reads back as it.
+    loaded = load_run(kb, run.info.id)
+    assert loaded == run
+    assert Run.from_json(written) == run
 
 
 def test_a_file_that_breaks_stays_searchable_and_its_owner_sees_the_failure(tmp_path):
     # Real files through the real ingest: a PDF that later arrives truncated keeps its last good
     # passages in the search (the assistant's own index still has them), and a broken file that was
     # never ingested is still attributed through the owner map.
-    from ingest_helpers import make_pdf
-
-    from auditor.config import load_config
-    from auditor.ingest.pipeline import ingest_corpus
-    from auditor.retrieval.index import PassageIndex
-    from auditor.store import Store
-
     kb = tmp_path / "kb" / "quality"
     kb.mkdir(parents=True)
     good = make_pdf(["Hydrant flushing notice. Crews flush the hydrants on Birchwood Lane every autumn."])
@@ -366,7 +371,7 @@ def test_a_file_that_breaks_stays_searchable_and_its_owner_sees_the_failure(tmp_
         run = run_audit(
             store, config, [Question("q1", "When are the hydrants on Birchwood Lane flushed?")], as_of=date(2026, 12, 1)
         )
-    assert run["questions"][0]["evidence"][0]["document"] == "quality/flushing.pdf"
-    inventory = {d["path"]: d for d in run["documents"]}
-    assert inventory["quality/scan.pdf"]["owner"] == "Water Quality"
-    assert inventory["quality/scan.pdf"]["status"] == inventory["quality/flushing.pdf"]["status"] == "failed"
+    assert run.questions[0].evidence[0].document == "quality/flushing.pdf"
+    inventory = {d.path: d for d in run.documents}
+    assert inventory["quality/scan.pdf"].owner == "Water Quality"
+    assert inventory["quality/scan.pdf"].status == inventory["quality/flushing.pdf"].status == "failed"

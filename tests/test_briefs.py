@@ -1,5 +1,5 @@
-"""Content briefs from the gap questions of a run object (issue: gaps grouped by shared missing
-terms and nearest topic, with total weight, example questions and a suggested owner)."""
+"""Content briefs from the gap questions of a run (auditor/judgement/briefs.py: gaps grouped by shared
+missing terms and nearest topic, with total weight, example questions and a suggested owner)."""
 
 from __future__ import annotations
 
@@ -8,26 +8,45 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 
 from auditor.judgement.briefs import content_briefs, missing_terms, nearest_topic
+from auditor.results import QuestionResult
 
 
 def q(qid, text, *, verdict="gap", weight=1.0, missing=(), owner=None, topic=None, evidence=()):
-    """A run-object question (docs/results-json.md shape, with the extended evidence keys)."""
-    return {
-        "id": qid,
-        "question": text,
-        "owner": owner,
-        "topic": topic,
-        "weight": weight,
-        "verdict": verdict,
-        "reasons": [],
-        "support": 0.1,
-        "missing_terms": list(missing),
-        "evidence": [dict(e) for e in evidence],
-    }
+    """A question's result, read from its results.json shape (docs/results-json.md)."""
+    return QuestionResult.from_json(
+        {
+            "id": qid,
+            "question": text,
+            "owner": owner,
+            "topic": topic,
+            "weight": weight,
+            "verdict": verdict,
+            "reasons": [],
+            "support": 0.1,
+            "missing_terms": list(missing),
+            "evidence": [dict(e) for e in evidence],
+        }
+    )
 
 
 def ev(document, section="", owner="unassigned", rank=1):
-    return {"document": document, "section": section, "owner": owner, "rank": rank, "support": 0.2, "supporting": False}
+    return {
+        "rank": rank,
+        "document": document,
+        "page": None,
+        "section": section,
+        "passage": None,
+        "owner": owner,
+        "score": 1.0,
+        "support": 0.2,
+        "supporting": False,
+        "as_of": None,
+        "as_of_source": None,
+        "expires": None,
+        "fresh": True,
+        "reasons": [],
+        "text": "",
+    }
 
 
 # Invented demo questions (fixtures/demo/README.md).
@@ -78,7 +97,7 @@ RUN = [
 
 def test_briefs_of_the_demo_like_run():
     briefs = content_briefs(RUN)
-    assert briefs == [
+    assert [b.to_json() for b in briefs] == [
         {
             "title": "autopay (payments)",
             "terms": ["autopay"],
@@ -135,9 +154,9 @@ def test_briefs_of_the_demo_like_run():
 
 def test_every_gap_once_and_nothing_else():
     briefs = content_briefs(RUN)
-    ids = [i for b in briefs for i in b["questions"]]
-    assert sorted(ids) == sorted(x["id"] for x in RUN if x["verdict"] == "gap")
-    assert sum(b["weight"] for b in briefs) == sum(x["weight"] for x in RUN if x["verdict"] == "gap")
+    ids = [i for b in briefs for i in b.questions]
+    assert sorted(ids) == sorted(x.id for x in RUN if x.verdict == "gap")
+    assert sum(b.weight for b in briefs) == sum(x.weight for x in RUN if x.verdict == "gap")
 
 
 def test_min_shared_terms_two_splits_single_term_overlap():
@@ -147,49 +166,34 @@ def test_min_shared_terms_two_splits_single_term_overlap():
         q("c", "C", weight=1, missing=["autopay", "discount"]),
     ]
     one = content_briefs(run)
-    assert [b["questions"] for b in one] == [["a", "b", "c"]]
-    assert one[0]["terms"] == ["autopay", "union"]  # shared by two or more questions
+    assert [b.questions for b in one] == [["a", "b", "c"]]
+    assert one[0].terms == ["autopay", "union"]  # shared by two or more questions
     two = content_briefs(run, min_shared_terms=2)
-    assert [b["questions"] for b in two] == [["a", "b"], ["c"]]
+    assert [b.questions for b in two] == [["a", "b"], ["c"]]
     with pytest.raises(ValueError):
         content_briefs(run, min_shared_terms=0)
 
 
 def test_owner_rules_question_then_evidence_then_unassigned():
+    def owner(*questions):
+        return content_briefs(list(questions))[0].owner
+
+    assert owner(q("a", "A", missing=["x"], owner="Billing", evidence=[ev("d.md", owner="Customer Care")])) == "Billing"
     assert (
-        content_briefs([q("a", "A", missing=["x"], owner="Billing", evidence=[ev("d.md", owner="Customer Care")])])[0][
-            "owner"
-        ]
-        == "Billing"
-    )
-    assert (
-        content_briefs([q("a", "A", missing=["x"], owner="unassigned", evidence=[ev("d.md", owner="Customer Care")])])[
-            0
-        ]["owner"]
+        owner(q("a", "A", missing=["x"], owner="unassigned", evidence=[ev("d.md", owner="Customer Care")]))
         == "Customer Care"
     )
     # The best evidence is rank 1, wherever it stands in the list.
-    assert (
-        content_briefs(
-            [
-                q(
-                    "a",
-                    "A",
-                    missing=["x"],
-                    evidence=[ev("d.md", owner="Field Operations", rank=2), ev("e.md", owner="Billing", rank=1)],
-                )
-            ]
-        )[0]["owner"]
-        == "Billing"
-    )
-    assert content_briefs([q("a", "A", missing=["x"])])[0]["owner"] == "unassigned"
+    ranked = [ev("d.md", owner="Field Operations", rank=2), ev("e.md", owner="Billing", rank=1)]
+    assert owner(q("a", "A", missing=["x"], evidence=ranked)) == "Billing"
+    assert owner(q("a", "A", missing=["x"])) == "unassigned"
     # A brief's owner is the weight majority of its questions' owners.
     mixed = [
         q("a", "A", weight=2, missing=["x"], owner="Billing"),
         q("b", "B", weight=3, missing=["x"], owner="Customer Care"),
         q("c", "C", weight=2, missing=["x"], owner="Billing"),
     ]
-    assert content_briefs(mixed)[0]["owner"] == "Billing"
+    assert owner(*mixed) == "Billing"
 
 
 def test_leader_clustering_does_not_chain():
@@ -199,11 +203,11 @@ def test_leader_clustering_does_not_chain():
         q("b", "B", weight=2, missing=["meter", "autopay"]),
         q("c", "C", weight=1, missing=["autopay"]),
     ]
-    assert [b["questions"] for b in content_briefs(run)] == [["a", "b"], ["c"]]
+    assert [b.questions for b in content_briefs(run)] == [["a", "b"], ["c"]]
 
 
 def test_no_gaps_no_briefs():
-    assert content_briefs([x for x in RUN if x["verdict"] != "gap"]) == []
+    assert content_briefs([x for x in RUN if x.verdict != "gap"]) == []
     assert content_briefs([]) == []
 
 
@@ -234,15 +238,15 @@ def test_partition_weight_and_order_independence(specs, rnd):
         for i, (m, t, v) in enumerate(specs)
     ]
     briefs = content_briefs(run)
-    gap_ids = sorted(x["id"] for x in run if x["verdict"] == "gap")
-    assert sorted(i for b in briefs for i in b["questions"]) == gap_ids
-    assert [b["weight"] for b in briefs] == sorted((b["weight"] for b in briefs), reverse=True)
+    gap_ids = sorted(x.id for x in run if x.verdict == "gap")
+    assert sorted(i for b in briefs for i in b.questions) == gap_ids
+    assert [b.weight for b in briefs] == sorted((b.weight for b in briefs), reverse=True)
     for b in briefs:
-        members = [x for x in run if x["id"] in b["questions"]]
-        assert b["weight"] == sum(x["weight"] for x in members)
-        assert b["examples"] == [x["question"] for x in members][:3]
-        for term in b["terms"]:
-            assert any(term in x["missing_terms"] for x in members)
+        members = [x for x in run if x.id in b.questions]
+        assert b.weight == sum(x.weight for x in members)
+        assert b.examples == [x.question for x in members][:3]
+        for term in b.terms:
+            assert any(term in x.missing_terms for x in members)
     shuffled = run[:]
     rnd.shuffle(shuffled)
     assert content_briefs(shuffled) == briefs
@@ -256,4 +260,4 @@ def test_terms_from_redaction_placeholders_are_no_content():
     assert missing_terms(said) == ["email", "bounc"]
     assert missing_terms(q("c", "call [phone]", missing=["phone", "call"])) == ["call"]
     briefs = content_briefs([only, q("d", "send the bill to [email]", weight=2, missing=["email"])])
-    assert [(b["terms"], b["questions"]) for b in briefs] == [([], ["d"]), (["autopay"], ["a"])]
+    assert [(b.terms, b.questions) for b in briefs] == [([], ["d"]), (["autopay"], ["a"])]

@@ -146,7 +146,7 @@ def test_calibration_is_stored_and_the_next_audit_uses_it(labelled):
     strict = Config(support=SupportConfig(threshold=0.95))
     questions = [Question(l.id, l.question) for l in load_labels(labels)]
     before = run_audit(store, strict, questions, as_of=AS_OF)
-    assert before["summary"]["gap"] == 8  # nothing reaches 0.95
+    assert before.summary.gap == 8  # nothing reaches 0.95
 
     outcome = calibrate(store, strict, labels)
     assert outcome["metrics"]["auc"] == 1.0  # the four answerable questions outscore the four others
@@ -159,9 +159,9 @@ def test_calibration_is_stored_and_the_next_audit_uses_it(labelled):
     assert json.loads(row["thresholds"])["support"] == threshold and row["labels"] == str(labels)
 
     after = run_audit(store, strict, questions, as_of=AS_OF)
-    assert after["run"]["thresholds"]["source"] == "calibration"
-    assert after["run"]["thresholds"]["support"] == threshold
-    verdicts = {q["id"]: q["verdict"] for q in after["questions"]}
+    assert after.info.thresholds.source == "calibration"
+    assert after.info.thresholds.support == threshold
+    verdicts = {q.id: q.verdict for q in after.questions}
     assert all(verdicts[i] == "gap" for i in ("u1", "u2", "u3", "u4"))
     assert verdicts["a1"] == verdicts["a2"] == verdicts["a4"] == "covered" and verdicts["a3"] == "stale"
 
@@ -233,7 +233,7 @@ def test_demo_calibration_restores_the_expected_verdicts(demo_store):
     # A threshold far too strict for this knowledge base: covered questions turn into gaps.
     strict = config.replace(support=SupportConfig(threshold=0.8, weak_margin=0.05))
     before = run_audit(store, strict, questions, as_of=AS_OF)
-    wrong = [q["id"] for q in before["questions"] if (q["verdict"] == "gap") != (expected[q["id"]] == "gap")]
+    wrong = [q.id for q in before.questions if (q.verdict == "gap") != (expected[q.id] == "gap")]
     assert len(wrong) >= 10
 
     outcome = calibrate(store, strict, target / "labels.csv", holdout=True)
@@ -244,12 +244,12 @@ def test_demo_calibration_restores_the_expected_verdicts(demo_store):
     assert m["holdout"]["questions"] == 27 and m["holdout"]["gap_rate"] >= 0.6
 
     after = run_audit(store, strict, questions, as_of=AS_OF)
-    assert after["run"]["thresholds"]["source"] == "calibration"
-    assert after["run"]["thresholds"]["support"] == outcome["thresholds"]["support"] < 0.8
+    assert after.info.thresholds.source == "calibration"
+    assert after.info.thresholds.support == outcome["thresholds"]["support"] < 0.8
     # Calibration tunes the gap verdict: every question is a gap exactly when the demo expects one.
     # (Covered vs stale is not its business: a lower threshold can let a fresh but loosely related
     # passage count as support, as q32's boil-water advisory does at 0.32.)
-    assert [q["id"] for q in after["questions"] if (q["verdict"] == "gap") != (expected[q["id"]] == "gap")] == []
+    assert [q.id for q in after.questions if (q.verdict == "gap") != (expected[q.id] == "gap")] == []
 
     # A precision target never raises the threshold (here max F1 already has precision 1.0, so it
     # stays): every question whose support clears it is no longer a gap, the others stay gaps.
@@ -257,6 +257,6 @@ def test_demo_calibration_restores_the_expected_verdicts(demo_store):
     low = precise["thresholds"]["support"]
     assert low <= outcome["thresholds"]["support"] and precise["metrics"]["precision"] == 1.0
     third = run_audit(store, strict, questions, as_of=AS_OF)
-    for q in third["questions"]:
-        assert (q["verdict"] == "gap") == (q["support"] < low), q["id"]
-    assert third["summary"]["gap"] <= after["summary"]["gap"]
+    for q in third.questions:
+        assert (q.verdict == "gap") == (q.support < low), q.id
+    assert third.summary.gap <= after.summary.gap

@@ -26,6 +26,10 @@ from pathlib import Path
 
 import pytest
 
+from auditor.history.runs import load_run
+from auditor.results import Run
+from auditor.store import Store
+
 REPO = Path(__file__).resolve().parent.parent
 SEED = 20261201
 KILLS_PER_STAGE = 3
@@ -314,10 +318,7 @@ def folder_bytes(folder: Path) -> dict[str, bytes]:
     return {str(p.relative_to(folder)): p.read_bytes() for p in sorted(folder.rglob("*")) if p.is_file()}
 
 
-def stored_run(db: Path, run_id: int) -> dict:
-    from auditor.history.runs import load_run
-    from auditor.store import Store
-
+def stored_run(db: Path, run_id: int) -> Run:
     with Store(db) as store:
         return load_run(store, run_id)
 

@@ -57,14 +57,14 @@ def comparable(run):
     """The parts of a run that must not change between identical scans."""
     return [
         (
-            q["id"],
-            q["verdict"],
-            q["reasons"],
-            round(q["support"], 9),
-            [(e["document"], e["passage"] is not None, round(e["score"], 9)) for e in q["evidence"]],
+            q.id,
+            q.verdict,
+            q.reasons,
+            round(q.support, 9),
+            [(e.document, e.passage is not None, round(e.score, 9)) for e in q.evidence],
         )
-        for q in run["questions"]
-    ], run["summary"]
+        for q in run.questions
+    ], run.summary
 
 
 @pytest.fixture(scope="module")
@@ -94,7 +94,7 @@ def split(cell: str) -> list[str]:
 def test_demo_verdicts_match_expected(demo_scans):
     _, first, _ = demo_scans
     want = expected()
-    got = {q["id"]: q for q in first.run["questions"]}
+    got = {q.id: q.to_json() for q in first.run.questions}
     assert set(got) == set(want)
     mismatches = []
     for qid, row in want.items():
@@ -149,8 +149,8 @@ def test_the_promised_flags_and_no_others_of_their_kind(demo_scans):
 
 def test_every_verdict_and_stale_reason_occurs(demo_scans):
     _, first, _ = demo_scans
-    verdicts = {q["verdict"] for q in first.run["questions"]}
-    reasons = {r for q in first.run["questions"] if q["verdict"] == "stale" for r in q["reasons"]}
+    verdicts = {q.verdict for q in first.run.questions}
+    reasons = {r for q in first.run.questions if q.verdict == "stale" for r in q.reasons}
     assert verdicts == {"covered", "stale", "gap"}
     assert {"too_old", "expired", "overtaken"} <= reasons
 
@@ -220,7 +220,7 @@ def test_second_scan_reparses_nothing_and_gives_identical_results(demo_scans):
         documents = store.query("SELECT count(*) AS n FROM documents WHERE status = 'active'")[0]["n"]
     assert f"{documents} unchanged" in second.ingest_line
     assert comparable(first.run) == comparable(second.run)
-    assert second.run["run"]["id"] == first.run["run"]["id"] + 1
+    assert second.run.info.id == first.run.info.id + 1
 
 
 def test_cli_scan_prints_summary_and_report_path(demo_copy):
@@ -238,7 +238,7 @@ def test_question_set_is_kept_in_the_store(demo_scans):
     config, first, _ = demo_scans
     with Store(config.database) as store:
         rows = store.query("SELECT qid FROM questions WHERE set_name = 'questions.csv' ORDER BY position")
-    assert [r["qid"] for r in rows] == [q["id"] for q in first.run["questions"]]
+    assert [r["qid"] for r in rows] == [q.id for q in first.run.questions]
 
 
 def test_audit_of_a_query_log_reports_merges_and_redactions(demo_scans, tmp_path):

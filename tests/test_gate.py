@@ -37,9 +37,9 @@ def test_failing_limit_is_named_with_its_figures():
     questions = [question("q-001", "gap", weight=27.0), question("q-002", "covered", weight=73.0)]
     run = make_run("2026-12-01", questions)
     gate = evaluate_gate(run, None, GateConfig(max_fallback_exposure=0.20))
-    assert gate["passed"] is False
-    assert gate["message"] == "gate failed: fallback_exposure 0.27 > max 0.20"
-    assert gate["checks"] == [
+    assert gate.passed is False
+    assert gate.message == "gate failed: fallback_exposure 0.27 > max 0.20"
+    assert [c.to_json() for c in gate.checks] == [
         {
             "limit": "max_fallback_exposure",
             "figure": "fallback_exposure",
@@ -59,11 +59,9 @@ def test_every_failed_limit_is_listed_in_order_and_passing_ones_are_not():
     gate = evaluate_gate(run, diff, limits)
     # gap share 3/8 = 0.375 > 0.25; exposure 0.393 <= 0.5; stale share 1/8 = 0.125 > 0.1;
     # stale exposure 7/267 = 0.026 <= 0.05; new gaps 3 > 2
-    assert gate["passed"] is False
-    assert gate["message"] == (
-        "gate failed: gap_share 0.38 > max 0.25, stale_share 0.12 > max 0.10, new_gaps 3 > max 2"
-    )
-    assert [(c["limit"], c["passed"]) for c in gate["checks"]] == [
+    assert gate.passed is False
+    assert gate.message == ("gate failed: gap_share 0.38 > max 0.25, stale_share 0.12 > max 0.10, new_gaps 3 > max 2")
+    assert [(c.limit, c.passed) for c in gate.checks] == [
         ("max_gap_share", False),
         ("max_fallback_exposure", True),
         ("max_stale_share", False),
@@ -79,8 +77,8 @@ def test_a_figure_equal_to_its_limit_passes():
     )
     gate = evaluate_gate(run, None, GateConfig(max_gap_share=0.2, max_fallback_exposure=0.2, max_new_gaps=1))
     # 1 of 5 questions, weight 1 of 5: exactly 0.2; one gap, no previous run: 1 new gap
-    assert gate["passed"] is True
-    assert gate["message"] == (
+    assert gate.passed is True
+    assert gate.message == (
         "gate passed: gap_share 0.20 <= max 0.20, fallback_exposure 0.20 <= max 0.20, new_gaps 1 <= max 1"
     )
 
@@ -89,18 +87,18 @@ def test_a_narrow_failure_never_reads_as_equal():
     # weight 2004 of 10000 gaps: 0.2004 > 0.20 must not print as "0.20 > max 0.20"
     run = make_run("2026-12-01", [question("q-001", "gap", weight=2004.0), question("q-002", "covered", weight=7996.0)])
     gate = evaluate_gate(run, None, GateConfig(max_fallback_exposure=0.2))
-    assert gate["message"] == "gate failed: fallback_exposure 0.2004 > max 0.2000"
+    assert gate.message == "gate failed: fallback_exposure 0.2004 > max 0.2000"
 
 
 def test_no_limits_and_an_empty_question_set():
     run = make_run("2026-12-01", [])
-    assert evaluate_gate(run, None, GateConfig()) == {
+    assert evaluate_gate(run, None, GateConfig()).to_json() == {
         "passed": True,
         "checks": [],
         "message": "gate passed: no limits set",
     }
     gate = evaluate_gate(run, None, GateConfig(max_gap_share=0.0, max_new_gaps=0))
-    assert gate["passed"] is True and [c["value"] for c in gate["checks"]] == [0.0, 0]
+    assert gate.passed is True and [c.value for c in gate.checks] == [0.0, 0]
 
 
 def test_limits_read_from_a_config_file(tmp_path):
@@ -109,4 +107,4 @@ def test_limits_read_from_a_config_file(tmp_path):
     config = load_config(path, env={})
     gate = evaluate_gate(make_run("2026-12-01", DECEMBER), None, config.gate)
     # stale exposure 7/267 = 0.026 > 0.01; 3 new gaps <= 5
-    assert gate["message"] == "gate failed: stale_exposure 0.03 > max 0.01"
+    assert gate.message == "gate failed: stale_exposure 0.03 > max 0.01"

@@ -19,6 +19,10 @@ import time
 import pytest
 from test_crash_safety import december_edits, environment, make_site, run_scan, wrapped_scan
 
+from auditor.history.runs import list_runs, load_run
+from auditor.results import GateResult
+from auditor.store import Store
+
 
 def verdicts(results: dict) -> dict[str, str]:
     return {q["id"]: q["verdict"] for q in results["questions"]}
@@ -150,14 +154,11 @@ def test_two_scans_at_once_one_runs_the_other_is_refused_or_waits(tmp_path):
     out, err = waiting.communicate(timeout=300)
     assert waiting.returncode == 0, err
 
-    from auditor.history.runs import list_runs
-    from auditor.store import Store
-
     with Store(db) as store:
         runs = list_runs(store)
     # Two finished runs (the refused scan left none), the waiting one audited after the first finished.
-    assert [r["status"] for r in runs] == ["done", "done"]
-    assert runs[1]["started"] >= runs[0]["finished"]
+    assert [r.status for r in runs] == ["done", "done"]
+    assert runs[1].started >= runs[0].finished
 
 
 @pytest.mark.slow
@@ -204,8 +205,5 @@ def test_failed_gate_exits_3_with_the_limit_and_keeps_the_report(tmp_path):
     assert results["gate"]["passed"] is False
     assert results["gate"]["checks"][0]["value"] == pytest.approx(32 / 215)
 
-    from auditor.history.runs import load_run
-    from auditor.store import Store
-
     with Store(root / "state" / "auditor.db") as store:
-        assert load_run(store)["gate"] == results["gate"]  # stored with the run
+        assert load_run(store).gate == GateResult.from_json(results["gate"])  # stored with the run

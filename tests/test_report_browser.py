@@ -15,6 +15,7 @@ import pytest
 import report_samples as samples
 
 from auditor.report import write_report
+from auditor.report.html import SERVER_ROWS, verdict_sentence
 
 CHROMIUM = shutil.which("chromium") or ("/usr/bin/chromium" if Path("/usr/bin/chromium").exists() else None)
 sync_api = pytest.importorskip("playwright.sync_api")
@@ -222,7 +223,7 @@ def test_page_works_without_javascript(tmp_path, browser):
     context = browser.new_context(java_script_enabled=False)
     p = context.new_page()
     p.goto(index.as_uri())
-    assert p.locator("#questions > tbody > tr").count() == len(samples.sample_run()["questions"])
+    assert p.locator("#questions > tbody > tr").count() == len(samples.sample_run().questions)
     assert p.is_hidden("#filters")
     p.click("#q1 summary")
     assert "No passage supports this question" in shown_text(p.locator("#q1 .why"))
@@ -250,8 +251,6 @@ def test_large_run_opens_and_filters(tmp_path_factory, browser):
 
     How fast it opens and filters is measured by bench/report_browser.py, not here.
     """
-    from auditor.report.html import SERVER_ROWS, verdict_sentence
-
     out = tmp_path_factory.mktemp("large")
     run = samples.large_run(10_000)
     index = write_report(run, out)
@@ -265,14 +264,14 @@ def test_large_run_opens_and_filters(tmp_path_factory, browser):
     assert p.inner_text("#shown") == "10000 of 10000 questions shown (the first 500 listed)"
     assert p.locator(VISIBLE_ROWS).count() == 500
 
-    gaps = [i for i, q in enumerate(run["questions"]) if q["verdict"] == "gap"]
+    gaps = [i for i, q in enumerate(run.questions) if q.verdict == "gap"]
     p.select_option("#f-verdict", "gap")
     assert p.inner_text("#shown").startswith(f"{len(gaps)} of 10000 questions shown")
     assert p.locator(VISIBLE_ROWS).count() == min(500, len(gaps))
-    leak = [i for i in gaps if "leak" in run["questions"][i]["question"].lower()]
+    leak = [i for i in gaps if "leak" in run.questions[i].question.lower()]
     p.fill("#f-text", "leak")
     ids = p.locator(f"{VISIBLE_ROWS} .qid").all_text_contents()
-    assert ids == [run["questions"][i]["id"] for i in leak][:500]
+    assert ids == [run.questions[i].id for i in leak][:500]
     if p.is_visible("#show-all"):
         p.click("#show-all")
     assert p.locator(VISIBLE_ROWS).count() == len(leak)
@@ -281,11 +280,11 @@ def test_large_run_opens_and_filters(tmp_path_factory, browser):
     p.click(f"#q{late} summary")
     p.locator(f"#q{late} + tr.ev-row").wait_for()
     assert p.locator(f"#q{late} + tr.ev-row article.ev").count() == 3
-    q = run["questions"][late]
-    assert shown_text(p.locator(f"#q{late} .why p").first) == verdict_sentence(q, run["run"]["thresholds"])
-    assert shown_text(p.locator(f"#q{late} td:nth-child(5) .v")) == q["verdict"]
+    q = run.questions[late]
+    assert shown_text(p.locator(f"#q{late} .why p").first) == verdict_sentence(q, run.info.thresholds)
+    assert shown_text(p.locator(f"#q{late} td:nth-child(5) .v")) == q.verdict
     assert shown_text(p.locator(f"#q{late} .why .act")).startswith("Write:")
-    assert p.locator(f"#q{late} .why .chip.miss").all_text_contents() == q["missing_terms"]
+    assert p.locator(f"#q{late} .why .chip.miss").all_text_contents() == q.missing_terms
     ARTIFACTS.mkdir(exist_ok=True)
     p.screenshot(path=str(ARTIFACTS / "report-large.png"))
     assert errors == []

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import csv
+import dataclasses
 import json
 
 import pytest
@@ -11,13 +12,13 @@ import report_samples as samples
 from auditor.report import write_report
 from auditor.report.exports import (
     CSV_COLUMNS,
-    FORMAT1_KEYS,
     all_owners,
     owner_slugs,
     question_owner,
     results_json,
     slugify,
 )
+from auditor.results import DocumentEntry, Run
 
 
 @pytest.fixture(scope="module")
@@ -34,28 +35,50 @@ def read_csv(path):
         return list(csv.reader(fh))
 
 
-def test_results_json_is_the_run_object_with_format1_keys_first(out):
+def test_results_json_is_the_run_with_format1_keys_first(out):
     text = (out / "results.json").read_text(encoding="utf-8")
-    run = samples.sample_run()
-    assert json.loads(text) == run
+    data = samples.sample_json()
+    assert json.loads(text) == data
+    # Key order too, at every level: the sample is written in the order of docs/results-json.md.
+    assert json.dumps(json.loads(text)) == json.dumps(data)
     keys = list(json.loads(text))
-    assert keys[:5] == list(FORMAT1_KEYS)
-    assert keys[5:] == ["documents", "briefs", "history", "diff", "gate"]
+    assert keys == [
+        "format",
+        "run",
+        "summary",
+        "questions",
+        "ingest_errors",
+        "documents",
+        "briefs",
+        "history",
+        "diff",
+        "gate",
+    ]
     # Pretty-printed UTF-8: characters stay as written, not \\u escapes.
     lines = text.splitlines()
     assert lines[0] == "{" and lines[1] == '  "format": 1,'
     assert any("›" in line for line in lines) and "\\u203a" not in text
+    # And it reads back as the same run.
+    assert Run.from_json(json.loads(text)) == samples.sample_run()
 
 
-def test_results_json_key_order_follows_format1_even_when_the_run_does_not():
-    run = samples.sample_run()
-    shuffled = {k: run[k] for k in reversed(list(run))}
-    assert list(json.loads(results_json(shuffled)))[:5] == list(FORMAT1_KEYS)
+def test_results_json_key_order_follows_format1_even_when_its_input_does_not():
+    data = samples.sample_json()
+    shuffled = {k: data[k] for k in reversed(list(data))}
+    shuffled["run"] = {k: data["run"][k] for k in reversed(list(data["run"]))}
+    assert json.dumps(json.loads(results_json(Run.from_json(shuffled)))) == json.dumps(data)
+
+
+def test_results_json_of_an_unknown_format_is_refused():
+    data = samples.sample_json()
+    data["format"] = 2
+    with pytest.raises(ValueError, match="results format 2 is not one this auditor reads"):
+        Run.from_json(data)
 
 
 def test_results_json_writes_null_for_nan():
     run = samples.sample_run()
-    run["questions"][0]["support"] = float("nan")
+    run.questions[0].support = float("nan")
     assert json.loads(results_json(run))["questions"][0]["support"] is None
 
 
@@ -64,8 +87,8 @@ def test_gaps_csv_lists_gap_and_stale_questions_by_weight(out):
     assert tuple(rows[0]) == CSV_COLUMNS
     body = [dict(zip(rows[0], r)) for r in rows[1:]]
     run = samples.sample_run()
-    expected = sorted((q for q in run["questions"] if q["verdict"] in ("gap", "stale")), key=lambda q: -q["weight"])
-    assert [r["id"] for r in body] == [q["id"] for q in expected]
+    expected = sorted((q for q in run.questions if q.verdict in ("gap", "stale")), key=lambda q: -q.weight)
+    assert [r["id"] for r in body] == [q.id for q in expected]
     first = body[0]  # q-002, the autopay gap, weight 140
     assert first == {
         "id": "q-002",
@@ -92,8 +115,8 @@ def test_gaps_csv_lists_gap_and_stale_questions_by_weight(out):
 def test_csv_cells_that_a_spreadsheet_would_run_are_defused(tmp_path):
     # OWASP "CSV Injection": cells starting with = + - @ (or tab / CR) are prefixed with '.
     run = samples.sample_run()
-    run["questions"][1]["question"] = '=HYPERLINK("http://example.invalid","x")'
-    run["questions"][1]["topic"] = "@SUM(A1)"
+    run.questions[1].question = '=HYPERLINK("http://example.invalid","x")'
+    run.questions[1].topic = "@SUM(A1)"
     write_report(run, tmp_path)
     rows = read_csv(tmp_path / "gaps.csv")
     row = dict(zip(rows[0], next(r for r in rows if r[0] == "q-002")))
@@ -104,7 +127,7 @@ def test_csv_cells_that_a_spreadsheet_would_run_are_defused(tmp_path):
 def test_hostile_text_round_trips_through_csv(out):
     rows = read_csv(out / "gaps.csv")
     q12 = dict(zip(rows[0], next(r for r in rows if r[0] == "q-012")))
-    assert q12["question"] == samples.sample_run()["questions"][11]["question"]
+    assert q12["question"] == samples.sample_run().questions[11].question
     assert q12["missing_terms"] == "<script>;javascript:"
 
 
@@ -117,7 +140,7 @@ def test_owner_files_hold_only_that_owners_questions(out):
         assert tuple(rows[0]) == CSV_COLUMNS
         assert all(r[2] == owner for r in rows[1:])
         seen += [r[0] for r in rows[1:]]
-    assert sorted(seen) == sorted(q["id"] for q in run["questions"])  # each question exactly once
+    assert sorted(seen) == sorted(q.id for q in run.questions)  # each question exactly once
     unassigned = [r[0] for r in read_csv(out / "owners" / "unassigned.csv")[1:]]
     assert unassigned == ["q-010", "q-012"]  # no owner and no evidence: weight 25, then 1
     conservation = [r[0] for r in read_csv(out / "owners" / "conservation-programs.csv")[1:]]
@@ -126,15 +149,8 @@ def test_owner_files_hold_only_that_owners_questions(out):
 
 def test_owner_with_documents_only_gets_files(tmp_path):
     run = samples.sample_run()
-    run["documents"].append(
-        {
-            "path": "eng/pumps.md",
-            "owner": "Engineering",
-            "status": "active",
-            "as_of": "2020-01-01",
-            "fresh": False,
-            "reasons": ["too_old"],
-        }
+    run.documents.append(
+        DocumentEntry(path="eng/pumps.md", owner="Engineering", as_of="2020-01-01", fresh=False, reasons=["too_old"])
     )
     write_report(run, tmp_path)
     assert read_csv(tmp_path / "owners" / "engineering.csv") == [list(CSV_COLUMNS)]
@@ -165,27 +181,30 @@ def test_owner_slugs_never_collide():
 
 
 def test_question_owner_rule():
-    q = {"owner": None, "evidence": [{"owner": "A", "supporting": False}, {"owner": "B", "supporting": True}]}
+    q = samples.bare_run().questions[0]
+    a, b = (dataclasses.replace(q.evidence[0], owner=name, supporting=False) for name in ("A", "B"))
+    b.supporting = True
+    q.owner, q.evidence = None, [a, b]
     assert question_owner(q) == "B"  # the best *supporting* evidence
-    q["evidence"][1]["supporting"] = False
+    b.supporting = False
     assert question_owner(q) == "A"  # else the top evidence item
-    assert question_owner({"owner": "C", "evidence": q["evidence"]}) == "C"
-    assert question_owner({"evidence": []}) == "unassigned"
-    assert question_owner({"owner": "  ", "evidence": q["evidence"]}) == "A"  # blank is no owner
+    assert question_owner(dataclasses.replace(q, owner="C")) == "C"
+    assert question_owner(dataclasses.replace(q, evidence=[])) == "unassigned"
+    assert question_owner(dataclasses.replace(q, owner="  ")) == "A"  # blank is no owner
 
 
 def test_owner_files_of_a_former_owner_are_removed(tmp_path):
     run = samples.sample_run()
     write_report(run, tmp_path)
     (tmp_path / "owners" / "notes.txt").write_text("kept")  # not an owner file
-    for q in run["questions"]:
-        if q["owner"] == "Customer Care":
-            q["owner"] = "Billing"
-    run["documents"] = [d for d in run["documents"] if d["owner"] != "Customer Care"]
-    for q in run["questions"]:
-        for e in q["evidence"]:
-            if e["owner"] == "Customer Care":
-                e["owner"] = "Billing"
+    for q in run.questions:
+        if q.owner == "Customer Care":
+            q.owner = "Billing"
+    run.documents = [d for d in run.documents if d.owner != "Customer Care"]
+    for q in run.questions:
+        for e in q.evidence:
+            if e.owner == "Customer Care":
+                e.owner = "Billing"
     write_report(run, tmp_path)
     names = sorted(p.name for p in (tmp_path / "owners").iterdir())
     assert "customer-care.csv" not in names and "customer-care.html" not in names

@@ -230,7 +230,7 @@ def test_age_histogram_counts_and_horizon():
 
 def test_trend_absent_without_history(tmp_path):
     run = samples.sample_run()
-    run["history"] = []
+    run.history = []
     soup = BeautifulSoup(write_report(run, tmp_path).read_text(encoding="utf-8"), "lxml")
     assert len(soup.select("svg.chart")) == 2
     assert trend([{"label": "a", "covered_share": 0.5, "stale_exposure": 0.1, "fallback_exposure": 0.2}])
@@ -369,16 +369,16 @@ def test_large_run_stays_under_the_page_limit(tmp_path):
     data = page_data(soup)
     assert len(data["q"]) == 10_000 and data["server_rows"] == 1000
     assert len(data["x"]) == 9_000 and data["x"][0]["id"] == "L01000"
-    assert data["x"][0]["q"] == run["questions"][1000]["question"]
+    assert data["x"][0]["q"] == run.questions[1000].question
     assert all(len(q["e"]) == 3 for q in data["q"])  # top 3 evidence items fit in the page
     assert all(len(p["txt"]) <= report_html.PASSAGE_CHARS + 2 for p in data["p"].values())
     # results.json keeps every evidence item with its full text.
     results = json.loads((tmp_path / "results.json").read_text(encoding="utf-8"))
-    assert results["questions"][0]["evidence"][0]["text"] == run["questions"][0]["evidence"][0]["text"]
+    assert results["questions"][0]["evidence"][0]["text"] == run.questions[0].evidence[0].text
 
 
 def test_a_bare_format1_run_renders(tmp_path):
-    """Only the keys of docs/results-json.md (an older stored run): no documents, briefs, history, diff,
+    """Only the keys every format-1 run has (an older stored run): no documents, briefs, history, diff,
     gate, flags, terms or statements. The page still renders, with the figures of the summary."""
     run = samples.bare_run()
     index = write_report(run, tmp_path)
@@ -450,9 +450,9 @@ _TEXT = st.text(st.characters(blacklist_categories=("Cs",), blacklist_characters
 @given(question=_TEXT, owner=_TEXT, passage=_TEXT)
 def test_any_text_shows_literally(tmp_path, question, owner, passage):
     run = samples.bare_run()
-    run["questions"][0]["question"] = question
-    run["questions"][0]["owner"] = owner
-    run["questions"][0]["evidence"][0]["text"] = passage
+    run.questions[0].question = question
+    run.questions[0].owner = owner
+    run.questions[0].evidence[0].text = passage
     index = write_report(run, tmp_path)
     # Python's own parser keeps control characters as the WHATWG tokenizer does; libxml2 drops some.
     soup = BeautifulSoup(index.read_text(encoding="utf-8"), "html.parser")

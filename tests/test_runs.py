@@ -12,10 +12,9 @@ import os
 import pytest
 
 from auditor.errors import AuditorError, StoreError
+from auditor.history.diff import diff_runs, format_diff
 from auditor.history.runs import (
     apply_retention,
-    diff_runs,
-    format_diff,
     format_runs,
     history,
     list_runs,
@@ -24,6 +23,7 @@ from auditor.history.runs import (
     record_gate,
     update_latest,
 )
+from auditor.results import GateResult, HistoryEntry, Run, Summary
 from auditor.store import dumps
 
 QUESTIONS = {  # id -> (question, owner, weight)
@@ -50,6 +50,7 @@ def question(qid: str, verdict: str, reasons=None, weight=None) -> dict:
         "reasons": reasons if reasons is not None else (["too_old"] if verdict == "stale" else []),
         "support": 0.0 if verdict == "gap" else 0.7,
         "missing_terms": [],
+        "terms": [],
         "evidence": [],
         "flags": [],
         "action": {"gap": "write", "stale": "refresh"}.get(verdict),
@@ -57,7 +58,8 @@ def question(qid: str, verdict: str, reasons=None, weight=None) -> dict:
     }
 
 
-def make_run(as_of: str, questions: list[dict]) -> dict:
+def run_json(as_of: str, questions: list[dict]) -> dict:
+    """A run as results.json holds it (docs/results-json.md)."""
     weight = sum(q["weight"] for q in questions)
     share = lambda v: sum(q["weight"] for q in questions if q["verdict"] == v) / weight if weight else 0.0
     return {
@@ -107,6 +109,10 @@ def make_run(as_of: str, questions: list[dict]) -> dict:
         "diff": None,
         "gate": None,
     }
+
+
+def make_run(as_of: str, questions: list[dict]) -> Run:
+    return Run.from_json(run_json(as_of, questions))
 
 
 def store_run(store, run: dict, status: str = "done", gate: dict | None = None) -> int:
@@ -173,10 +179,7 @@ DECEMBER = [
 
 def test_diff_sorts_every_verdict_change_into_exactly_one_list():
     diff = diff_runs(make_run("2026-11-01", NOVEMBER), make_run("2026-12-01", DECEMBER))
-    ids = {
-        name: [i["id"] for i in diff[name]]
-        for name in ("new_gaps", "newly_stale", "resolved_gaps", "refreshed", "added", "removed")
-    }
+    ids = {name: [i.id for i in items] for name, items in diff.lists().items()}
     # q-002 covered->gap and q-006 stale->gap are new gaps; q-008 covered->stale; q-003 gap->covered;
     # q-004 stale->covered; q-007 is new to the set; nothing was dropped.
     assert ids == {
@@ -187,7 +190,7 @@ def test_diff_sorts_every_verdict_change_into_exactly_one_list():
         "added": ["q-007"],
         "removed": [],
     }
-    assert diff["new_gaps"][1] == {
+    assert diff.new_gaps[1].to_json() == {
         "id": "q-006",
         "question": "When is the main on Alder Street replaced?",
         "owner": "Field Operations",
@@ -196,10 +199,10 @@ def test_diff_sorts_every_verdict_change_into_exactly_one_list():
         "after": "gap",
         "reasons": [],
     }
-    assert diff["newly_stale"][0]["reasons"] == ["expired"]
-    assert diff["added"][0]["before"] is None and diff["added"][0]["after"] == "gap"
+    assert diff.newly_stale[0].reasons == ["expired"]
+    assert diff.added[0].before is None and diff.added[0].after == "gap"
     # weights: new gaps 40 + 5 = 45; the others one question each
-    assert diff["weights"] == {
+    assert diff.weights == {
         "new_gaps": 45.0,
         "newly_stale": 7.0,
         "resolved_gaps": 12.0,
@@ -207,10 +210,10 @@ def test_diff_sorts_every_verdict_change_into_exactly_one_list():
         "added": 60.0,
         "removed": 0.0,
     }
-    assert diff["counts"]["new_gaps"] == 2
+    assert diff.counts["new_gaps"] == 2
     # fallback exposure: November 12/207 = 0.058, December (40+5+60)/267 = 0.393
-    assert diff["exposure"]["fallback"] == pytest.approx([12 / 207, 105 / 267])
-    assert diff["summary"] == (
+    assert diff.exposure.fallback == pytest.approx([12 / 207, 105 / 267])
+    assert diff.summary == (
         "2 new gaps (weight 45), 1 newly stale (weight 7), 1 resolved gap (weight 12), "
         "1 refreshed (weight 25), 1 question added (weight 60); "
         "fallback exposure 0.06 -> 0.39"
@@ -221,68 +224,80 @@ def test_diff_of_removed_question_and_of_identical_runs():
     base = make_run("2026-11-01", NOVEMBER)
     head = make_run("2026-12-01", [q for q in NOVEMBER if q["id"] != "q-004"])
     diff = diff_runs(base, head)
-    assert [i["id"] for i in diff["removed"]] == ["q-004"]
-    assert diff["removed"][0]["before"] == "stale" and diff["removed"][0]["after"] is None
-    assert diff["removed"][0]["weight"] == 25.0
+    assert [i.id for i in diff.removed] == ["q-004"]
+    assert diff.removed[0].before == "stale" and diff.removed[0].after is None
+    assert diff.removed[0].weight == 25.0
     same = diff_runs(base, make_run("2026-12-01", NOVEMBER))
-    assert all(not same[name] for name in ("new_gaps", "newly_stale", "resolved_gaps", "refreshed", "added", "removed"))
-    assert same["summary"].startswith("no verdict changed")
+    assert all(not items for items in same.lists().values())
+    assert same.summary.startswith("no verdict changed")
 
 
 def test_diff_uses_head_weight_when_traffic_changed():
     base = make_run("2026-11-01", [question("q-001", "covered", weight=88.0)])
     head = make_run("2026-12-01", [question("q-001", "gap", weight=120.0)])
-    assert diff_runs(base, head)["weights"]["new_gaps"] == 120.0
+    assert diff_runs(base, head).weights["new_gaps"] == 120.0
 
 
 def test_list_runs_and_load_run_round_trip(store):
-    november = make_run("2026-11-01", NOVEMBER)
+    november = run_json("2026-11-01", NOVEMBER)
     first = store_run(store, november)
-    december = make_run("2026-12-01", DECEMBER)
+    december = run_json("2026-12-01", DECEMBER)
     second = store_run(store, december, gate={"passed": True, "checks": [], "message": "gate passed: no limits set"})
-    store_run(store, make_run("2026-12-02", DECEMBER), status="running")  # a scan in progress
+    store_run(store, run_json("2026-12-02", DECEMBER), status="running")  # a scan in progress
 
     runs = list_runs(store)
-    assert [(r["id"], r["status"], r["as_of"]) for r in runs] == [
+    assert [(r.id, r.status, r.as_of) for r in runs] == [
         (first, "done", "2026-11-01"),
         (second, "done", "2026-12-01"),
         (second + 1, "running", "2026-12-02"),
     ]
-    assert runs[1]["summary"]["gap"] == 3 and runs[1]["horizon_days"] == 365
+    assert runs[1].summary is not None and runs[1].summary.gap == 3 and runs[1].horizon_days == 365
+    # A row as save_run leaves it while the run is in progress: no summary yet.
+    store.db.execute(
+        "INSERT INTO runs (started, as_of, horizon_days) VALUES ('2026-12-03T06:00:00Z', '2026-12-03', 365)"
+    )
+    assert list_runs(store)[-1].summary is None
+    assert format_runs(list_runs(store)).splitlines()[-1].split()[-6:] == ["-"] * 6
 
     loaded = load_run(store)  # newest done, not the running one
-    assert loaded["run"]["id"] == second
-    for key in ("format", "run", "summary", "questions", "ingest_errors", "documents", "briefs"):
-        assert loaded[key] == december[key], key
-    assert loaded["gate"]["message"] == "gate passed: no limits set"
-    assert loaded["history"] == [{"id": first, "as_of": "2026-11-01", "summary": november["summary"]}]
-    assert loaded["diff"]["base_run"] == first and loaded["diff"]["head_run"] == second
-    assert loaded["diff"] == diff_runs(november, december)
+    assert loaded.info.id == second
+    stored = loaded.to_json()
+    for key in ("format", "run", "summary", "questions", "ingest_errors", "documents"):
+        assert stored[key] == december[key], key
+    # The brief was stored without the keys added later (examples, topic): they load as their defaults.
+    assert stored["briefs"] == [dict(december["briefs"][0], examples=[], topic=None)]
+    assert loaded.gate == GateResult(passed=True, checks=[], message="gate passed: no limits set")
+    assert loaded.history == [
+        HistoryEntry(id=first, as_of="2026-11-01", summary=Summary.from_json(november["summary"]))
+    ]
+    assert loaded.diff is not None and loaded.diff.base_run == first and loaded.diff.head_run == second
+    assert loaded.diff == diff_runs(Run.from_json(november), Run.from_json(december))
 
     oldest = load_run(store, first)
-    assert oldest["history"] == [] and oldest["diff"] is None and oldest["gate"] is None
-    assert [q["id"] for q in oldest["questions"]] == [q["id"] for q in NOVEMBER]  # question-set order
+    assert oldest.history == [] and oldest.diff is None and oldest.gate is None
+    assert [q.id for q in oldest.questions] == [q["id"] for q in NOVEMBER]  # question-set order
 
 
 def test_previous_run_skips_failed_runs(store):
-    first = store_run(store, make_run("2026-10-01", NOVEMBER))
-    store_run(store, make_run("2026-11-01", NOVEMBER), status="failed")
-    third = store_run(store, make_run("2026-12-01", DECEMBER))
+    first = store_run(store, run_json("2026-10-01", NOVEMBER))
+    store_run(store, run_json("2026-11-01", NOVEMBER), status="failed")
+    third = store_run(store, run_json("2026-12-01", DECEMBER))
     assert previous_run(store, third) == first
     assert previous_run(store, first) is None
-    assert [h["id"] for h in history(store, third)] == [first]
-    assert load_run(store, third)["diff"]["base_run"] == first
+    assert [h.id for h in history(store, third)] == [first]
+    diff = load_run(store, third).diff
+    assert diff is not None and diff.base_run == first
 
 
 def test_load_run_errors_name_the_database_and_the_run(store):
     with pytest.raises(StoreError) as empty:
         load_run(store)
     assert str(empty.value).startswith(f"{str(store.path)!r}: no finished run")
-    done = store_run(store, make_run("2026-11-01", NOVEMBER))
+    done = store_run(store, run_json("2026-11-01", NOVEMBER))
     with pytest.raises(StoreError) as missing:
         load_run(store, 42)
     assert str(missing.value).startswith(f"{str(store.path)!r}: no run 42 in this database")
-    running = store_run(store, make_run("2026-12-01", DECEMBER), status="running")
+    running = store_run(store, run_json("2026-12-01", DECEMBER), status="running")
     with pytest.raises(StoreError, match=f"run {running} is running, not done"):
         load_run(store, running)
     store.db.execute("UPDATE results SET result = '{broken' WHERE run_id = ? AND position = 2", [done])
@@ -290,39 +305,53 @@ def test_load_run_errors_name_the_database_and_the_run(store):
         load_run(store, done)
 
 
+def test_a_stored_part_without_a_format1_key_is_named(store):
+    # Valid JSON of the wrong shape: a question object with only its id, a gate check with nothing.
+    done = store_run(store, run_json("2026-11-01", NOVEMBER))
+    store.db.execute('UPDATE results SET result = \'{"id": "q-001"}\' WHERE run_id = ? AND position = 1', [done])
+    with pytest.raises(StoreError, match=rf"^'.*': run {done} has an unreadable results\[1\] \(KeyError: 'evidence'\)"):
+        load_run(store, done)
+    other = store_run(store, run_json("2026-12-01", NOVEMBER), gate={"passed": False, "checks": [{}], "message": ""})
+    with pytest.raises(StoreError, match=rf"run {other} has an unreadable gate"):
+        load_run(store, other)
+
+
 def test_record_gate(store):
-    run_id = store_run(store, make_run("2026-12-01", DECEMBER))
+    run_id = store_run(store, run_json("2026-12-01", DECEMBER))
     gate = {
         "passed": False,
         "checks": [{"limit": "max_new_gaps", "max": 1, "value": 3, "passed": False}],
         "message": "gate failed: new_gaps 3 > max 1",
     }
-    record_gate(store, run_id, gate)
-    assert json.loads(store.query("SELECT gate FROM runs WHERE id = ?", [run_id])[0]["gate"]) == gate
-    assert load_run(store, run_id)["gate"] == gate
+    typed = GateResult.from_json(gate)
+    record_gate(store, run_id, typed)
+    assert json.loads(store.query("SELECT gate FROM runs WHERE id = ?", [run_id])[0]["gate"]) == typed.to_json()
+    assert load_run(store, run_id).gate == typed
+    # A check stored without its figure (an older shape) loads with an empty one.
+    assert typed.checks[0].figure == "" and typed.to_json()["checks"][0] == {"figure": "", **gate["checks"][0]}
     with pytest.raises(StoreError, match="no run 99 to record"):
-        record_gate(store, 99, gate)
+        record_gate(store, 99, typed)
 
 
 def test_retention_keeps_the_newest_done_runs_and_never_the_newest_run(store):
-    ids = [store_run(store, make_run(f"2026-0{m}-01", NOVEMBER)) for m in range(1, 6)]
-    failed = store_run(store, make_run("2026-06-01", NOVEMBER), status="failed")
+    ids = [store_run(store, run_json(f"2026-0{m}-01", NOVEMBER)) for m in range(1, 6)]
+    failed = store_run(store, run_json("2026-06-01", NOVEMBER), status="failed")
     assert apply_retention(store, 0) == []  # 0 = keep every run
     deleted = apply_retention(store, 2)
     assert deleted == ids[:3]
-    assert [r["id"] for r in list_runs(store)] == ids[3:] + [failed]
+    assert [r.id for r in list_runs(store)] == ids[3:] + [failed]
     assert store.query("SELECT count(*) AS n FROM results WHERE run_id IN (?, ?, ?)", ids[:3])[0]["n"] == 0
     assert store.query("SELECT count(*) AS n FROM results")[0]["n"] == 3 * len(NOVEMBER)
     assert apply_retention(store, 2) == []  # idempotent
     # keep=1 with a failed run newest: the newest done run stays, the failed newest run stays too
     assert apply_retention(store, 1) == [ids[3]]
-    assert [r["id"] for r in list_runs(store)] == [ids[4], failed]
-    assert load_run(store)["run"]["id"] == ids[4]
+    assert [r.id for r in list_runs(store)] == [ids[4], failed]
+    assert load_run(store).info.id == ids[4]
 
 
 def test_retention_deletes_nothing_without_a_done_run(store):
-    store_run(store, make_run("2026-11-01", NOVEMBER), status="failed")
-    store_run(store, make_run("2026-12-01", NOVEMBER), status="failed")
+    store_run(store, run_json("2026-11-01", NOVEMBER), status="failed")
+    store_run(store, run_json("2026-12-01", NOVEMBER), status="failed")
     assert apply_retention(store, 1) == []
     assert len(list_runs(store)) == 2
 
@@ -350,8 +379,8 @@ def test_update_latest_replaces_the_link_atomically(tmp_path):
 
 def test_format_runs_and_diff(store):
     assert format_runs([]) == "no runs yet"
-    store_run(store, make_run("2026-11-01", NOVEMBER))
-    store_run(store, make_run("2026-12-01", DECEMBER))
+    store_run(store, run_json("2026-11-01", NOVEMBER))
+    store_run(store, run_json("2026-12-01", DECEMBER))
     table = format_runs(list_runs(store)).splitlines()
     assert table[0].split() == [
         "run",
@@ -382,7 +411,7 @@ def test_format_runs_and_diff(store):
         "0.39",
         "0.03",
     ]
-    text = format_diff(load_run(store)["diff"]).splitlines()
+    text = format_diff(load_run(store).diff).splitlines()
     assert text[0].startswith("run 2 (2026-12-01) against run 1 (2026-11-01): 2 new gaps (weight 45)")
     assert "new gaps (2, weight 45):" in text
     assert any(line.split()[:5] == ["q-008", "weight", "7", "covered", "->"] and "(expired)" in line for line in text)

@@ -152,8 +152,9 @@ def test_report_files_for_hostile_owner_names_stay_inside_the_report_folder(tmp_
     import report_samples as samples
 
     from auditor.report import write_report
+    from auditor.results import Run
 
-    run = samples.sample_run()
+    run = samples.sample_json()
     for q in run["questions"]:
         q["owner"] = owner
         for e in q.get("evidence", []):
@@ -161,7 +162,7 @@ def test_report_files_for_hostile_owner_names_stay_inside_the_report_folder(tmp_
     for d in run.get("documents", []):
         d["owner"] = owner
     out = tmp_path / "deep" / "report"
-    write_report(run, out)
+    write_report(Run.from_json(run), out)
     written = [p for p in tmp_path.rglob("*") if p.is_file()]
     assert written and all(out.resolve() in p.resolve().parents for p in written)
     assert all(".." not in p.relative_to(out).parts for p in written)
