@@ -92,8 +92,6 @@ class IngestSummary:
         )
 
 
-
-
 def ingest_corpus(store, config, *, paths=None, jobs=None, progress=False) -> IngestSummary:
     """Bring the store up to date with the corpus at `paths` (default config.corpus.paths).
 
