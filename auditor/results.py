@@ -162,13 +162,13 @@ class QuestionResult(Record):
 class Summary(Record):
     """Counts per verdict and the weighted exposures of a set of questions (docs/judgement.md)."""
 
-    questions: int = 0
-    covered: int = 0
-    stale: int = 0
-    gap: int = 0
-    weight: float = 0
-    fallback_exposure: float = 0.0
-    stale_exposure: float = 0.0
+    questions: int
+    covered: int
+    stale: int
+    gap: int
+    weight: float
+    fallback_exposure: float
+    stale_exposure: float
 
     @classmethod
     def of(cls, results: Sequence[QuestionResult]) -> Summary:
@@ -196,9 +196,9 @@ class Summary(Record):
 class Corpus(Record):
     """Corpus figures at the audit date: counts, freshness F and mean age A over searched passages."""
 
-    documents: int = 0
-    passages: int = 0
-    failed: int = 0
+    documents: int
+    passages: int
+    failed: int
     freshness: float | None = None
     mean_age_days: float | None = None
 
@@ -224,8 +224,8 @@ class Thresholds(Record):
 class TokenizerSettings(Record):
     """The tokenizer the run searched with; the report highlights matched words with the same one."""
 
-    language: str = "english"
-    stopwords: str = "english"
+    language: str
+    stopwords: str
 
     @classmethod
     def from_json(cls, data: Mapping[str, Any] | None) -> TokenizerSettings | None:
@@ -253,7 +253,7 @@ class RunInfo(Record):
         return cls(
             **_plain_fields(cls, data, "tokenizer", "corpus", "thresholds"),
             tokenizer=TokenizerSettings.from_json(data.get("tokenizer")),
-            corpus=Corpus.from_json(data["corpus"] or {}),
+            corpus=Corpus.from_json(data["corpus"]),
             thresholds=Thresholds.from_json(data.get("thresholds")),
         )
 
@@ -317,12 +317,12 @@ class HistoryEntry(Record):
     """An earlier finished run, for the trend chart."""
 
     id: int | None
-    as_of: str | None
+    as_of: str
     summary: Summary
 
     @classmethod
     def from_json(cls, data: Mapping[str, Any]) -> HistoryEntry:
-        return cls(id=data.get("id"), as_of=data.get("as_of"), summary=Summary.from_json(data.get("summary") or {}))
+        return cls(id=data["id"], as_of=data["as_of"], summary=Summary.from_json(data["summary"]))
 
 
 # --- diff and gate --------------------------------------------------------------------------------

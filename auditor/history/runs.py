@@ -108,7 +108,9 @@ def list_runs(store: Store) -> list[StoredRun]:
     runs = []
     for row in rows:
         summary = _json(store, row["id"], "summary", row["summary"], {})
-        runs.append(StoredRun(**{**row, "summary": Summary.from_json(summary) if summary else None}))
+        if summary:
+            summary = _parse(store, row["id"], "summary", Summary.from_json, summary)
+        runs.append(StoredRun(**{**row, "summary": summary or None}))
     return runs
 
 
@@ -165,7 +167,9 @@ def history(store: Store, run_id: int) -> list[HistoryEntry]:
         HistoryEntry(
             id=r["id"],
             as_of=r["as_of"],
-            summary=Summary.from_json(_json(store, r["id"], "summary", r["summary"], {})),
+            summary=_parse(
+                store, r["id"], "summary", Summary.from_json, _json(store, r["id"], "summary", r["summary"], {})
+            ),
         )
         for r in rows
     ]
@@ -176,13 +180,7 @@ def _run_object(store: Store, row: dict) -> Run:
     run_id = row["id"]
 
     def part(name: str, reader: Callable[[Any], T], data: Any) -> T:
-        try:
-            return reader(data)
-        except (KeyError, TypeError, ValueError, AttributeError) as exc:
-            raise StoreError(
-                f"{str(store.path)!r}: run {run_id} has an unreadable {name} ({type(exc).__name__}: {exc}); "
-                f"delete the run or restore the database from a backup"
-            ) from None
+        return _parse(store, run_id, name, reader, data)
 
     def column(name: str, default: Any) -> Any:
         return _json(store, run_id, name, row[name], default)
@@ -220,6 +218,17 @@ def _run_object(store: Store, row: dict) -> Run:
         briefs=part("extras", lambda d: [Brief.from_json(b) for b in d.get("briefs", [])], extras),
         gate=part("gate", GateResult.from_json, column("gate", None)),
     )
+
+
+def _parse(store: Store, run_id: int, name: str, reader: Callable[[Any], T], data: Any) -> T:
+    """`reader(data)`: a stored part of run `run_id` read into the run model, or a StoreError naming it."""
+    try:
+        return reader(data)
+    except (KeyError, TypeError, ValueError, AttributeError) as exc:
+        raise StoreError(
+            f"{str(store.path)!r}: run {run_id} has an unreadable {name} ({type(exc).__name__}: {exc}); "
+            f"delete the run or restore the database from a backup"
+        ) from None
 
 
 def _one(store: Store, sql: str, params=()) -> dict | None:

@@ -49,6 +49,8 @@ PAGE_EVIDENCE = 3  # evidence items per question in the page (results.json keeps
 # at a time: parsing 10,000 rows of markup alone takes the browser over a second, and readers
 # without JavaScript have gaps.csv, the owner pages and results.json for the complete list.
 SERVER_ROWS = 1000
+# The tokenizer of a run that does not say which it used: config.RetrievalConfig's defaults.
+DEFAULT_TOKENIZER = TokenizerSettings(language="english", stopwords="english")
 PASSAGE_CHARS = 600  # longest passage text in the page
 MIN_PASSAGE_CHARS = 160
 PAGE_TEXT_BUDGET = 5_000_000  # characters of passage text in one page, shared by all passages
@@ -127,7 +129,7 @@ class Highlighter:
     """
 
     def __init__(self, settings: TokenizerSettings | None = None):
-        settings = settings or TokenizerSettings()
+        settings = settings or DEFAULT_TOKENIZER
         self._tok: Tokenizer | None
         try:
             self._tok = Tokenizer(settings.language, settings.stopwords)
