@@ -18,6 +18,9 @@ format can be read beside the old ones.
 
 Dates are kept as the ISO 8601 text the format holds (`as_of`, `expires`, ...), not as `date`, so that
 a run reads back exactly as it was written.
+
+The module is longer than most: the format is one contract, so all of its types stay on one page,
+in the order docs/results-json.md describes them.
 """
 
 from __future__ import annotations

@@ -10,6 +10,10 @@
 * The page keeps evidence short (top PAGE_EVIDENCE items, passage text cut to a budget) so a run of
   10,000 questions stays under 15 MB; results.json keeps everything. Only the first SERVER_ROWS
   rows are written as HTML; the script builds the others from the data block when shown.
+
+The module is longer than most: the view (`build_view`), the script's data block (`_page_data`) and
+the page's sentences are one contract with templates/report.html.j2 and static/report.js, kept
+side by side.
 """
 
 from __future__ import annotations
