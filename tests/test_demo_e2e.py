@@ -123,7 +123,7 @@ def deciding_passages(question: dict, document: str) -> list[dict]:
 
 def test_the_deciding_document_decides_each_verdict(demo_scans):
     _, first, _ = demo_scans
-    got = {q["id"]: q for q in first.run["questions"]}
+    got = {q["id"]: q for q in first.run.to_json()["questions"]}
     wrong = []
     for qid, row in expected().items():
         q = got[qid]
@@ -138,11 +138,11 @@ def test_the_deciding_document_decides_each_verdict(demo_scans):
 
 def test_the_promised_flags_and_no_others_of_their_kind(demo_scans):
     _, first, _ = demo_scans
-    got = {q["id"]: sorted(set(q["flags"]) & PROMISED_FLAGS) for q in first.run["questions"]}
+    got = {q["id"]: sorted(set(q["flags"]) & PROMISED_FLAGS) for q in first.run.to_json()["questions"]}
     want = {qid: split(row["flags"]) for qid, row in expected().items()}
     assert got == want
     # The fixture's own premise for file_dated: q43 rests on the undated contact directory alone.
-    (q43,) = [q for q in first.run["questions"] if q["id"] == "q43"]
+    (q43,) = [q for q in first.run.to_json()["questions"] if q["id"] == "q43"]
     fresh = [e for e in q43["evidence"] if e["supporting"] and e["fresh"]]
     assert {(e["document"], e["as_of_source"]) for e in fresh} == {("customer-care/contact-directory.txt", "file")}
 
@@ -178,7 +178,7 @@ def test_results_json_values_are_the_demos(demo_scans):
     data = json.loads((first.out_dir / "results.json").read_text(encoding="utf-8"))
     run, summary = data["run"], data["summary"]
     # Both scans write the same report folder (reports/<audit date>/): the file is the second run's.
-    assert second.out_dir == first.out_dir and run["id"] == second.run["run"]["id"] == 2
+    assert second.out_dir == first.out_dir and run["id"] == second.run.info.id == 2
     # fixtures/demo/README.md: audit date 2026-12-01, default horizon 365 days.
     assert run["as_of"] == "2026-12-01" and run["horizon_days"] == 365
     # README: 25 files in kb/; the writing template is excluded by config and scan-2019.pdf is broken
