@@ -161,7 +161,8 @@ CREATE TABLE IF NOT EXISTS calibrations (
 SEARCHED = ("active", "failed")
 SEARCHED_STATUSES = "(" + ", ".join(f"'{status}'" for status in SEARCHED) + ")"  # the same, as SQL
 
-# Values bound in one `IN (?, ...)` list: well under SQLite's SQLITE_MAX_VARIABLE_NUMBER (999 before 3.32).
+# Values bound in one `IN (?, ...)` list: under SQLite's default limit on bound parameters
+# (SQLITE_MAX_VARIABLE_NUMBER, sqlite.org/limits.html: 999 before 3.32.0, 32766 since).
 CHUNK = 500
 _T = TypeVar("_T")
 

@@ -10,8 +10,8 @@ import pytest
 from test_runs import DECEMBER, NOVEMBER, make_run, question
 
 from auditor.config import GateConfig, load_config
-from auditor.history.gate import evaluate_gate, gate_figures
 from auditor.history.diff import diff_runs
+from auditor.history.gate import evaluate_gate, gate_figures
 
 
 def test_figures_of_a_worked_run():

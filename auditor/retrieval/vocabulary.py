@@ -11,8 +11,6 @@ import numpy as np
 
 from auditor.store import Store, chunked, marks
 
-_CHUNK = 500  # SQLite's default limit on bound parameters is 999 (older builds) or 32766
-
 
 class Vocabulary:
     """The `terms` table of a store, with a cache of the terms seen so far."""
@@ -25,7 +23,7 @@ class Vocabulary:
         return self.store.db.execute("SELECT count(*) FROM terms").fetchone()[0]
 
     def _fetch(self, terms: list[str]) -> None:
-        for chunk in chunked(terms, _CHUNK):
+        for chunk in chunked(terms):
             for term_id, term in self.store.db.execute(
                 f"SELECT id, term FROM terms WHERE term IN ({marks(chunk)})", chunk
             ):
