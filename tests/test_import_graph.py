@@ -1,8 +1,5 @@
 """The package's import graph, built from the source with `ast`: no cycle, and no import of the
 project's own modules inside a function body (the usual way to dodge a cycle).
-
-Imports of third-party packages inside a function are allowed where they keep an optional extra
-optional; those are listed in OPTIONAL below with the reason.
 """
 
 from __future__ import annotations
@@ -93,14 +90,9 @@ def test_the_package_has_no_import_cycle():
     assert find_cycle(edges) is None
 
 
-# Modules whose function-local imports are being replaced by the typed run model work; this set
-# only shrinks, and the test fails for any other file.
-NOT_YET = {"auditor/cli.py", "auditor/scan.py", "auditor/judgement/audit.py", "auditor/report/html.py"}
-
-
 def test_no_project_import_inside_a_function():
     _, local = graph()
-    assert [where for where in local if where.split(":")[0] not in NOT_YET] == []
+    assert local == []
 
 
 def test_the_checks_can_fail():
