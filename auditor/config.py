@@ -16,6 +16,8 @@ from datetime import date
 from pathlib import Path
 from typing import Any
 
+import phonenumbers
+
 from auditor.errors import ConfigError
 from auditor.retrieval.bm25 import Params
 from auditor.retrieval.tokenize import Tokenizer
@@ -91,6 +93,26 @@ class ReportConfig:
 
 
 @dataclass(frozen=True)
+class RedactionConfig:
+    """The `[redaction]` table (docs/question-sets.md): which kinds of personal data query-log
+    imports redact (all by default), the region of phone numbers written without a country code,
+    and `strict` (drop any record still holding eight or more digits in a row)."""
+
+    email: bool = True
+    iban: bool = True
+    national_id: bool = True
+    card: bool = True
+    birth_date: bool = True
+    account: bool = True
+    ip: bool = True
+    phone: bool = True
+    address: bool = True
+    name: bool = True
+    phone_region: str = "US"  # ISO 3166-1 alpha-2, as phonenumbers reads it
+    strict: bool = False
+
+
+@dataclass(frozen=True)
 class Config:
     source: Path | None = None  # the file it was read from
     database: Path = Path("auditor.db")
@@ -103,6 +125,7 @@ class Config:
     support: SupportConfig = field(default_factory=SupportConfig)
     gate: GateConfig = field(default_factory=GateConfig)
     report: ReportConfig = field(default_factory=ReportConfig)
+    redaction: RedactionConfig = field(default_factory=RedactionConfig)
 
     def replace(self, **changes: Any) -> Config:
         return dataclasses.replace(self, **changes)
@@ -157,7 +180,19 @@ def _build(raw: dict, base: Path, source: Path | None, where: str, warn) -> Conf
     top = reader.table(
         raw,
         "",
-        {"database", "as_of", "questions", "owners", "corpus", "freshness", "retrieval", "support", "gate", "report"},
+        {
+            "database",
+            "as_of",
+            "questions",
+            "owners",
+            "corpus",
+            "freshness",
+            "retrieval",
+            "support",
+            "gate",
+            "report",
+            "redaction",
+        },
     )
     corpus_raw = reader.table(top.get("corpus", {}), "corpus", {f.name for f in dataclasses.fields(CorpusConfig)})
     sitemaps = []
@@ -218,7 +253,17 @@ def _build(raw: dict, base: Path, source: Path | None, where: str, warn) -> Conf
             reader.table(top.get("report", {}), "report", {f.name for f in dataclasses.fields(ReportConfig)}),
             "report",
         ),
+        redaction=reader.fill(
+            RedactionConfig,
+            reader.table(top.get("redaction", {}), "redaction", {f.name for f in dataclasses.fields(RedactionConfig)}),
+            "redaction",
+        ),
     )
+    if config.redaction.phone_region not in phonenumbers.SUPPORTED_REGIONS:
+        raise ConfigError(
+            f"{where}: redaction.phone_region must be a region code phonenumbers knows (such as 'US', 'GB'), "
+            f"not {config.redaction.phone_region!r}"
+        )
     if config.freshness.horizon_days < 0:
         raise ConfigError(f"{where}: freshness.horizon_days must not be negative")
     if not 0.0 <= config.support.threshold <= 1.0:

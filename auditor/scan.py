@@ -18,7 +18,7 @@ from auditor.history.runs import apply_retention, load_run, previous_run, record
 from auditor.ingest.pipeline import ingest_corpus
 from auditor.judgement.audit import run_audit
 from auditor.models import Question
-from auditor.questions.querylog import QueryLogSummary
+from auditor.questions.querylog import QueryLogSummary, store_redaction_counts
 from auditor.questions.sets import read_question_file, store_questions
 from auditor.report import write_report
 from auditor.results import GateResult, Run
@@ -55,7 +55,7 @@ def load_question_files(config: Config, paths: list[Path] | None = None) -> list
     sets: list[QuestionSet] = []
     seen: dict[str, Path] = {}
     for path in files:
-        questions, log_summary = read_question_file(path)
+        questions, log_summary = read_question_file(path, config.redaction)
         for question in questions:
             if question.id in seen:
                 raise InputError(
@@ -72,6 +72,8 @@ def store_question_sets(store: Store, sets: list[QuestionSet]) -> list[Question]
     all questions in order."""
     for qset in sets:
         store_questions(store, qset.questions, qset.path.name)
+        if qset.log_summary is not None:
+            store_redaction_counts(store, qset.path.name, qset.log_summary)
     return [q for qset in sets for q in qset.questions]
 
 

@@ -18,7 +18,7 @@ import sqlite_utils
 
 from auditor.errors import StoreError
 
-SCHEMA_VERSION = 1
+SCHEMA_VERSION = 2
 
 SCHEMA = """
 -- Key/value facts about the database itself: schema_version, tokenizer fingerprint, ...
@@ -115,6 +115,15 @@ CREATE TABLE IF NOT EXISTS questions (
     PRIMARY KEY (set_name, position)
 );
 
+-- What each query-log import redacted, by kind (docs/question-sets.md): counts only, never a
+-- value. Kind 'dropped_strict' counts the records the `strict` option dropped.
+CREATE TABLE IF NOT EXISTS redaction_counts (
+    set_name TEXT NOT NULL,                 -- the query log's file name, as in questions.set_name
+    kind     TEXT NOT NULL,                 -- email | iban | national_id | card | ... | dropped_strict
+    count    INTEGER NOT NULL,
+    PRIMARY KEY (set_name, kind)
+);
+
 -- Audit runs: what was audited with which settings, and the summary.
 CREATE TABLE IF NOT EXISTS runs (
     id                 INTEGER PRIMARY KEY,
@@ -167,7 +176,16 @@ CHUNK = 500
 _T = TypeVar("_T")
 
 # version -> SQL that brings a database of version-1 to that version.
-MIGRATIONS: dict[int, str] = {}
+MIGRATIONS: dict[int, str] = {
+    2: """
+CREATE TABLE IF NOT EXISTS redaction_counts (
+    set_name TEXT NOT NULL,
+    kind     TEXT NOT NULL,
+    count    INTEGER NOT NULL,
+    PRIMARY KEY (set_name, kind)
+);
+""",
+}
 
 
 class Store:

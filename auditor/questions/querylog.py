@@ -6,11 +6,14 @@ one query a line. Each record goes through, in this order:
 
 1. **normalization** (`normalize`): Unicode NFKC — so fullwidth digits and "＠" become ASCII —,
    invisible format characters dropped, whitespace collapsed;
-2. **redaction** (`redact.redact`) of e-mail addresses, phone and card numbers, in the query and in
-   the carried owner/topic cells — before any grouping, so that no later step, summary or stored
-   row ever holds the original. The merge key is then the *set* of casefolded words (placeholders
-   count as words) minus filler words (`FILLER`), so case, punctuation, word order and "please"
-   do not separate two queries;
+2. **redaction** (`redact.redact`) of personal data — e-mail, IBAN, national identity, card and
+   phone numbers, dates of birth, account numbers, IP and street addresses, names (the kinds of
+   `redact.KINDS`, each on unless the config's `[redaction]` table turns it off) — in the query and
+   in the carried owner/topic cells, before any grouping, so that no later step, summary or stored
+   row ever holds the original. With `strict`, a record that still holds eight or more digits in a
+   row is dropped whole (counted, never kept). The merge key is then the *set* of casefolded words
+   (placeholders count as words) minus filler words (`FILLER`), so case, punctuation, word order
+   and "please" do not separate two queries;
 3. **exact merging** of records with the same key, then **near-duplicate merging** of keys whose
    token sets have a Jaccard similarity ≥ `similarity` (|A∩B| / |A∪B|). Keys are visited by
    falling count and each joins the first existing group whose *leader* (its most frequent key) is
@@ -36,6 +39,7 @@ from dataclasses import dataclass, field
 from datetime import UTC, datetime
 from pathlib import Path
 
+from auditor.config import RedactionConfig
 from auditor.errors import InputError
 from auditor.models import Question
 from auditor.questions.files import (
@@ -48,14 +52,15 @@ from auditor.questions.files import (
     read_text,
     sniff_format,
 )
-from auditor.questions.redact import PLACEHOLDERS
+from auditor.questions.redact import KINDS, PLACEHOLDERS, RedactionOptions, has_long_digit_run
 from auditor.questions.redact import redact as redact_text
+from auditor.store import Store
 
 CARRIED_COLUMNS = ("owner", "topic")
 
 # Words that change nothing about what is asked; common practice, no single source.
 FILLER = frozenset("please pls plz hi hello hey thanks thank thx um uh er hmm just kindly quick question help".split())
-_WORD = re.compile(r"\[(?:email|phone|card)\]|\w+")
+_WORD = re.compile(r"\[(?:" + "|".join(KINDS) + r")\]|\w+")
 _PLACEHOLDER_TOKENS = frozenset(PLACEHOLDERS.values())
 # Soft hyphen, zero-width spaces and joiners, direction marks, word joiner, BOM: invisible in a
 # query, but they would split words and separate otherwise identical queries.
@@ -79,18 +84,20 @@ class QueryLogSummary:
     merged_near: int = 0  # keys folded into a similar group
     questions: int = 0
     similarity: float = 0.85
-    redacted: Counter = field(default_factory=Counter)  # finds by kind: email, phone, card
+    redacted: Counter = field(default_factory=Counter)  # finds by kind (redact.KINDS)
     redacted_records: int = 0
+    dropped_strict: int = 0  # records dropped by `strict`: eight or more digits left in a row
     first_seen: str | None = None  # ISO timestamps, when a timestamp column parses
     last_seen: str | None = None
     largest_merges: list[dict] = field(default_factory=list)  # {"question","variants","count"}
 
     def line(self) -> str:
-        kinds = ", ".join(f"{self.redacted[k]} {k}" for k in ("email", "phone", "card") if self.redacted[k])
+        kinds = ", ".join(f"{self.redacted[k]} {k}" for k in KINDS if self.redacted[k])
+        dropped = f"; {self.dropped_strict} dropped by strict" if self.dropped_strict else ""
         return (
             f"{self.records} log lines -> {self.questions} questions "
             f"({self.merged_exact} exact and {self.merged_near} near duplicates merged, "
-            f"{self.empty} empty); redacted {kinds or 'nothing'}"
+            f"{self.empty} empty); redacted {kinds or 'nothing'}{dropped}"
         )
 
 
@@ -217,25 +224,38 @@ def import_query_log(
     count_column: str | None = None,
     similarity: float = 0.85,
     redact: bool = True,
+    redaction: RedactionConfig | None = None,
 ) -> tuple[list[Question], QueryLogSummary]:
     """Import a query log as a weighted question set (module docstring), with a summary.
 
     `similarity` is the Jaccard threshold for near duplicates (1.0 merges only identical keys).
-    With `redact=False` personal data is kept — for logs already scrubbed upstream.
+    `redaction` (the config's `[redaction]` table) turns kinds off, sets the phone region and
+    `strict`; the default redacts every kind. With `redact=False` personal data is kept — for logs
+    already scrubbed upstream (`strict` still drops long digit runs).
     Raises InputError naming the file (and line) for a missing file, bad encoding, a missing text
     column, a bad count, or a log without any query.
     """
-    return _import(Path(path), text_column, count_column, similarity, redact, None)
+    return _import(Path(path), text_column, count_column, similarity, redact, redaction or RedactionConfig(), None)
 
 
 def import_parsed_log(
-    path: Path, fmt: str, columns: list[str], records: list[tuple[int, dict]]
+    path: Path,
+    fmt: str,
+    columns: list[str],
+    records: list[tuple[int, dict]],
+    redaction: RedactionConfig | None = None,
 ) -> tuple[list[Question], QueryLogSummary]:
     """`import_query_log` with the defaults, over records `questions.read_records` has read."""
-    return _import(Path(path), None, None, 0.85, True, (fmt, columns, records))
+    return _import(Path(path), None, None, 0.85, True, redaction or RedactionConfig(), (fmt, columns, records))
 
 
-def _import(path: Path, text_column, count_column, similarity, redact, parsed):
+def redaction_options(config: RedactionConfig) -> RedactionOptions:
+    """The detectors to run and the phone region, from the config's `[redaction]` table."""
+    return RedactionOptions(frozenset(k for k in KINDS if getattr(config, k)), config.phone_region)
+
+
+def _import(path: Path, text_column, count_column, similarity, redact, redaction: RedactionConfig, parsed):
+    options = redaction_options(redaction)
     if not 0.0 < similarity <= 1.0:
         raise InputError(f"{str(path)!r}: similarity must be in (0, 1], got {similarity!r}")
     summary = QueryLogSummary(path=str(path), similarity=similarity)
@@ -247,14 +267,17 @@ def _import(path: Path, text_column, count_column, similarity, redact, parsed):
     for order, (_line, raw, count, carried) in enumerate(rows):
         text = normalize(raw)
         if redact:
-            text, found = redact_text(text)
+            text, found = redact_text(text, options)
             for name in CARRIED_COLUMNS:  # owner and topic cells are free text too
                 if name in carried:
-                    carried[name], more = redact_text(normalize(carried[name]))
+                    carried[name], more = redact_text(normalize(carried[name]), options)
                     found.update(more)
             if found:
                 summary.redacted.update(found)
                 summary.redacted_records += 1
+        if redaction.strict and (has_long_digit_run(text) or any(map(has_long_digit_run, carried.values()))):
+            summary.dropped_strict += 1
+            continue
         key = tokens(text)
         if not key - _PLACEHOLDER_TOKENS:
             summary.empty += 1
@@ -335,3 +358,20 @@ def _import(path: Path, text_column, count_column, similarity, redact, parsed):
 
 def _top(counter: Counter) -> str | None:
     return min(counter, key=lambda v: (-counter[v], v)) if counter else None
+
+
+def store_redaction_counts(store: Store, set_name: str, summary: QueryLogSummary) -> None:
+    """Keep what the import of `set_name` redacted, by kind — counts only, never a value — and the
+    records `strict` dropped (kind "dropped_strict"), replacing the set's previous counts."""
+    rows = [(set_name, kind, summary.redacted[kind]) for kind in KINDS if summary.redacted[kind]]
+    if summary.dropped_strict:
+        rows.append((set_name, "dropped_strict", summary.dropped_strict))
+    with store.transaction() as db:
+        db.execute("DELETE FROM redaction_counts WHERE set_name = ?", [set_name])
+        db.conn.executemany("INSERT INTO redaction_counts (set_name, kind, count) VALUES (?, ?, ?)", rows)
+
+
+def stored_redaction_counts(store: Store, set_name: str) -> Counter:
+    """The counts `store_redaction_counts` kept for `set_name`."""
+    rows = store.query("SELECT kind, count FROM redaction_counts WHERE set_name = ?", [set_name])
+    return Counter({r["kind"]: r["count"] for r in rows})

@@ -134,10 +134,11 @@ def load_questions(path) -> list[Question]:
     return questions
 
 
-def read_question_file(path):
+def read_question_file(path, redaction=None):
     """`load_questions`, also returning the query-log summary (None for a question set).
 
-    For commands that print what a query-log import merged and redacted.
+    For commands that print what a query-log import merged and redacted; `redaction` is the
+    config's `[redaction]` table for a query log (default: every kind redacted).
     """
     path = Path(path)
     text = read_text(path)
@@ -151,7 +152,7 @@ def read_question_file(path):
         return build_questions(path, rows), None
     columns, records = read_records(path, text, fmt)
     if is_query_log(columns):
-        return import_parsed_log(path, fmt, columns, records)
+        return import_parsed_log(path, fmt, columns, records, redaction)
     if fmt == "csv" and "question" not in columns:
         raise InputError(
             f"{str(path)!r}: line {header_line(records)}: the header needs a 'question' column "
