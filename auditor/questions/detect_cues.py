@@ -52,6 +52,8 @@ def find_names(text: str) -> list[Span]:
                 break
             if (strict or words) and not word.group()[0].isupper():
                 break
+            if strict and word.group().endswith(("'s", "’s")):
+                break  # "this is Fernhollow's new plan": a possessive, not who is writing
             words.append(word)
             gap = re.match(r"[ ]+", text[word.end() : word.end() + 4])
             if gap is None:

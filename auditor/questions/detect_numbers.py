@@ -47,9 +47,10 @@ from stdnum.us import ssn
 
 Span = tuple[int, int]
 
-# Not inside a longer word or number: no letter, digit or joining mark right before or after.
-_BEFORE = r"(?<![\w+\-./,:])"
-_AFTER = r"(?![\w]|[ .\-/,:]\w)"
+# Not inside a longer word or number: no letter, digit or joining mark right before, nor a group of
+# digits and a separator; no letter or digit right after, nor a separator and more digits.
+_BEFORE = r"(?<![\w+\-./,:])(?<!\d[ .\-/])"
+_AFTER = r"(?!\w|[ .\-/,:]\d)"
 
 
 def ascii_digits(text: str) -> str:
@@ -64,10 +65,17 @@ def ascii_digits(text: str) -> str:
 _IBAN = re.compile(r"(?<![\w])[A-Za-z]{2}\d{2}(?:[ ]?[A-Za-z0-9]){10,30}")
 
 
+def _iban_valid(value: str) -> bool:
+    # check_country=False: the registry's length and layout and the mod-97 check digits decide;
+    # stdnum's country modules would also refuse bank codes missing from its bank lists, and a
+    # real IBAN of a bank it does not list must not leak.
+    return iban.is_valid(value, check_country=False)
+
+
 def find_ibans(text: str) -> list[Span]:
     spans: list[Span] = []
     for match in _IBAN.finditer(text):
-        span = _longest_valid_prefix(match.group(), iban.is_valid)
+        span = _longest_valid_prefix(match.group(), _iban_valid)
         if span is not None:
             spans.append((match.start(), match.start() + span))
     return spans
