@@ -34,7 +34,7 @@ def find_emails(text: str) -> list[Span]:
 _IPV4 = re.compile(r"(?<![\w.])\d{1,3}(?:\.\d{1,3}){3}(?!\w|\.\d)")
 # Two to eight hex groups joined by ":" (one "::" allowed by the validator), optionally ending in
 # a dotted IPv4 tail.
-_IPV6 = re.compile(r"(?<![\w:.])(?:[0-9A-Fa-f]{0,4}:){2,7}(?:[0-9A-Fa-f]{1,4}|\d{1,3}(?:\.\d{1,3}){3})?(?![\w:])")
+_IPV6 = re.compile(r"(?<![\w:.])(?:[0-9A-Fa-f]{0,4}:){2,7}(?:\d{1,3}(?:\.\d{1,3}){3}|[0-9A-Fa-f]{1,4})?(?![\w:]|\.\d)")
 
 
 def find_ips(text: str) -> list[Span]:

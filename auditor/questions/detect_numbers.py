@@ -115,35 +115,36 @@ NATIONAL_SHAPES: list[tuple[re.Pattern, tuple[Callable[[str], bool], ...]]] = [
     (_shape(r"[12] \d{2} \d{2} (?:\d{2}|2[ABab]) \d{3} \d{3} \d{2}"), (nir.is_valid,)),  # French NIR
     (_shape(r"\d{6} \d{5}"), (fodselsnummer.is_valid,)),  # Norwegian fødselsnummer
 ]
-# Numbers people name before writing them. Common practice, no single source: the words in use for
-# the numbers above.
+# Numbers people name before writing them, each cue with the validators of the numbers it names.
+# Common practice, no single source: the words in use for the numbers above.
+_NATIONAL_CUES: list[tuple[str, tuple[Callable[[str], bool], ...]]] = [
+    (r"ssn|social\s+security(?:\s+(?:number|no\.?|#))?", (ssn.is_valid,)),
+    (r"sin|social\s+insurance(?:\s+(?:number|no\.?))?", (sin.is_valid,)),
+    (r"nhs\s+(?:number|no\.?)", (nhs.is_valid,)),
+    (r"bsn|burgerservicenummer", (bsn.is_valid,)),
+    (r"pesel", (pesel.is_valid,)),
+    (r"idnr|steuer-?id|steuer-identifikationsnummer", (idnr.is_valid,)),
+    (r"personnummer", (personnummer.is_valid,)),
+    (r"cpr(?:-nummer)?", (cpr.is_valid,)),
+    (r"hetu|henkilötunnus", (hetu.is_valid,)),
+    (r"nir|numéro\s+de\s+sécurité\s+sociale", (nir.is_valid,)),
+    (r"aadhaar", (aadhaar.is_valid,)),
+    (r"cpf", (cpf.is_valid,)),
+    (r"dni|nie|nif", (dni.is_valid, nie.is_valid)),
+    (r"codice\s+fiscale", (codicefiscale.is_valid,)),
+    (r"fødselsnummer|fodselsnummer", (fodselsnummer.is_valid,)),
+]
+_GENERIC_CUE = (
+    r"national\s+(?:insurance|identity|id)(?:\s+(?:number|no\.?))?|(?:personal\s+)?id(?:entity)?\s+(?:number|no\.?|code)"
+)
 _NATIONAL_CUE = re.compile(
-    r"\b(?:ssn|social\s+security(?:\s+(?:number|no\.?|#))?|national\s+(?:insurance|identity|id)(?:\s+(?:number|no\.?))?"
-    r"|(?:personal\s+)?id(?:entity)?\s+(?:number|no\.?|code)|nhs\s+(?:number|no\.?)|bsn|pesel|idnr|steuer-?id"
-    r"|personnummer|cpr(?:-nummer)?|hetu|nir|aadhaar|sin|cpf|dni|nie|codice\s+fiscale|fødselsnummer)"
+    r"\b(?:" + "|".join(f"({cue})" for cue, _ in _NATIONAL_CUES) + f"|({_GENERIC_CUE}))"
     r"\s*(?:is|was|:|=|-|#)?\s*",
     re.IGNORECASE,
 )
 # After the cue: up to seven groups of letters and digits joined by single spaces, dots or hyphens.
 _NATIONAL_VALUE = re.compile(r"[A-Za-z]{0,2}\d[\dA-Za-z]{0,15}(?:[ .\-]\d[\dA-Za-z]{0,15}){0,6}")
-_ANY_NATIONAL: tuple[Callable[[str], bool], ...] = (
-    ssn.is_valid,
-    sin.is_valid,
-    nhs.is_valid,
-    bsn.is_valid,
-    idnr.is_valid,
-    pesel.is_valid,
-    fodselsnummer.is_valid,
-    personnummer.is_valid,
-    cpr.is_valid,
-    hetu.is_valid,
-    nir.is_valid,
-    aadhaar.is_valid,
-    cpf.is_valid,
-    dni.is_valid,
-    nie.is_valid,
-    codicefiscale.is_valid,
-)
+_ANY_NATIONAL: tuple[Callable[[str], bool], ...] = tuple(check for _, checks in _NATIONAL_CUES for check in checks)
 
 
 def _any_valid(validators: tuple[Callable[[str], bool], ...]) -> Callable[[str], bool]:
@@ -156,15 +157,19 @@ def find_national_ids(text: str) -> list[Span]:
         for match in pattern.finditer(text):
             if any(check(ascii_digits(match.group())) for check in validators):
                 spans.append(match.span())
-    valid = _any_valid(_ANY_NATIONAL)
     for cue in _NATIONAL_CUE.finditer(text):
         value = _NATIONAL_VALUE.match(text, cue.end())
-        if value is None or re.match(r"\w", text[value.end() : value.end() + 1]):
+        if value is None or _WORD_CHAR.match(text, value.end()):
             continue
-        end = _longest_valid_prefix(value.group(), valid)
+        family = cue.lastindex or 0  # the numbered group of the cue that matched
+        checks = _NATIONAL_CUES[family - 1][1] if family <= len(_NATIONAL_CUES) else _ANY_NATIONAL
+        end = _longest_valid_prefix(value.group(), _any_valid(checks))
         if end is not None:
             spans.append((value.start(), value.start() + end))
     return non_overlapping(spans)
+
+
+_WORD_CHAR = re.compile(r"\w")
 
 
 def non_overlapping(spans: list[Span]) -> list[Span]:
@@ -283,18 +288,16 @@ def find_phones(text: str, region: str) -> list[Span]:
     number — with a hyphen or an area code in brackets, no dot ("555-0134", "(555) 555-0187": local
     numbers and the ranges reserved for fiction are possible but not valid).
 
-    The matcher gives up after `max_tries` candidates (65,535 by default); the limit is lifted to
-    the text's length so a long line full of digit groups cannot hide a number at its end."""
-    tries = max(65_535, len(text))
-    found = [(m.start, m.end) for m in phonenumbers.PhoneNumberMatcher(text, region, _VALID, tries)]
-    if "-" in text or "(" in text:
-        taken = set(found)
-        for m in phonenumbers.PhoneNumberMatcher(text, region, _POSSIBLE, tries):
-            if (m.start, m.end) not in taken and _PHONE_LAYOUT.search(m.raw_string) and "." not in m.raw_string:
-                found.append((m.start, m.end))
-    return non_overlapping(found)
+    One pass of the matcher at leniency POSSIBLE, each match then checked for validity. The matcher
+    gives up after `max_tries` candidates (65,535 by default); the limit is lifted to the text's
+    length so a long line full of digit groups cannot hide a number at its end."""
+    matcher = phonenumbers.PhoneNumberMatcher(text, region, _POSSIBLE, max(65_535, len(text)))
+    return [
+        (m.start, m.end)
+        for m in matcher
+        if phonenumbers.is_valid_number(m.number) or (_PHONE_LAYOUT.search(m.raw_string) and "." not in m.raw_string)
+    ]
 
 
-_VALID = phonenumbers.Leniency.VALID
 _POSSIBLE = phonenumbers.Leniency.POSSIBLE
 _PHONE_LAYOUT = re.compile(r"\d-\d|\(\d{1,5}\)")
