@@ -3,9 +3,15 @@
 from __future__ import annotations
 
 import csv
+import importlib.util
 import json
+import logging
 import random
+import re
+import sqlite3
 from collections import Counter
+from datetime import date
+from pathlib import Path
 
 import numpy as np
 import pytest
@@ -13,11 +19,19 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 from scipy.spatial.distance import jaccard as scipy_jaccard_distance
 
-from auditor.errors import InputError
-from auditor.questions.querylog import _prefix, import_query_log, jaccard, tokens
-from auditor.questions.redact import luhn_valid
+from auditor.config import Config, CorpusConfig, RedactionConfig, ReportConfig, load_config
+from auditor.errors import ConfigError, InputError
+from auditor.questions.querylog import _prefix, import_query_log, jaccard, stored_redaction_counts, tokens
+from auditor.questions.redact import KINDS, PLACEHOLDERS, luhn_valid
 from auditor.questions.sets import load_questions, store_questions, stored_questions
-from auditor.store import Store
+from auditor.scan import audit_and_report, load_question_files, scan
+from auditor.store import SCHEMA, Store
+
+# The redaction bench's value sources: libphonenumber's example numbers, stdnum's docstring
+# examples, the IBAN registry's examples, published test cards, RFC 5737 / RFC 3849 addresses.
+_spec = importlib.util.spec_from_file_location("redaction_bench", Path(__file__).parents[1] / "bench" / "redaction.py")
+bench = importlib.util.module_from_spec(_spec)
+_spec.loader.exec_module(bench)
 
 # Invented questions to a fictional water utility (demo data, fixtures/demo/README.md); each has 6+ distinct
 # words, so one extra word keeps Jaccard ≥ 6/7 ≈ 0.857 with its base, while different bases share
@@ -43,13 +57,34 @@ BASES = [
     "are there watering restrictions during the summer drought",
     "how do I apply for the senior discount programme",
     "who owns the pipe between the meter and my house",
-    "my email is {pii} and I cannot log in to my account",
-    "please change the contact number on my account to {pii}",
-    "my card {pii} was charged twice for the same bill",
-    "send the final bill for my old flat to {pii} today",
-    "call me back on {pii} about the pressure drop",
+    "my email~is~{pii} and I cannot log in to my account",
+    "please change the contact number on my account to~{pii}",
+    "my card~{pii} was charged twice for the same bill",
+    "send the final bill for my old flat to~{pii} today",
+    "call me back on~{pii} about the pressure drop",
+    # "~" glues a cue to its value, so shuffled words and inserted filler never separate them.
+    "please pay the refund into IBAN~{pii} this week",
+    "why do you need my national~id~number~{pii} for the hardship fund",
+    "my date~of~birth~is~{pii} for the senior discount",
+    "where is my order~number~{pii} it never arrived",
+    "the portal blocks~{pii} since monday when I log in",
+    "is there a water leak outside~{pii} this morning",
+    "hi my~name~is~{pii} and my water looks brown",
 ]
-PII_KIND = {20: "email", 21: "phone", 22: "card", 23: "email", 24: "phone"}
+PII_KIND = {
+    20: "email",
+    21: "phone",
+    22: "card",
+    23: "email",
+    24: "phone",
+    25: "iban",
+    26: "national_id",
+    27: "birth_date",
+    28: "account",
+    29: "ip",
+    30: "address",
+    31: "name",
+}
 EXTRA_WORDS = ["now", "asap", "again", "quickly", "tonight"]  # not filler: make near-duplicates
 FILLERS = ["please", "hi", "thanks", "hello", "just"]
 NAMES = ["ann.lee", "bo_stone", "carla+bills", "dev.o'neil", "eve-marsh", "fen.k", "gil", "hana.ito"]
@@ -66,7 +101,8 @@ def _card(rng: random.Random) -> str:
 
 
 def _phone(rng: random.Random) -> str:
-    # Numbers set aside for fiction (from memory): NANP 555-01xx, Ofcom 020 7946 0xxx.
+    # Numbers set aside for fiction (from memory): NANP 555-01xx, Ofcom 020 7946 0xxx (written with
+    # +44: the default phone region is US, where "020 ..." is no national number).
     n = rng.randrange(100)
     return rng.choice(
         [
@@ -74,15 +110,26 @@ def _phone(rng: random.Random) -> str:
             f"415-555-01{n:02d}",
             f"+1 415 555 01{n:02d}",
             f"+14155550{100 + n}",
-            f"020 7946 0{n:03d}",
             f"+44 20 7946 0{n:03d}",
-            f"0044 20 7946 0{n:03d}",
         ]
     )
 
 
 def _email(rng: random.Random, i: int) -> str:
     return f"{rng.choice(NAMES)}{i}@{rng.choice(['example.org', 'mail.example.com', '例子.广告'])}"
+
+
+POOLS = {"phone": bench._example_phones("US"), "national_id": bench.example_national_ids()}
+
+
+def _planted(kind: str, rng: random.Random, i: int) -> str:
+    if kind == "email":
+        return _email(rng, i)
+    if kind == "phone":
+        return _phone(rng) if rng.random() < 0.5 else rng.choice(POOLS["phone"])[0]
+    if kind == "card":
+        return _card(rng)
+    return bench._value(kind, rng, i, POOLS)[0]
 
 
 def generate_log(path, lines: int, seed: int):
@@ -120,10 +167,11 @@ def generate_log(path, lines: int, seed: int):
             text = text.replace(" ", ", ", 1)
         if b in PII_KIND:
             kind = PII_KIND[b]
-            value = {"email": lambda: _email(rng, i), "phone": lambda: _phone(rng), "card": lambda: _card(rng)}[kind]()  # noqa: B023
+            value = _planted(kind, rng, i)
             personal.append(value)
             planted_kinds[kind] += 1
             text = text.replace("{PII}", "{pii}").replace("{Pii}", "{pii}").replace("{pii}", value)
+        text = text.replace("~", " ")
         text += rng.choice(["", "?", "?", "!", ".", " ?", "??"])
         count = rng.choice(["", "", "1", "2", "3", "7"])
         planted_count[b] += int(count or 1)
@@ -155,34 +203,89 @@ def _base_of(question: str) -> int:
     best = [
         b
         for b in range(len(BASES))
-        if jaccard(key, tokens(BASES[b].replace("{pii}", "[" + PII_KIND.get(b, "") + "]"))) >= 0.85
+        if jaccard(key, tokens(BASES[b].replace("~", " ").replace("{pii}", "[" + PII_KIND.get(b, "") + "]"))) >= 0.85
     ]
     assert len(best) == 1, (question, best)
     return best[0]
 
 
-def _scan(db_path, needles: list[str]) -> list[str]:
-    blobs = b""
-    for suffix in ("", "-wal", "-journal"):
-        p = db_path.with_name(db_path.name + suffix)
-        if p.exists():
-            blobs += p.read_bytes()
+def _forms(needle: str) -> list[str]:
+    """What to look for: the value as planted, and for numbers of 8 digits or more the bare digit
+    string too."""
+    digits = "".join(ch for ch in needle if ch.isdigit())
+    return [needle, digits] if "@" not in needle and len(digits) >= 8 else [needle]
+
+
+def _scan_files(paths: list[Path], needles: list[str], texts: tuple[str, ...] = ()) -> list[str]:
+    """The planted values (in any of their forms) found in the files' bytes or in `texts`.
+
+    A substring search first (fast), then a word-boundary check: a first name alone may be part of
+    a longer word ("Ann" in "Annual")."""
+    chunks = list(texts)
+    for p in paths:
+        data = p.read_bytes()
+        # SQLite stores TEXT as UTF-8 here (PRAGMA encoding default); read UTF-16 too, to be sure.
+        chunks += [data.decode("utf-8", "replace"), data.decode("utf-16-le", "replace")]
+    haystack = "\n".join(chunks)
     found = []
-    for needle in needles:
-        forms = {needle}
-        if "@" not in needle:  # phone and card numbers: also as bare digits
-            forms.add("".join(ch for ch in needle if ch.isdigit()))
-        for form in forms:
-            # SQLite stores TEXT as UTF-8 here (PRAGMA encoding default); scan UTF-16 too, to be sure.
-            if form and (form.encode("utf-8") in blobs or form.encode("utf-16-le") in blobs):
+    for needle in dict.fromkeys(needles):
+        for form in _forms(needle):
+            if form in haystack and re.search(rf"(?<!\w){re.escape(form)}(?!\w)", haystack):
                 found.append(form)
     return found
 
 
-def test_ten_thousand_generated_lines(tmp_path):
+def _scan(db_path, needles: list[str]) -> list[str]:
+    files = [db_path.with_name(db_path.name + s) for s in ("", "-wal", "-journal")]
+    return _scan_files([p for p in files if p.exists()], needles)
+
+
+def _tiny_corpus(folder: Path) -> Path:
+    # Two invented help pages (demo scenario, fixtures/demo/README.md).
+    kb = folder / "kb"
+    kb.mkdir()
+    (kb / "pay.md").write_text(
+        "---\ntitle: Paying your bill\nupdated: 2026-10-01\n---\n# Paying your bill\n\n"
+        "You can pay your water bill online, by phone or at the office. Refunds go to your bank account.\n",
+        encoding="utf-8",
+    )
+    (kb / "leaks.md").write_text(
+        "---\ntitle: Leaks\nupdated: 2026-09-15\n---\n# Report a leak\n\n"
+        "Report a burst main or a leak in the street to the field crew line at any hour.\n",
+        encoding="utf-8",
+    )
+    return kb
+
+
+def _scan_everything(tmp_path: Path, log: Path, redaction: RedactionConfig, capsys, caplog) -> tuple[list[Path], str]:
+    """`auditor scan`'s library function with the query log as the question file: the files it
+    leaves (database, WAL, journal, report folder) and what it printed or logged."""
+    work = tmp_path / f"scan-{len(list(tmp_path.glob('scan-*')))}"
+    work.mkdir()
+    config = Config(
+        database=work / "audit.db",
+        questions=(log,),
+        corpus=CorpusConfig(paths=(_tiny_corpus(work),), jobs=1),
+        report=ReportConfig(out=work / "report"),
+        redaction=redaction,
+    )
+    with caplog.at_level(logging.DEBUG):
+        outcome = scan(config, as_of=date(2026, 12, 1))
+    output = capsys.readouterr()
+    printed = "\n".join([output.out, output.err, caplog.text, *outcome.question_lines])
+    files = [p for p in (work / "report").rglob("*") if p.is_file()]
+    files += [work / n for n in ("audit.db", "audit.db-wal", "audit.db-journal") if (work / n).exists()]
+    assert len(files) > 4 and any(p.name == "results.json" for p in files)
+    return files, printed
+
+
+def test_ten_thousand_generated_lines(tmp_path, capsys, caplog):
     log = tmp_path / "queries.csv"
     planted = generate_log(log, 10_000, seed=20261202)
     questions, summary = import_query_log(log)
+
+    # Every kind is planted, hundreds of times each.
+    assert set(planted["kinds"]) == set(KINDS) and min(planted["kinds"].values()) > 100
 
     # Every base comes out as exactly one question whose weight is the planted Σ counts.
     got = Counter()
@@ -202,7 +305,8 @@ def test_ten_thousand_generated_lines(tmp_path):
     assert summary.merged_exact == 10_000 - planted["empty"] - summary.distinct
     assert summary.ignored_columns == ["session"]
     assert (summary.first_seen, summary.last_seen) == ("2026-11-01T00:00:00", "2026-11-30T23:00:00")
-    assert "10000 log lines -> 25 questions" in summary.line()
+    assert f"10000 log lines -> {len(BASES)} questions" in summary.line()
+    assert ", ".join(f"{planted['kinds'][k]} {k}" for k in KINDS) in summary.line()
     for q in questions:
         assert "@" not in q.question and not any(ch.isdigit() for ch in q.question)
 
@@ -215,12 +319,31 @@ def test_ten_thousand_generated_lines(tmp_path):
     store.close()
     assert _scan(db_path, planted["personal"]) == []  # after the checkpoint on close
 
-    # The same log loaded without redaction does leak: the scan above is able to find things.
+    # The whole scan, the log as its question file: nothing planted in the database, its WAL and
+    # journal, the report folder, or anything printed or logged; the counts by kind are stored.
+    files, printed = _scan_everything(tmp_path, log, RedactionConfig(), capsys, caplog)
+    assert _scan_files(files, planted["personal"], (printed,)) == []
+    with Store(next(p for p in files if p.name == "audit.db")) as kept:
+        assert stored_redaction_counts(kept, log.name) == planted["kinds"]
+
+    # The same log without redaction does leak, into the database and the report alike: the scans
+    # above are able to find things.
     raw, _ = import_query_log(log, redact=False)
     leak_path = tmp_path / "leak.db"
     with Store(leak_path) as leak:
         store_questions(leak, raw, log.name)
         assert len(_scan(leak_path, planted["personal"])) > 0
+    # (A 300-line log here: unredacted, every line is a question of its own.)
+    small = tmp_path / "small" / "queries.csv"
+    small.parent.mkdir()
+    small_planted = generate_log(small, 300, seed=5)
+    off = RedactionConfig(**{kind: False for kind in KINDS})
+    database = next(p for p in files if p.name == "audit.db")
+    config = Config(database=database, questions=(small,), redaction=off)
+    with Store(database) as kept:
+        audit_and_report(kept, config, load_question_files(config), as_of=date(2026, 12, 1), out_dir=tmp_path / "leak")
+    report_files = [p for p in (tmp_path / "leak").rglob("*") if p.is_file()]
+    assert len(_scan_files(report_files, small_planted["personal"])) > 0
 
 
 def test_similarity_one_keeps_near_duplicates_apart(tmp_path):

@@ -110,7 +110,8 @@ NATIONAL_SHAPES: list[tuple[re.Pattern, tuple[Callable[[str], bool], ...]]] = [
     (_shape(r"\d{6}[-+Aa]\d{3}[0-9A-Ya-y]"), (hetu.is_valid,)),  # Finnish HETU
     (_shape(r"(?:\d{2})?\d{6}[-+]\d{4}"), (personnummer.is_valid, cpr.is_valid)),  # SE, DK
     (_shape(r"\d{3}\.\d{3}\.\d{3}-\d{2}"), (cpf.is_valid,)),  # Brazilian CPF
-    (_shape(r"\d{3}-\d{3}-\d{3}|\d{3} \d{3} \d{3}"), (sin.is_valid,)),  # Canadian SIN
+    # Canadian SIN: hyphenated only without a cue ("091 234 567" is also how a phone number is written)
+    (_shape(r"\d{3}-\d{3}-\d{3}"), (sin.is_valid,)),
     (_shape(r"\d{2} \d{3} \d{3} \d{3}"), (idnr.is_valid,)),  # German IdNr
     (_shape(r"[12] \d{2} \d{2} (?:\d{2}|2[ABab]) \d{3} \d{3} \d{2}"), (nir.is_valid,)),  # French NIR
     (_shape(r"\d{6} \d{5}"), (fodselsnummer.is_valid,)),  # Norwegian fødselsnummer
