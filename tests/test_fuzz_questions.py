@@ -1,6 +1,6 @@
 """Property-based tests of the question-file and query-log parsers (docs/question-sets.md): any file either
 loads into well-formed questions or raises InputError naming the file — never another exception —
-in bounded time."""
+in bounded CPU time (tests/cpu_budget.py), with no wall-clock deadline."""
 
 from __future__ import annotations
 
@@ -10,7 +10,7 @@ import json
 import math
 
 import pytest
-from cpu_budget import cpu_seconds
+from cpu_budget import run_in_budget
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
@@ -20,7 +20,7 @@ from auditor.questions.sets import load_questions
 
 FUZZ = settings(
     max_examples=150,
-    deadline=2000,
+    deadline=None,  # no wall clock in tests: a busy machine must not fail them; examples are bounded
     derandomize=True,
     suppress_health_check=[HealthCheck.function_scoped_fixture, HealthCheck.too_slow],
 )
@@ -203,25 +203,15 @@ def one_line_log(folder, unit: str):
 @pytest.mark.parametrize("unit", ["(", '"', "a@", "a@b.", "+", "[", ",", "x" * 50, "1.5 kg ", "Q3 "])
 def test_a_100_kb_query_imports_in_bounded_time(tmp_path, unit):
     path = one_line_log(tmp_path, unit)
-    found = []
-    assert cpu_seconds(lambda: found.extend(import_query_log(path)[0]), BUDGET_S) < BUDGET_S
+    found, seconds = run_in_budget(lambda: import_query_log(path)[0], BUDGET_S)
+    assert seconds < BUDGET_S
     assert len(found) == 1 and found[0].weight == 3.0
 
 
-# Known bug, not run: the CPU alarm does not always interrupt it, and one case then costs minutes.
-CARD_RESCAN = pytest.mark.xfail(
-    run=False,
-    reason=(
-        "redact._redact_digits searches the rest of a run again after each card or phone it redacts: "
-        "a long run of short groups ('1 1 1 …', '1.2.3.4 1.2.3.4 …') is quadratic; fix: walk the run's "
-        "groups once"
-    ),
-)
-
-
-@pytest.mark.parametrize(
-    "unit", ["1-", "2024-01-01 ", pytest.param("1 ", marks=CARD_RESCAN), pytest.param("1.2.3.4 ", marks=CARD_RESCAN)]
-)
+# Long runs of short digit groups: each card or phone found once made the rest of the run be
+# searched again (quadratic: "1 " x 2,500 took about 12 s); the groups are now walked once.
+@pytest.mark.parametrize("unit", ["1-", "2024-01-01 ", "1 ", "1.2.3.4 ", "4111 ", "+1 ", "(1) ", "12345 "])
 def test_a_100_kb_run_of_digit_groups_imports_in_bounded_time(tmp_path, unit):
     path = one_line_log(tmp_path, unit)
-    assert cpu_seconds(lambda: import_query_log(path), BUDGET_S) < BUDGET_S
+    questions, seconds = run_in_budget(lambda: import_query_log(path)[0], BUDGET_S)
+    assert seconds < BUDGET_S and len(questions) == 1

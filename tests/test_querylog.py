@@ -24,8 +24,8 @@ from auditor.errors import ConfigError, InputError
 from auditor.questions.querylog import _prefix, import_query_log, jaccard, stored_redaction_counts, tokens
 from auditor.questions.redact import KINDS, PLACEHOLDERS, luhn_valid
 from auditor.questions.sets import load_questions, store_questions, stored_questions
-from auditor.scan import audit_and_report, load_question_files, scan
-from auditor.store import SCHEMA, Store
+from auditor.scan import audit_and_report, load_question_files, scan, store_question_sets
+from auditor.store import SCHEMA, SCHEMA_VERSION, Store
 
 # The redaction bench's value sources: libphonenumber's example numbers, stdnum's docstring
 # examples, the IBAN registry's examples, published test cards, RFC 5737 / RFC 3849 addresses.
@@ -540,3 +540,121 @@ def test_nested_values_in_dropped_keys_are_fine(tmp_path):
     assert summary.ignored_columns == ["context"]
     # Unix times 1764547200 and 1764633600 are 2025-12-01 and 2025-12-02, 00:00 UTC.
     assert (summary.first_seen, summary.last_seen) == ("2025-12-01T00:00:00", "2025-12-02T00:00:00")
+
+
+# --- the seven-line log, counts by kind, strict, the [redaction] table ----------------------------
+
+# The log a new user tried (IBAN of the SWIFT registry example, stdnum's example SSN, RFC 5737
+# address; the rest invented): every line's personal data becomes its placeholder, the questions
+# stay readable.
+SEVEN_LINE_LOG = [
+    "IBAN DE89 3704 0044 0532 0130 00 refund please",
+    "my SSN is 536-90-4399, why was I charged twice?",
+    "Hi, my name is Maria Lopez and my water pressure is low",
+    "is there a leak at 42 Birch Lane",
+    "where is my order number 88214573",
+    "date of birth 14/07/1961 for the senior discount",
+    "I cannot log in from 203.0.113.42",
+]
+
+
+def _write_log(path: Path, lines: list[str]) -> Path:
+    with open(path, "w", newline="", encoding="utf-8") as fh:
+        writer = csv.writer(fh)
+        writer.writerow(["query", "count"])
+        writer.writerows([line, 1] for line in lines)
+    return path
+
+
+def test_the_seven_line_log(tmp_path):
+    questions, summary = import_query_log(_write_log(tmp_path / "log.csv", SEVEN_LINE_LOG))
+    assert sorted(q.question for q in questions) == sorted(
+        [
+            "IBAN [iban] refund please",
+            "my SSN is [national_id], why was I charged twice?",
+            "Hi, my name is [name] and my water pressure is low",
+            "is there a leak at [address]",
+            "where is my order number [account]",
+            "date of birth [birth_date] for the senior discount",
+            "I cannot log in from [ip]",
+        ]
+    )
+    assert summary.redacted == Counter(iban=1, national_id=1, name=1, address=1, account=1, birth_date=1, ip=1)
+    assert summary.line() == (
+        "7 log lines -> 7 questions (0 exact and 0 near duplicates merged, 0 empty); "
+        "redacted 1 iban, 1 national_id, 1 birth_date, 1 account, 1 ip, 1 address, 1 name"
+    )
+
+
+def test_placeholders_are_words_of_the_merge_key():
+    assert tokens("pay to [iban] from [national_id]") == frozenset({"pay", "to", "[iban]", "from", "[national_id]"})
+    assert set(PLACEHOLDERS.values()) <= {t for k in KINDS for t in tokens(f"x {PLACEHOLDERS[k]}")}
+
+
+def test_strict_drops_lines_that_still_hold_long_digit_runs(tmp_path):
+    log = _write_log(
+        tmp_path / "log.csv",
+        ["ticket 20261203117 still open", "how do I pay my bill", "my card 4111 1111 1111 1111 failed"],
+    )
+    questions, summary = import_query_log(log, redaction=RedactionConfig(strict=True))
+    assert sorted(q.question for q in questions) == ["how do I pay my bill", "my card [card] failed"]
+    assert summary.dropped_strict == 1
+    assert summary.line().endswith("redacted 1 card; 1 dropped by strict")
+    kept, loose = import_query_log(log)
+    assert loose.dropped_strict == 0 and any("20261203117" in q.question for q in kept)
+
+
+def test_kinds_turned_off_are_kept(tmp_path):
+    log = _write_log(tmp_path / "log.csv", ["my name is Maria and my email is ann@example.org"])
+    questions, summary = import_query_log(log, redaction=RedactionConfig(name=False))
+    assert [q.question for q in questions] == ["my name is Maria and my email is [email]"]
+    assert summary.redacted == Counter(email=1)
+
+
+def test_the_phone_region_reads_national_numbers(tmp_path):
+    log = _write_log(tmp_path / "log.csv", ["call me on 020 7946 0958 about the leak"])
+    assert import_query_log(log)[0][0].question == "call me on 020 7946 0958 about the leak"
+    questions, _ = import_query_log(log, redaction=RedactionConfig(phone_region="GB"))
+    assert questions[0].question == "call me on [phone] about the leak"
+
+
+def test_redaction_table_in_the_config(tmp_path):
+    path = tmp_path / "audit.toml"
+    path.write_text('[redaction]\nname = false\nphone_region = "GB"\nstrict = true\ncolour = 1\n', encoding="utf-8")
+    warnings = []
+    config = load_config(path, env={}, warn=warnings.append)
+    assert config.redaction == RedactionConfig(name=False, phone_region="GB", strict=True)
+    assert warnings == [f"{str(path)!r}: unknown key 'redaction.colour' ignored"]
+    assert load_config(None, env={}).redaction == RedactionConfig()
+    for bad, message in [
+        ('phone_region = "XX"', "redaction.phone_region must be a region code"),
+        ("email = 3", "redaction.email must be true or false"),
+    ]:
+        path.write_text(f"[redaction]\n{bad}\n", encoding="utf-8")
+        with pytest.raises(ConfigError, match=message) as info:
+            load_config(path, env={})
+        assert str(info.value).startswith(repr(str(path)) + ": ")
+
+
+def test_counts_by_kind_are_stored_never_the_values(tmp_path):
+    log = _write_log(tmp_path / "log.csv", [*SEVEN_LINE_LOG, "ticket 20261203117"])
+    config = Config(database=tmp_path / "audit.db", questions=(log,), redaction=RedactionConfig(strict=True))
+    sets = load_question_files(config)
+    with Store(config.database) as store:
+        store_question_sets(store, sets)
+        assert stored_redaction_counts(store, "log.csv") == Counter(
+            iban=1, national_id=1, name=1, address=1, account=1, birth_date=1, ip=1, dropped_strict=1
+        )
+        assert all("[" in q["question"] or "ticket" not in q["question"] for q in store.query("SELECT * FROM questions"))
+
+
+def test_a_version_1_database_gains_the_counts_table(tmp_path):
+    # A database written before the counts were stored: schema version 1, no redaction_counts.
+    path = tmp_path / "old.db"
+    with sqlite3.connect(path) as db:
+        db.executescript(re.sub(r"-- What each query-log import redacted.*?\);\n", "", SCHEMA, flags=re.S))
+        assert "redaction_counts" not in {r[0] for r in db.execute("SELECT name FROM sqlite_master")}
+        db.execute("INSERT INTO meta (key, value) VALUES ('schema_version', '1')")
+    with Store(path) as store:
+        assert store.query("SELECT value FROM meta WHERE key = 'schema_version'") == [{"value": str(SCHEMA_VERSION)}]
+        assert stored_redaction_counts(store, "log.csv") == Counter()
