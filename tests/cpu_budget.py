@@ -81,7 +81,9 @@ def run_in_budget(fn: Callable[[], Any], budget: float) -> tuple[Any, float]:
             process.kill()
         process.join()
         receive.close()
-    if status == "over" or seconds > budget:
+    if status == "over":
+        raise OverBudget(f"stopped by the {budget} s CPU alarm")
+    if seconds > budget:
         raise OverBudget(f"{seconds:.2f} s CPU, budget {budget} s")
     if status == "error":
         raise AssertionError(f"the budgeted call failed: {payload}")

@@ -21,7 +21,7 @@ from scipy.spatial.distance import jaccard as scipy_jaccard_distance
 
 from auditor.config import Config, CorpusConfig, RedactionConfig, ReportConfig, load_config
 from auditor.errors import ConfigError, InputError
-from auditor.questions.querylog import _prefix, import_query_log, jaccard, stored_redaction_counts, tokens
+from auditor.questions.querylog import SUMMARY_ORDER, _prefix, import_query_log, jaccard, stored_redaction_counts, tokens
 from auditor.questions.redact import KINDS, PLACEHOLDERS, luhn_valid
 from auditor.questions.sets import load_questions, store_questions, stored_questions
 from auditor.scan import audit_and_report, load_question_files, scan, store_question_sets
@@ -306,7 +306,7 @@ def test_ten_thousand_generated_lines(tmp_path, capsys, caplog):
     assert summary.ignored_columns == ["session"]
     assert (summary.first_seen, summary.last_seen) == ("2026-11-01T00:00:00", "2026-11-30T23:00:00")
     assert f"10000 log lines -> {len(BASES)} questions" in summary.line()
-    assert ", ".join(f"{planted['kinds'][k]} {k}" for k in KINDS) in summary.line()
+    assert ", ".join(f"{planted['kinds'][k]} {k}" for k in SUMMARY_ORDER) in summary.line()
     for q in questions:
         assert "@" not in q.question and not any(ch.isdigit() for ch in q.question)
 
@@ -645,7 +645,7 @@ def test_counts_by_kind_are_stored_never_the_values(tmp_path):
         assert stored_redaction_counts(store, "log.csv") == Counter(
             iban=1, national_id=1, name=1, address=1, account=1, birth_date=1, ip=1, dropped_strict=1
         )
-        assert all("[" in q["question"] or "ticket" not in q["question"] for q in store.query("SELECT * FROM questions"))
+        assert not any("20261203117" in q["question"] for q in store.query("SELECT question FROM questions"))
 
 
 def test_a_version_1_database_gains_the_counts_table(tmp_path):

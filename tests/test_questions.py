@@ -164,7 +164,7 @@ def test_read_question_file_returns_the_log_summary(tmp_path, caplog):
     log = write(
         tmp_path,
         "log.jsonl",
-        '{"utterance": "Leak on my street", "count": 2}\n{"utterance": "call 020 7946 0123", "count": 1}\n',
+        '{"utterance": "Leak on my street", "count": 2}\n{"utterance": "call +44 20 7946 0123", "count": 1}\n',
     )
     questions, summary = read_question_file(log)
     assert (

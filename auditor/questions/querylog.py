@@ -57,6 +57,8 @@ from auditor.questions.redact import redact as redact_text
 from auditor.store import Store
 
 CARRIED_COLUMNS = ("owner", "topic")
+# The summary line lists the three kinds it always listed first, then the others in detection order.
+SUMMARY_ORDER = ("email", "phone", "card", *(k for k in KINDS if k not in ("email", "phone", "card")))
 
 # Words that change nothing about what is asked; common practice, no single source.
 FILLER = frozenset("please pls plz hi hello hey thanks thank thx um uh er hmm just kindly quick question help".split())
@@ -92,7 +94,7 @@ class QueryLogSummary:
     largest_merges: list[dict] = field(default_factory=list)  # {"question","variants","count"}
 
     def line(self) -> str:
-        kinds = ", ".join(f"{self.redacted[k]} {k}" for k in KINDS if self.redacted[k])
+        kinds = ", ".join(f"{self.redacted[k]} {k}" for k in SUMMARY_ORDER if self.redacted[k])
         dropped = f"; {self.dropped_strict} dropped by strict" if self.dropped_strict else ""
         return (
             f"{self.records} log lines -> {self.questions} questions "
