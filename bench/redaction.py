@@ -231,7 +231,9 @@ def _value(kind: str, rng: random.Random, i: int, pools: dict) -> tuple[str, dic
 def generate(lines: int, seed: int, region: str = "US") -> list[tuple[str, list[tuple[str, str]]]]:
     """[(line, [(kind, planted value), ...])]: about one line in four is a trap with nothing planted,
     the others plant one or two values (every kind equally often)."""
-    assert all(iban.is_valid(v, check_country=False) for v in EXAMPLE_IBANS) and all(luhn.is_valid(v) for v in TEST_CARDS)
+    assert all(iban.is_valid(v, check_country=False) for v in EXAMPLE_IBANS) and all(
+        luhn.is_valid(v) for v in TEST_CARDS
+    )
     rng = random.Random(seed)
     pools = {"phone": _example_phones(region), "national_id": example_national_ids()}
     out = []

@@ -21,7 +21,14 @@ from scipy.spatial.distance import jaccard as scipy_jaccard_distance
 
 from auditor.config import Config, CorpusConfig, RedactionConfig, ReportConfig, load_config
 from auditor.errors import ConfigError, InputError
-from auditor.questions.querylog import SUMMARY_ORDER, _prefix, import_query_log, jaccard, stored_redaction_counts, tokens
+from auditor.questions.querylog import (
+    SUMMARY_ORDER,
+    _prefix,
+    import_query_log,
+    jaccard,
+    stored_redaction_counts,
+    tokens,
+)
 from auditor.questions.redact import KINDS, PLACEHOLDERS, luhn_valid
 from auditor.questions.sets import load_questions, store_questions, stored_questions
 from auditor.scan import audit_and_report, load_question_files, scan, store_question_sets

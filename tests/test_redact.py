@@ -415,7 +415,11 @@ def test_a_date_without_a_birth_cue_is_left():
 # an RFC 5737 address. Each keeps its question readable.
 SEVEN_LINES = [
     ("IBAN DE89 3704 0044 0532 0130 00 refund please", "IBAN [iban] refund please", "iban"),
-    ("my SSN is 536-90-4399, why was I charged twice?", "my SSN is [national_id], why was I charged twice?", "national_id"),
+    (
+        "my SSN is 536-90-4399, why was I charged twice?",
+        "my SSN is [national_id], why was I charged twice?",
+        "national_id",
+    ),
     (
         "Hi, my name is Maria Lopez and my water pressure is low",
         "Hi, my name is [name] and my water pressure is low",
@@ -423,7 +427,11 @@ SEVEN_LINES = [
     ),
     ("is there a leak at 42 Birch Lane", "is there a leak at [address]", "address"),
     ("where is my order number 88214573", "where is my order number [account]", "account"),
-    ("date of birth 14/07/1961 for the senior discount", "date of birth [birth_date] for the senior discount", "birth_date"),
+    (
+        "date of birth 14/07/1961 for the senior discount",
+        "date of birth [birth_date] for the senior discount",
+        "birth_date",
+    ),
     ("I cannot log in from 203.0.113.42", "I cannot log in from [ip]", "ip"),
 ]
 

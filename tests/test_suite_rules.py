@@ -28,11 +28,6 @@ SLEEP_THEN_POLL = "sleep, then assert on poll()"
 # Known breaches, (file, rule) -> how many, each with the work that removes it. An entry that no
 # longer matches fails too, so that this set only shrinks.
 ALLOWED: dict[tuple[str, str], int] = {
-    # The quadratic redaction case (a long run of short digit groups): the linear-time redaction
-    # work makes it run within its CPU budget and removes the mark and this entry.
-    ("test_fuzz_questions.py", XFAIL_NOT_RUN): 1,
-    # The same work takes the wall-clock deadline out of the question-file fuzz settings.
-    ("test_fuzz_questions.py", DEADLINE): 1,
     # The temporal fuzz tests' deadlines (2000 ms and 3000 ms), left to the work on those tests.
     ("test_fuzz_temporal.py", DEADLINE): 2,
 }

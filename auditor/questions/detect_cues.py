@@ -26,9 +26,7 @@ _WORD = r"[^\W\d_](?:[^\W\d_]|['’\-](?=[^\W\d_])){0,30}"
 
 # --- names ------------------------------------------------------------------------------------------
 
-_NAME_CUE = re.compile(
-    r"\b(?:(my\s+name\s+is|my\s+name's|name\s*:)|(this\s+is)|(i'm|i’m|i\s+am))\s+", re.IGNORECASE
-)
+_NAME_CUE = re.compile(r"\b(?:(my\s+name\s+is|my\s+name's|name\s*:)|(this\s+is)|(i'm|i’m|i\s+am))\s+", re.IGNORECASE)
 _NAME_WORD = re.compile(_WORD)
 # Capitalized words that follow "this is" / "I'm" without being names (sentence words, the
 # utility's own vocabulary). Common practice, no single source.
@@ -45,7 +43,8 @@ def find_names(text: str) -> list[Span]:
     spans: list[Span] = []
     for cue in _NAME_CUE.finditer(text):
         strict = cue.group(1) is None  # "this is", "I'm": capitalized words only
-        pos, words = cue.end(), []
+        pos = cue.end()
+        words: list[re.Match] = []
         while len(words) < 3:
             word = _NAME_WORD.match(text, pos)
             if word is None or word.group().casefold() in _NOT_NAMES:

@@ -135,9 +135,7 @@ _NATIONAL_CUES: list[tuple[str, tuple[Callable[[str], bool], ...]]] = [
     (r"codice\s+fiscale", (codicefiscale.is_valid,)),
     (r"fødselsnummer|fodselsnummer", (fodselsnummer.is_valid,)),
 ]
-_GENERIC_CUE = (
-    r"national\s+(?:insurance|identity|id)(?:\s+(?:number|no\.?))?|(?:personal\s+)?id(?:entity)?\s+(?:number|no\.?|code)"
-)
+_GENERIC_CUE = r"national\s+(?:insurance|identity|id)(?:\s+(?:number|no\.?))?|(?:personal\s+)?id(?:entity)?\s+(?:number|no\.?|code)"
 _NATIONAL_CUE = re.compile(
     r"\b(?:" + "|".join(f"({cue})" for cue, _ in _NATIONAL_CUES) + f"|({_GENERIC_CUE}))"
     r"\s*(?:is|was|:|=|-|#)?\s*",

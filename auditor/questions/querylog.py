@@ -173,7 +173,9 @@ def _read(
         content = read_text(path)
         fmt = sniff_format(path, content)
         if fmt == "text":  # one query a line
-            rows = [(n, line, 1, {}) for n, line in enumerate(content.splitlines(), 1) if line.strip()]
+            rows: list[tuple[int, str, int, dict]] = [
+                (n, line, 1, {}) for n, line in enumerate(content.splitlines(), 1) if line.strip()
+            ]
             summary.records = len(rows)
             return rows
         columns, records = read_records(path, content, fmt)
