@@ -562,3 +562,12 @@ def test_every_detector_is_linear_on_100_kb(unit):
     # One child process for all detectors; the kernel ends it past the sum of their budgets.
     seconds, _ = run_in_budget(each, BUDGET_S * len(KINDS))
     assert {kind: s for kind, s in seconds.items() if s >= BUDGET_S} == {}
+
+
+def test_generated_log_recall_and_precision_per_kind():
+    # bench/redaction.py's generated log (libraries' and standards' example values, module
+    # docstring there) at 1,000 lines: the bench's targets, recall >= 0.99 and precision >= 0.98
+    # for every kind. In-sample: the set's traps were used while writing the detectors.
+    for kind, (planted, found, true) in bench.score(bench.generate(1_000, 11), RedactionOptions()).items():
+        assert planted > 50, kind
+        assert true / planted >= 0.99 and true / found >= 0.98, (kind, planted, found, true)
