@@ -2,8 +2,9 @@
 cue, street addresses, account / customer / order numbers after their cue word, dates of birth.
 
 No library validates these, so each detector looks for the words people write around them. The cue
-lists are common practice in chat and support logs (no single source); they are English only. Every
-repetition in the patterns is bounded, so a search costs a constant per start position.
+lists are common practice in chat and support logs (no single source); they are English only.
+Repetitions in the patterns are bounded (or, like the whitespace after a cue, cannot share
+characters with what follows), so a search costs at most a constant per start position.
 
 * name: "my name is Ann Lee", "this is Ann Lee", "I'm Ann Lee and ..." — up to three words; after
   "this is" and "I'm" they must be capitalized (lower-case words there are what is asked about:

@@ -1,8 +1,8 @@
 """Detectors for standard numbers in free text: IBANs, national identity numbers, card and phone numbers.
 
 Each detector takes a text and returns the (start, end) spans of what it found, sorted and
-non-overlapping; `redact.redact` replaces them. Candidates are found by patterns whose every
-repetition is bounded (so a search costs a constant per start position: linear in the text), and
+non-overlapping; `redact.redact` replaces them. Candidates are found by patterns whose repetitions
+are bounded (so a search costs at most a constant per start position: linear in the text), and
 each candidate is *validated* by a well-kept library before it counts:
 
 * IBAN: two letters, two check digits and up to 30 letters or digits, optionally grouped by single
@@ -11,14 +11,15 @@ each candidate is *validated* by a well-kept library before it counts:
 * National identity numbers: the written shapes of the numbers `stdnum` validates (US SSN
   "536-90-4399", Spanish DNI/NIE, Italian codice fiscale, Finnish HETU, Swedish personnummer,
   Danish CPR, Brazilian CPF, Canadian SIN, German IdNr, French NIR, Norwegian fødselsnummer), each
-  checked by its `stdnum` module; after a cue word ("SSN", "national insurance number", "BSN",
-  "PESEL", ...) any of them may also be written as bare digits.
+  checked by its `stdnum` module; after a cue word ("SSN", "NHS number", "BSN", "PESEL", ...) the
+  number that word names may also be written as bare digits, and after a generic one ("national
+  id number") any of them.
 * Card: 13–19 digits, ungrouped or grouped by single spaces or hyphens, whose Luhn check digit
   (ISO/IEC 7812-1 annex B, `stdnum.luhn`) is right. Each run of digit groups is walked once, with
   windows of at most 19 digits, so the cost is linear in the run.
-* Phone: `phonenumbers.PhoneNumberMatcher` (libphonenumber's matcher) with leniency VALID: the
-  number must be a valid number of its region by the library's metadata; numbers written without a
-  country code are read in the configured default region.
+* Phone: `phonenumbers.PhoneNumberMatcher` (libphonenumber's matcher): a number valid by the
+  library's metadata, or of a possible length and written like a phone number (`find_phones`);
+  numbers written without a country code are read in the configured default region.
 """
 
 from __future__ import annotations
