@@ -259,5 +259,14 @@ def test_terms_from_redaction_placeholders_are_no_content():
     assert missing_terms(only) == ["autopay"]
     assert missing_terms(said) == ["email", "bounc"]
     assert missing_terms(q("c", "call [phone]", missing=["phone", "call"])) == ["call"]
+    # Two-word kinds tokenize to two stems (Snowball English: "national" -> "nation").
+    two = q(
+        "e",
+        "is my [national_id] or [birth_date] needed for a rebate",
+        missing=["nation", "id", "birth", "date", "rebat"],
+    )
+    assert missing_terms(two) == ["rebat"]
+    kept = q("f", "which date is my [birth_date] checked against", missing=["date", "birth", "check"])
+    assert missing_terms(kept) == ["date", "check"]
     briefs = content_briefs([only, q("d", "send the bill to [email]", weight=2, missing=["email"])])
     assert [(b.terms, b.questions) for b in briefs] == [([], ["d"]), (["autopay"], ["a"])]

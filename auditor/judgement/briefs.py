@@ -75,14 +75,20 @@ def missing_terms(question: QuestionResult) -> list[str]:
     """
     terms = list(dict.fromkeys(question.missing_terms))
     text = question.question or ""
-    kinds = [k for k, placeholder in PLACEHOLDERS.items() if placeholder in text]
-    if not kinds:
+    # Words of the placeholders present: "[national_id]" reads as "national" and "id".
+    words = [w for k, placeholder in PLACEHOLDERS.items() if placeholder in text for w in k.split("_")]
+    if not words:
         return terms
     bare = text
     for placeholder in PLACEHOLDERS.values():
         bare = bare.replace(placeholder, " ")
-    only_placeholder = {k for k in kinds if not re.search(rf"\b{k}", bare, re.IGNORECASE)}
-    return [t for t in terms if t not in only_placeholder]
+
+    def from_placeholder_only(term: str) -> bool:
+        # Terms are stems ("nation" of "national"): a stem that begins a placeholder word and
+        # begins no word of the question's own text came from the placeholder alone.
+        return any(w.startswith(term) for w in words) and not re.search(rf"\b{re.escape(term)}", bare, re.IGNORECASE)
+
+    return [t for t in terms if not from_placeholder_only(t)]
 
 
 def _ordered_terms(members: list[QuestionResult], shared_only: bool) -> list[str]:
