@@ -1,0 +1,81 @@
+"""Question-level support over retrieved passages (docs/judgement.md): what `calibrate`, the corpus
+probe and the benches measure, with the same functions the audit judges with.
+
+`assess_questions` retrieves the top k passages of each question (optionally with some documents
+hidden, for the hold-out protocols), scores each with `support.passage_support`, and returns one
+`Assessment` per question: its best support, the documents of its evidence, and the judged passages.
+"""
+
+from __future__ import annotations
+
+import json
+from dataclasses import dataclass, field
+
+from auditor.judgement.support import PassageSupport, passage_support
+from auditor.retrieval.index import PassageIndex
+from auditor.store import Store
+
+# Extra hits fetched when documents are hidden, so that k remain after the hidden ones are dropped.
+HIDDEN_ROOM = 20
+
+
+@dataclass(frozen=True)
+class Assessment:
+    """The judged evidence of one question."""
+
+    support: float  # best passage support
+    documents: tuple[str, ...]  # document path of each evidence passage, best-ranked first
+    passages: tuple[PassageSupport, ...] = field(default=())
+
+    def is_gap(self, threshold: float) -> bool:
+        return self.support < threshold
+
+
+def load_passages(store: Store, ids: list[int]) -> dict[int, dict]:
+    """id -> {text, path, heading_path, title} of the given passages."""
+    out: dict[int, dict] = {}
+    for i in range(0, len(ids), 500):
+        chunk = ids[i : i + 500]
+        for row in store.query(
+            "SELECT p.id, p.text, p.heading_path, d.path, d.title FROM passages p JOIN documents d ON "
+            f"d.id = p.document_id WHERE p.id IN ({','.join('?' * len(chunk))})",
+            chunk,
+        ):
+            row["heading_path"] = json.loads(row["heading_path"] or "[]")
+            out[row["id"]] = row
+    return out
+
+
+def assess_questions(
+    store: Store, index: PassageIndex, texts: list[str], k: int, *, hidden: list[set[str]] | None = None
+) -> list[Assessment]:
+    """One Assessment per question text.
+
+    `hidden` gives, per question, document paths whose passages are left out (the top k of the
+    rest are judged; IDF stays that of the whole corpus).
+    """
+    found = index.search_many(texts, k + (0 if hidden is None else HIDDEN_ROOM))
+    passages = load_passages(store, sorted({h.passage_id for r in found for h in r.hits}))
+    out = []
+    for i, (text, result) in enumerate(zip(texts, found)):
+        drop = hidden[i] if hidden is not None else set()
+        hits = [h for h in result.hits if h.passage_id in passages and passages[h.passage_id]["path"] not in drop][:k]
+        judged = tuple(
+            passage_support(
+                text,
+                passages[h.passage_id]["text"],
+                score=h.score,
+                max_score=result.max_score,
+                idf=result.idf,
+                tokenize=index.tokenizer.tokenize,
+            )
+            for h in hits
+        )
+        out.append(
+            Assessment(
+                max((p.support for p in judged), default=0.0),
+                tuple(passages[h.passage_id]["path"] for h in hits),
+                judged,
+            )
+        )
+    return out

@@ -1,0 +1,236 @@
+"""Do the verdicts transfer? The gap verdict on real documentation it was never tuned on.
+
+Three corpora from Debian documentation packages, each of a different style, with questions we wrote
+and labelled before running anything on them (bench/data/, see bench/README.md for the dates):
+
+* faq    — `debian-faq`: the Debian FAQ, 20 HTML chapters of short question-and-answer sections
+           (an end-user help set); bench/data/debian_faq_questions.csv
+* gitref — `git-doc`: git's reference pages, one HTML page per command or concept, plus guides
+           (a reference manual); bench/data/git_reference_questions.csv
+* guide  — `debian-reference-en`: the Debian Reference, 14 long HTML chapters (a guide);
+           bench/data/debian_reference_questions.csv
+
+Each corpus is ingested with the project's own pipeline (`ingest_corpus`) into a store under the
+work folder, searched with `PassageIndex`, and every question is judged with the audit's own
+functions (`auditor.judgement.verdicts.assess`). Printed per corpus: gap precision and recall against
+the labels, ROC AUC of support for "gap", and how often the answering page (expected_document) is
+among the evidence of an answerable question. On gitref also the remove-the-answering-page protocol:
+for a seeded half of the answerable questions the pages that answer them are hidden (the rest of the
+corpus stays), those questions are the gaps, the other half the answerable ones.
+
+Leave-one-corpus-out: the threshold used for a corpus is the one chosen on the other two (pooled:
+the highest recall at precision >= 0.9, else the best F1), so every figure printed as "left out" is
+out of sample. "shipped" rows use the configured default threshold as it is; "probe" rows use the
+label-free corpus probe (auditor.judgement.probe), which needs no labels at all.
+
+    python bench/transfer.py DATA [--work DIR] [--corpora faq,gitref,guide] [--seeds 5]
+
+DATA holds one folder per corpus (faq/, gitref/, guide/) with the unpacked HTML; it can also be given
+as $AUDITOR_EVAL_DATA. How to make it, with the commands, is in bench/README.md. Without it the bench
+says so and exits 0.
+"""
+
+from __future__ import annotations
+
+import argparse
+import warnings
+import csv
+import os
+import random
+import sys
+import time
+from dataclasses import dataclass
+from pathlib import Path
+
+REPO = Path(__file__).resolve().parent.parent
+sys.path.insert(0, str(REPO))
+
+from auditor.config import Config, load_config  # noqa: E402
+from auditor.ingest import ingest_corpus  # noqa: E402
+from auditor.judgement.calibrate import choose_threshold, gap_metrics, roc_auc  # noqa: E402
+from auditor.judgement.verdicts import Assessment, assess_questions  # noqa: E402
+from auditor.retrieval.index import PassageIndex  # noqa: E402
+from auditor.store import Store  # noqa: E402
+
+DATA = REPO / "bench" / "data"
+
+# The Debian FAQ is XHTML; the HTML parser reads it correctly, so the parser's advice is noise here.
+warnings.filterwarnings("ignore", message=".*looks like you're using an HTML parser.*")
+
+
+@dataclass(frozen=True)
+class Corpus:
+    name: str
+    style: str
+    questions: Path
+    include: tuple[str, ...] = ("**/*.html",)
+
+
+CORPORA = {
+    "faq": Corpus("faq", "end-user help (Debian FAQ)", DATA / "debian_faq_questions.csv"),
+    "gitref": Corpus("gitref", "reference manual (git-doc pages)", DATA / "git_reference_questions.csv"),
+    "guide": Corpus("guide", "guide (Debian Reference)", DATA / "debian_reference_questions.csv"),
+}
+REMOVE_PROTOCOL = "gitref"
+TARGET_PRECISION = 0.9
+
+
+def read_questions(path: Path) -> list[dict]:
+    with open(path, newline="", encoding="utf-8") as f:
+        rows = list(csv.DictReader(f))
+    for row in rows:
+        row["gap"] = row["answerable"].strip().lower() == "no"
+        row["expected"] = {d.strip() for d in (row.get("expected_document") or "").split(";") if d.strip()}
+    return rows
+
+
+def open_corpus(corpus: Corpus, data: Path, work: Path) -> tuple[Store, Config]:
+    """Ingest (incrementally) the corpus folder into a store under `work`; returns (store, config)."""
+    folder = work / corpus.name
+    folder.mkdir(parents=True, exist_ok=True)
+    include = ", ".join(f'"{g}"' for g in corpus.include)
+    (folder / "audit.toml").write_text(
+        f'database = "auditor.db"\n[corpus]\npaths = ["{(data / corpus.name).resolve()}"]\ninclude = [{include}]\n',
+        encoding="utf-8",
+    )
+    config = load_config(folder / "audit.toml", env={})
+    store = Store(config.database)
+    ingest_corpus(store, config, jobs=2)
+    return store, config
+
+
+def page_of(path: str) -> str:
+    """The file name of a stored document path (labels name pages by file name)."""
+    return path.rsplit("/", 1)[-1]
+
+
+def figures(assessed: list[Assessment], rows: list[dict], threshold: float) -> dict:
+    """Gap precision / recall at `threshold`, AUC, and the answering page among the evidence."""
+    supports = [a.support for a in assessed]
+    gaps = [r["gap"] for r in rows]
+    verdict_gap = [a.is_gap(threshold) for a in assessed]
+    tp = sum(1 for v, g in zip(verdict_gap, gaps) if v and g)
+    fp = sum(1 for v, g in zip(verdict_gap, gaps) if v and not g)
+    fn = sum(1 for v, g in zip(verdict_gap, gaps) if not v and g)
+    answerable = [(a, r) for a, r in zip(assessed, rows) if not r["gap"] and r["expected"]]
+    found = sum(1 for a, r in answerable if {page_of(d) for d in a.documents} & r["expected"])
+    return {
+        "threshold": threshold,
+        "precision": tp / (tp + fp) if tp + fp else 1.0,
+        "recall": tp / (tp + fn) if tp + fn else 0.0,
+        "auc": roc_auc([-s for s, g in zip(supports, gaps) if g], [-s for s, g in zip(supports, gaps) if not g]),
+        "page": found / len(answerable) if answerable else float("nan"),
+        "n": len(rows),
+        "gaps": sum(gaps),
+    }
+
+
+def pick_threshold(pooled: list[tuple[Assessment, bool]]) -> float:
+    """The threshold chosen on other corpora: highest recall at precision >= TARGET_PRECISION."""
+    supports = [a.support for a, _ in pooled]
+    chosen, _ = choose_threshold(supports, [g for _, g in pooled], target_precision=TARGET_PRECISION)
+    return float(chosen["threshold"])
+
+
+def remove_protocol(store: Store, config: Config, rows: list[dict], seeds: int) -> list[tuple[Assessment, bool]]:
+    """Seeded halves of the answerable questions get their answering pages hidden (gap = True)."""
+    index = PassageIndex.load_or_build(store, config.retrieval)
+    paths = [r["path"] for r in store.query("SELECT path FROM documents WHERE status = 'active'")]
+    by_page: dict[str, set[str]] = {}
+    for p in paths:
+        by_page.setdefault(page_of(p), set()).add(p)
+    answerable = [r for r in rows if not r["gap"] and r["expected"]]
+    out: list[tuple[Assessment, bool]] = []
+    for seed in range(seeds):
+        picked = set(random.Random(seed).sample(range(len(answerable)), len(answerable) // 2))
+        removed = {p for i in picked for d in answerable[i]["expected"] for p in by_page.get(d, ())}
+        texts, hidden, labels = [], [], []
+        for i, r in enumerate(answerable):
+            if i in picked:
+                texts.append(r["question"])
+                hidden.append(removed)
+                labels.append(True)
+            elif not {p for d in r["expected"] for p in by_page.get(d, ())} & removed:
+                texts.append(r["question"])
+                hidden.append(removed)
+                labels.append(False)
+        assessed = assess_questions(store, index, texts, config.retrieval.top_k, hidden=hidden)
+        out.extend(zip(assessed, labels))
+    return out
+
+
+def fmt(row: dict) -> str:
+    return (
+        f"{row['threshold']:9.3f} {row['precision']:9.3f} {row['recall']:6.3f} {row['auc']:6.3f} {row['page']:6.3f}"
+        f"  ({row['n']} questions, {row['gaps']} gaps)"
+    )
+
+
+def main(argv=None) -> int:
+    parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    parser.add_argument("data", nargs="?", default=os.environ.get("AUDITOR_EVAL_DATA"))
+    parser.add_argument("--work", default=None, help="where the stores go (default DATA/../work)")
+    parser.add_argument("--corpora", default=",".join(CORPORA))
+    parser.add_argument("--seeds", type=int, default=5, help="splits of the remove-the-answer protocol")
+    args = parser.parse_args(argv)
+    if not args.data or not Path(args.data).is_dir():
+        print("evaluation corpora not found (give DATA or $AUDITOR_EVAL_DATA; see bench/README.md); nothing measured")
+        return 0
+    data = Path(args.data)
+    work = Path(args.work) if args.work else data.parent / "work"
+    names = [n for n in args.corpora.split(",") if n]
+    missing = [n for n in names if not (data / n).is_dir()]
+    if missing:
+        print(f"{str(data)!r}: no folder for {', '.join(missing)}; those corpora are skipped")
+        names = [n for n in names if n not in missing]
+    shipped = Config().support.threshold
+    judged: dict[str, tuple[list[Assessment], list[dict]]] = {}
+    probes: dict[str, float] = {}
+    removal = None
+    for name in names:
+        started = time.perf_counter()
+        store, config = open_corpus(CORPORA[name], data, work)
+        rows = read_questions(CORPORA[name].questions)
+        index = PassageIndex.load_or_build(store, config.retrieval)
+        judged[name] = (assess_questions(store, index, [r["question"] for r in rows], config.retrieval.top_k), rows)
+        probes[name] = probe_threshold(store, config)
+        if name == REMOVE_PROTOCOL:
+            removal = remove_protocol(store, config, rows, args.seeds)
+        passages = store.db.execute("SELECT count(*) FROM passages").fetchone()[0]
+        print(f"{name}: {CORPORA[name].style}, {passages} passages, {time.perf_counter() - started:.1f} s")
+        store.close()
+
+    print()
+    print(f"{'corpus':8s} {'rule':10s} {'threshold':>9s} {'precision':>9s} {'recall':>6s} {'AUC':>6s} {'page':>6s}")
+    for name in names:
+        assessed, rows = judged[name]
+        others = [(a, r["gap"]) for n in names if n != name for a, r in zip(*judged[n])]
+        print(f"{name:8s} {'shipped':10s} {fmt(figures(assessed, rows, shipped))}")
+        if others:
+            print(f"{name:8s} {'left out':10s} {fmt(figures(assessed, rows, pick_threshold(others)))}")
+        print(f"{name:8s} {'probe':10s} {fmt(figures(assessed, rows, probes[name]))}")
+    if removal is not None:
+        rows = [{"gap": g, "expected": set()} for _, g in removal]
+        assessed = [a for a, _ in removal]
+        print()
+        print(f"remove-the-answering-page protocol on {REMOVE_PROTOCOL}, {args.seeds} seeded halves pooled:")
+        others = [(a, r["gap"]) for n in names if n != REMOVE_PROTOCOL for a, r in zip(*judged[n])]
+        print(f"{'':8s} {'shipped':10s} {fmt(figures(assessed, rows, shipped))}")
+        if others:
+            print(f"{'':8s} {'left out':10s} {fmt(figures(assessed, rows, pick_threshold(others)))}")
+        print(f"{'':8s} {'probe':10s} {fmt(figures(assessed, rows, probes[REMOVE_PROTOCOL]))}")
+    return 0
+
+
+def probe_threshold(store: Store, config: Config) -> float:
+    """The label-free threshold of the corpus probe (falls back to the shipped one before it exists)."""
+    try:
+        from auditor.judgement.probe import probe_corpus
+    except ImportError:
+        return Config().support.threshold
+    index = PassageIndex.load_or_build(store, config.retrieval)
+    return probe_corpus(store, index, config).threshold
+
+
+if __name__ == "__main__":
+    raise SystemExit(main())
