@@ -33,12 +33,12 @@ says so and exits 0.
 from __future__ import annotations
 
 import argparse
-import warnings
 import csv
 import os
 import random
 import sys
 import time
+import warnings
 from dataclasses import dataclass
 from pathlib import Path
 
@@ -47,7 +47,7 @@ sys.path.insert(0, str(REPO))
 
 from auditor.config import Config, load_config  # noqa: E402
 from auditor.ingest import ingest_corpus  # noqa: E402
-from auditor.judgement.calibrate import choose_threshold, gap_metrics, roc_auc  # noqa: E402
+from auditor.judgement.calibrate import choose_threshold, roc_auc  # noqa: E402
 from auditor.judgement.verdicts import Assessment, assess_questions  # noqa: E402
 from auditor.retrieval.index import PassageIndex  # noqa: E402
 from auditor.store import Store  # noqa: E402
