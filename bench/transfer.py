@@ -35,7 +35,6 @@ from __future__ import annotations
 import argparse
 import csv
 import os
-import random
 import sys
 import time
 import warnings
@@ -46,9 +45,12 @@ REPO = Path(__file__).resolve().parent.parent
 sys.path.insert(0, str(REPO))
 
 from auditor.config import Config, load_config  # noqa: E402
-from auditor.ingest import ingest_corpus  # noqa: E402
-from auditor.judgement.calibrate import choose_threshold, roc_auc  # noqa: E402
+from auditor.ingest.pipeline import ingest_corpus  # noqa: E402
+from auditor.judgement import verdicts  # noqa: E402
+from auditor.judgement.calibrate import choose_threshold, gap_metrics, roc_auc  # noqa: E402
+from auditor.judgement.probe import SCALE, ProbeOutcome, ProbeSettings, place_threshold, run_probe  # noqa: E402
 from auditor.judgement.verdicts import Assessment, assess_questions  # noqa: E402
+from auditor.retrieval import index as retrieval_index  # noqa: E402
 from auditor.retrieval.index import PassageIndex  # noqa: E402
 from auditor.store import Store  # noqa: E402
 
@@ -71,7 +73,8 @@ CORPORA = {
     "gitref": Corpus("gitref", "reference manual (git-doc pages)", DATA / "git_reference_questions.csv"),
     "guide": Corpus("guide", "guide (Debian Reference)", DATA / "debian_reference_questions.csv"),
 }
-REMOVE_PROTOCOL = "gitref"
+TOP_K: int | None = None  # evidence depth, when the command line replaces the config's
+SCALE_GRID = tuple(round(0.4 + 0.025 * i, 3) for i in range(13))  # 0.40 .. 0.70
 TARGET_PRECISION = 0.9
 
 
@@ -132,31 +135,20 @@ def pick_threshold(pooled: list[tuple[Assessment, bool]]) -> float:
     return float(chosen["threshold"])
 
 
-def remove_protocol(store: Store, config: Config, rows: list[dict], seeds: int) -> list[tuple[Assessment, bool]]:
-    """Seeded halves of the answerable questions get their answering pages hidden (gap = True)."""
-    index = PassageIndex.load_or_build(store, config.retrieval)
-    paths = [r["path"] for r in store.query("SELECT path FROM documents WHERE status = 'active'")]
+def remove_protocol(
+    store: Store, index: PassageIndex, config: Config, rows: list[dict]
+) -> list[tuple[Assessment, bool]]:
+    """Each answerable question once with its answering pages hidden (a gap) and once as it is."""
     by_page: dict[str, set[str]] = {}
-    for p in paths:
-        by_page.setdefault(page_of(p), set()).add(p)
+    for r in store.query("SELECT path FROM documents WHERE status = 'active'"):
+        by_page.setdefault(page_of(r["path"]), set()).add(r["path"])
     answerable = [r for r in rows if not r["gap"] and r["expected"]]
-    out: list[tuple[Assessment, bool]] = []
-    for seed in range(seeds):
-        picked = set(random.Random(seed).sample(range(len(answerable)), len(answerable) // 2))
-        removed = {p for i in picked for d in answerable[i]["expected"] for p in by_page.get(d, ())}
-        texts, hidden, labels = [], [], []
-        for i, r in enumerate(answerable):
-            if i in picked:
-                texts.append(r["question"])
-                hidden.append(removed)
-                labels.append(True)
-            elif not {p for d in r["expected"] for p in by_page.get(d, ())} & removed:
-                texts.append(r["question"])
-                hidden.append(removed)
-                labels.append(False)
-        assessed = assess_questions(store, index, texts, config.retrieval.top_k, hidden=hidden)
-        out.extend(zip(assessed, labels))
-    return out
+    texts = [r["question"] for r in answerable]
+    hidden = [{p for d in r["expected"] for p in by_page.get(d, ())} for r in answerable]
+    k = TOP_K or config.retrieval.top_k
+    gone = assess_questions(store, index, texts, k, hidden=hidden)
+    present = assess_questions(store, index, texts, k)
+    return [(a, True) for a in gone] + [(a, False) for a in present]
 
 
 def fmt(row: dict) -> str:
@@ -166,16 +158,90 @@ def fmt(row: dict) -> str:
     )
 
 
+@dataclass
+class Measured:
+    """What one corpus gives: its labelled questions judged, the removal protocol, the probe."""
+
+    labelled: list[tuple[Assessment, dict]]
+    removal: list[tuple[Assessment, dict]]
+    probe: ProbeOutcome
+
+
+def measure(corpus: Corpus, data: Path, work: Path) -> Measured:
+    started = time.perf_counter()
+    store, config = open_corpus(corpus, data, work)
+    try:
+        rows = read_questions(corpus.questions)
+        index = PassageIndex.load_or_build(store, config.retrieval)
+        k = TOP_K or config.retrieval.top_k
+        labelled = list(zip(assess_questions(store, index, [r["question"] for r in rows], k), rows))
+        removal = [(a, {"gap": g, "expected": set()}) for a, g in remove_protocol(store, index, config, rows)]
+        probe = run_probe(store, index, k, ProbeSettings())
+        passages = store.db.execute("SELECT count(*) FROM passages").fetchone()[0]
+    finally:
+        store.close()
+    print(
+        f"{corpus.name}: {corpus.style}, {passages} passages, {time.perf_counter() - started:.1f} s; probe: "
+        f"{probe.summary()}"
+    )
+    return Measured(labelled, removal, probe)
+
+
+def probe_rule(measured: dict[str, Measured], names: list[str]) -> float:
+    """The probe scale chosen on the corpora in `names`: the grid value with the highest mean gap
+    recall while every one of them keeps precision >= TARGET_PRECISION, else the best mean F1."""
+    scored = []
+    for value in SCALE_GRID:
+        rows = []
+        for n in names:
+            m = measured[n]
+            t = place_threshold(m.probe.visible, value)
+            rows.append(gap_metrics([a.support for a, _ in m.labelled], [r["gap"] for _, r in m.labelled], t))
+        reaching = all(r["precision"] >= TARGET_PRECISION for r in rows)
+        key = "recall" if reaching else "f1"
+        scored.append(((reaching, sum(r[key] for r in rows) / len(rows)), value))
+    return max(scored)[1]
+
+
+def table(measured: dict[str, Measured], names: list[str], which: str) -> None:
+    shipped = Config().support.threshold
+    print(f"{'corpus':8s} {'rule':14s} {'threshold':>9s} {'precision':>9s} {'recall':>6s} {'AUC':>6s} {'page':>6s}")
+    for name in names:
+        m = measured[name]
+        items = m.labelled if which == "labels" else m.removal
+        assessed, rows = [a for a, _ in items], [r for _, r in items]
+        others = [n for n in names if n != name]
+        print(f"{name:8s} {'shipped':14s} {fmt(figures(assessed, rows, shipped))}")
+        if others:
+            pooled = [(a, r["gap"]) for n in others for a, r in measured[n].labelled]
+            print(f"{name:8s} {'labels, LOCO':14s} {fmt(figures(assessed, rows, pick_threshold(pooled)))}")
+            value = probe_rule(measured, others)
+            t = place_threshold(m.probe.visible, value)
+            print(f"{name:8s} {f'probe {value:g}, LOCO':14s} {fmt(figures(assessed, rows, t))}")
+        t = place_threshold(m.probe.visible, SCALE)
+        print(f"{name:8s} {'probe default':14s} {fmt(figures(assessed, rows, t))}")
+        own = pick_threshold([(a, r["gap"]) for a, r in items])
+        print(f"{name:8s} {'own (in-sample)':14s} {fmt(figures(assessed, rows, own))}")
+
+
 def main(argv=None) -> int:
     parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     parser.add_argument("data", nargs="?", default=os.environ.get("AUDITOR_EVAL_DATA"))
     parser.add_argument("--work", default=None, help="where the stores go (default DATA/../work)")
     parser.add_argument("--corpora", default=",".join(CORPORA))
-    parser.add_argument("--seeds", type=int, default=5, help="splits of the remove-the-answer protocol")
+    parser.add_argument("--top-k", type=int, default=None, help="evidence depth (default: the config's)")
+    parser.add_argument("--per-document", type=int, default=None, help="replace verdicts.PER_DOCUMENT")
+    parser.add_argument("--heading-weight", type=int, default=None, help="replace index.HEADING_WEIGHT")
     args = parser.parse_args(argv)
     if not args.data or not Path(args.data).is_dir():
         print("evaluation corpora not found (give DATA or $AUDITOR_EVAL_DATA; see bench/README.md); nothing measured")
         return 0
+    global TOP_K
+    TOP_K = args.top_k
+    if args.per_document is not None:
+        verdicts.PER_DOCUMENT = args.per_document
+    if args.heading_weight is not None:
+        retrieval_index.HEADING_WEIGHT = args.heading_weight
     data = Path(args.data)
     work = Path(args.work) if args.work else data.parent / "work"
     names = [n for n in args.corpora.split(",") if n]
@@ -183,53 +249,16 @@ def main(argv=None) -> int:
     if missing:
         print(f"{str(data)!r}: no folder for {', '.join(missing)}; those corpora are skipped")
         names = [n for n in names if n not in missing]
-    shipped = Config().support.threshold
-    judged: dict[str, tuple[list[Assessment], list[dict]]] = {}
-    probes: dict[str, float] = {}
-    removal = None
-    for name in names:
-        started = time.perf_counter()
-        store, config = open_corpus(CORPORA[name], data, work)
-        rows = read_questions(CORPORA[name].questions)
-        index = PassageIndex.load_or_build(store, config.retrieval)
-        judged[name] = (assess_questions(store, index, [r["question"] for r in rows], config.retrieval.top_k), rows)
-        probes[name] = probe_threshold(store, config)
-        if name == REMOVE_PROTOCOL:
-            removal = remove_protocol(store, config, rows, args.seeds)
-        passages = store.db.execute("SELECT count(*) FROM passages").fetchone()[0]
-        print(f"{name}: {CORPORA[name].style}, {passages} passages, {time.perf_counter() - started:.1f} s")
-        store.close()
-
-    print()
-    print(f"{'corpus':8s} {'rule':10s} {'threshold':>9s} {'precision':>9s} {'recall':>6s} {'AUC':>6s} {'page':>6s}")
-    for name in names:
-        assessed, rows = judged[name]
-        others = [(a, r["gap"]) for n in names if n != name for a, r in zip(*judged[n])]
-        print(f"{name:8s} {'shipped':10s} {fmt(figures(assessed, rows, shipped))}")
-        if others:
-            print(f"{name:8s} {'left out':10s} {fmt(figures(assessed, rows, pick_threshold(others)))}")
-        print(f"{name:8s} {'probe':10s} {fmt(figures(assessed, rows, probes[name]))}")
-    if removal is not None:
-        rows = [{"gap": g, "expected": set()} for _, g in removal]
-        assessed = [a for a, _ in removal]
-        print()
-        print(f"remove-the-answering-page protocol on {REMOVE_PROTOCOL}, {args.seeds} seeded halves pooled:")
-        others = [(a, r["gap"]) for n in names if n != REMOVE_PROTOCOL for a, r in zip(*judged[n])]
-        print(f"{'':8s} {'shipped':10s} {fmt(figures(assessed, rows, shipped))}")
-        if others:
-            print(f"{'':8s} {'left out':10s} {fmt(figures(assessed, rows, pick_threshold(others)))}")
-        print(f"{'':8s} {'probe':10s} {fmt(figures(assessed, rows, probes[REMOVE_PROTOCOL]))}")
+    print(
+        f"heading weight {retrieval_index.HEADING_WEIGHT}, one passage per document: {verdicts.PER_DOCUMENT}, "
+        f"probe scale default {SCALE}"
+    )
+    measured = {name: measure(CORPORA[name], data, work) for name in names}
+    print("\nlabelled questions:")
+    table(measured, names, "labels")
+    print("\nremove-the-answering-page (each answerable question with its pages hidden, and as it is):")
+    table(measured, names, "removal")
     return 0
-
-
-def probe_threshold(store: Store, config: Config) -> float:
-    """The label-free threshold of the corpus probe (falls back to the shipped one before it exists)."""
-    try:
-        from auditor.judgement.probe import probe_corpus
-    except ImportError:
-        return Config().support.threshold
-    index = PassageIndex.load_or_build(store, config.retrieval)
-    return probe_corpus(store, index, config).threshold
 
 
 if __name__ == "__main__":

@@ -11,12 +11,16 @@ from __future__ import annotations
 import json
 from dataclasses import dataclass, field
 
+from auditor.judgement.constraints import MissingConstraint, constraint_terms, missing_constraint
 from auditor.judgement.support import PassageSupport, passage_support
 from auditor.retrieval.index import PassageIndex
 from auditor.store import Store
 
 # Extra hits fetched when documents are hidden, so that k remain after the hidden ones are dropped.
 HIDDEN_ROOM = 20
+# Evidence passages one document may hold: a long page (a user manual, a configuration reference)
+# otherwise fills the evidence with itself and hides the page that answers (bench/transfer.py).
+PER_DOCUMENT = 1  # 0 = no cap
 
 
 @dataclass(frozen=True)
@@ -26,6 +30,8 @@ class Assessment:
     support: float  # best passage support
     documents: tuple[str, ...]  # document path of each evidence passage, best-ranked first
     passages: tuple[PassageSupport, ...] = field(default=())
+    texts: tuple[str, ...] = field(default=())  # text of each evidence passage
+    missing: MissingConstraint = MissingConstraint()  # what the best passage lacks of the constraint
 
     def is_gap(self, threshold: float) -> bool:
         return self.support < threshold
@@ -46,6 +52,26 @@ def load_passages(store: Store, ids: list[int]) -> dict[int, dict]:
     return out
 
 
+def constraint_terms_of(text: str, idf, index: PassageIndex) -> list[str]:
+    """The constraint terms of a question with no evidence at all: every one is missing."""
+    return constraint_terms(index.tokenizer.tokenize(text), idf)
+
+
+def diversified(hits: list, documents: list[str], k: int, per_document: int) -> list:
+    """The first k hits, at most `per_document` from one document (0: no cap)."""
+    if not per_document:
+        return hits[:k]
+    taken: dict[str, int] = {}
+    out = []
+    for hit, document in zip(hits, documents):
+        if taken.get(document, 0) < per_document:
+            taken[document] = taken.get(document, 0) + 1
+            out.append(hit)
+            if len(out) == k:
+                break
+    return out
+
+
 def assess_questions(
     store: Store, index: PassageIndex, texts: list[str], k: int, *, hidden: list[set[str]] | None = None
 ) -> list[Assessment]:
@@ -54,12 +80,14 @@ def assess_questions(
     `hidden` gives, per question, document paths whose passages are left out (the top k of the
     rest are judged; IDF stays that of the whole corpus).
     """
-    found = index.search_many(texts, k + (0 if hidden is None else HIDDEN_ROOM))
+    room = (0 if hidden is None else HIDDEN_ROOM) + (3 * k if PER_DOCUMENT else 0)
+    found = index.search_many(texts, k + room)
     passages = load_passages(store, sorted({h.passage_id for r in found for h in r.hits}))
     out = []
     for i, (text, result) in enumerate(zip(texts, found)):
         drop = hidden[i] if hidden is not None else set()
-        hits = [h for h in result.hits if h.passage_id in passages and passages[h.passage_id]["path"] not in drop][:k]
+        hits = [h for h in result.hits if h.passage_id in passages and passages[h.passage_id]["path"] not in drop]
+        hits = diversified(hits, [passages[h.passage_id]["path"] for h in hits], k, PER_DOCUMENT)
         judged = tuple(
             passage_support(
                 text,
@@ -71,11 +99,18 @@ def assess_questions(
             )
             for h in hits
         )
+        texts_ = tuple(passages[h.passage_id]["text"] for h in hits)
+        missing = MissingConstraint(tuple(constraint_terms_of(text, result.idf, index)))
+        if judged:
+            top = max(range(len(judged)), key=lambda j: judged[j].support)
+            missing = missing_constraint(text, texts_[top], idf=result.idf, tokenize=index.tokenizer.tokenize)
         out.append(
             Assessment(
                 max((p.support for p in judged), default=0.0),
                 tuple(passages[h.passage_id]["path"] for h in hits),
                 judged,
+                texts_,
+                missing,
             )
         )
     return out

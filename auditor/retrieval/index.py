@@ -4,6 +4,14 @@ The index folder `<database>.bm25/` holds the arrays of `bm25.SparseIndex` and `
 scoring parameters, the tokenizer fingerprint and a fingerprint of the corpus. `load_or_build`
 memory-maps it when all three still match and rebuilds it (from the stored token ids, without
 re-tokenizing) when any changed.
+
+Headings as a field: a passage is indexed with the terms of its heading path and its document's
+title added HEADING_WEIGHT times to its own (docs/judgement.md). This is BM25F (Robertson, Zaragoza &
+Taylor, "Simple BM25 extension to multiple weighted fields", CIKM 2004) with one length
+normalisation shared by the fields: the field-weighted term frequency Σ_f w_f·tf_f is saturated
+once, so a passage deep in the "git-stash" page still matches "stash" as strongly as its title does,
+while a passage that merely mentions the word once stays behind. Heading terms already are terms of
+the store (headings are blocks of the document), so no term is added to the vocabulary.
 """
 
 from __future__ import annotations
@@ -23,6 +31,11 @@ from auditor.retrieval.vocabulary import Vocabulary
 from auditor.store import SEARCHED_STATUSES, Store, chunked, marks
 
 _ACTIVE = f"FROM passages p JOIN documents d ON d.id = p.document_id WHERE d.status IN {SEARCHED_STATUSES}"
+
+# Weight of the heading-path-and-title field against the passage body (body weight 1). Chosen on
+# the FAQ and git reference corpora of bench/transfer.py (answering page among the evidence); the
+# Debian Reference guide was kept out of that choice (figures in bench/README.md).
+HEADING_WEIGHT = 2
 
 NO_TERMS = "the question has no searchable words (it is empty or only stopwords)"
 NO_PASSAGES = "the knowledge base has no active passages; ingest documents first"
@@ -117,12 +130,14 @@ class PassageIndex:
             and info.get("params") == params.__dict__
             and info.get("meta", {}).get("corpus") == fingerprint
             and info["meta"].get("tokenizer") == tokenizer.fingerprint()
+            and info["meta"].get("heading_weight") == HEADING_WEIGHT
         ):
             try:
                 return cls(store, retrieval, SparseIndex.load(folder), tokenizer)
             except (OSError, ValueError, KeyError):
                 pass  # a damaged index is rebuilt below
-        index = build_index(store, params, meta={"corpus": fingerprint, "tokenizer": tokenizer.fingerprint()})
+        meta = {"corpus": fingerprint, "tokenizer": tokenizer.fingerprint(), "heading_weight": HEADING_WEIGHT}
+        index = build_index(store, params, meta=meta, tokenizer=tokenizer, heading_weight=HEADING_WEIGHT)
         if save:
             try:
                 index.save(folder)
@@ -176,19 +191,48 @@ class PassageIndex:
         return results
 
 
-def build_index(store: Store, params: Params, meta: dict | None = None) -> SparseIndex:
-    """Index the active passages of `store` from their stored token ids (passage id order)."""
+def build_index(
+    store: Store,
+    params: Params,
+    meta: dict | None = None,
+    *,
+    tokenizer: Tokenizer | None = None,
+    heading_weight: int = HEADING_WEIGHT,
+) -> SparseIndex:
+    """Index the active passages of `store` from their stored token ids (passage id order), each with
+    its heading path and document title as a field of weight `heading_weight` (0: body only)."""
     passage_ids: list[int] = []
+    vocabulary = Vocabulary(store)
+    fields: dict[str, np.ndarray] = {}  # heading path + title -> its term ids, repeated by the weight
+
+    def field_ids(heading_path: str | None, title: str | None) -> np.ndarray:
+        key = f"{heading_path or ''}\0{title or ''}"
+        if key not in fields:
+            if tokenizer is None or heading_weight <= 0:
+                fields[key] = np.zeros(0, dtype="<i4")
+            else:
+                try:
+                    heading = " ".join(str(h) for h in json.loads(heading_path or "[]"))
+                except ValueError:
+                    heading = ""
+                terms = tokenizer.tokenize(f"{title or ''}\n{heading}")
+                ids = [i for i in vocabulary.lookup(terms) if i is not None]
+                fields[key] = np.array(ids * heading_weight, dtype="<i4")
+        return fields[key]
 
     def token_arrays():
-        for passage_id, blob in store.db.execute(f"SELECT p.id, p.token_ids {_ACTIVE} ORDER BY p.id"):
+        for passage_id, blob, heading_path, title in store.db.execute(
+            f"SELECT p.id, p.token_ids, p.heading_path, d.title {_ACTIVE} ORDER BY p.id"
+        ):
             passage_ids.append(passage_id)
             if len(blob) % 4:
                 raise StoreError(
                     f"{str(store.path)!r}: passage {passage_id} has a damaged token_ids "
                     "array (length not a multiple of 4); run ingest again"
                 )
-            yield np.frombuffer(blob, dtype="<i4")
+            body = np.frombuffer(blob, dtype="<i4")
+            extra = field_ids(heading_path, title)
+            yield np.concatenate([body, extra]) if len(extra) else body
 
     counts = count_terms(token_arrays())
     return SparseIndex.build(
