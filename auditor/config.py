@@ -74,6 +74,11 @@ class SupportConfig:
     # Shipped defaults; `auditor calibrate` stores replacements in the database.
     threshold: float = 0.45
     weak_margin: float = 0.05
+    # The corpus probe (auditor/judgement/probe.py) places the threshold when no labelled calibration
+    # is stored; a threshold written in the file turns it off unless `probe` is set too.
+    probe: bool = True
+    probe_questions: int = 200
+    probe_scale: float = 0.55
 
 
 @dataclass(frozen=True)
@@ -268,6 +273,11 @@ def _build(raw: dict, base: Path, source: Path | None, where: str, warn) -> Conf
         raise ConfigError(f"{where}: freshness.horizon_days must not be negative")
     if not 0.0 <= config.support.threshold <= 1.0:
         raise ConfigError(f"{where}: support.threshold must lie between 0 and 1")
+    if not 20 <= config.support.probe_questions <= 5000 or not 0.0 < config.support.probe_scale < 1.0:
+        raise ConfigError(f"{where}: support.probe_questions must be 20-5000 and support.probe_scale above 0, below 1")
+    given = top.get("support", {})
+    if isinstance(given, dict) and "threshold" in given and "probe" not in given:
+        config = config.replace(support=dataclasses.replace(config.support, probe=False))  # the owner's threshold
     for limit in dataclasses.fields(GateConfig):
         value = getattr(config.gate, limit.name)
         if value is not None and (value < 0 or (limit.name != "max_new_gaps" and value > 1)):

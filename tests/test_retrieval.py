@@ -17,12 +17,15 @@ import rank_bm25
 
 from auditor.config import RetrievalConfig
 from auditor.errors import ConfigError, StoreError
+from auditor.retrieval.bm25 import Params
 from auditor.retrieval.index import (
     ALL_MISSING,
+    HEADING_WEIGHT,
     NO_PASSAGES,
     NO_TERMS,
     PassageIndex,
     corpus_fingerprint,
+    build_index,
     describe_hits,
     index_folder,
 )
@@ -85,14 +88,33 @@ def all_passages(store):
     )
 
 
+def indexed_tokens(store, tokenizer, heading_weight=HEADING_WEIGHT):
+    """Each active passage's tokens as the index counts them: the body, then the heading path and
+    the document title repeated `heading_weight` times (the BM25F field, auditor/retrieval/index.py).
+    Heading words that no passage of the store contains are left out, as the index documents."""
+    rows = store.query(
+        "SELECT p.id, p.text, p.heading_path, d.title FROM passages p JOIN documents d ON d.id = p.document_id "
+        "ORDER BY p.id"
+    )
+    known = {t for r in rows for t in tokenizer.tokenize(r["text"])}
+    rows = [r for r in rows if r["id"] in {a["id"] for a in all_passages(store)}]
+    out = []
+    for r in rows:
+        field = tokenizer.tokenize(f"{r['title'] or ''}\n{' '.join(json.loads(r['heading_path']))}")
+        out.append(tokenizer.tokenize(r["text"]) + [t for t in field if t in known] * heading_weight)
+    return rows, out
+
+
 def test_scores_equal_rank_bm25_on_a_store(tmp_path):
-    # Oracle: rank-bm25 0.2.2 BM25Okapi over the same tokens, k1/b as configured here.
+    # Oracle: rank-bm25 0.2.2 BM25Okapi over the same tokens, k1/b as configured here. BM25F with one
+    # shared length normalisation (Robertson, Zaragoza & Taylor, CIKM 2004) is BM25 over the body
+    # tokens plus each heading token counted w times, so the oracle gets exactly those tokens.
     store = make_store(tmp_path)
     config = RetrievalConfig(variant="okapi", k1=1.5, b=0.75)
     index = PassageIndex.load_or_build(store, config)
     tokenizer = Tokenizer()
-    rows = all_passages(store)
-    oracle = rank_bm25.BM25Okapi([tokenizer.tokenize(r["text"]) for r in rows], k1=1.5, b=0.75)
+    rows, tokens = indexed_tokens(store, tokenizer)
+    oracle = rank_bm25.BM25Okapi(tokens, k1=1.5, b=0.75)
     result = index.search("How do I pay my water bill by phone?", k=3)
     expected = oracle.get_scores(result.terms)
     by_id = {r["id"]: expected[i] for i, r in enumerate(rows)}
@@ -104,6 +126,34 @@ def test_scores_equal_rank_bm25_on_a_store(tmp_path):
         assert sum(hit.term_scores.values()) == pytest.approx(hit.score, rel=1e-12)
     ranked = sorted(by_id, key=lambda pid: (-by_id[pid], pid))[:3]
     assert [h.passage_id for h in result.hits] == ranked
+
+
+def test_heading_field_lifts_the_passage_under_its_heading(tmp_path):
+    # A passage deep in a section that never repeats the section's word: "reconnection" is only in
+    # the heading. Body-only BM25 cannot find it; the heading field can (and it outranks a passage
+    # that mentions the word once in passing, whose heading is about something else).
+    docs = {
+        "billing/reconnection.md": [(["Billing", "Reconnection"], "Pay the overdue balance and a fee of $45.")],
+        "field/visits.md": [(["Field visits"], "A crew visit for reconnection or a meter check takes a day.")],
+        "billing/payments.md": [(["Billing", "Payments"], "Pay online, by phone or at the cooperative office.")],
+        "quality/report.md": [(["Water quality"], "The yearly report lists the sampling results.")],
+        "quality/lead.md": [(["Water quality", "Lead"], "Lead pipes are replaced free of charge.")],
+        "care/contact.md": [(["Customer care"], "Write to the office or call during opening hours.")],
+    }
+    store = make_store(tmp_path, docs)
+    body_only = build_index(store, Params(variant="okapi", k1=1.5, b=0.75), heading_weight=0)
+    fielded = build_index(store, Params(variant="okapi", k1=1.5, b=0.75), tokenizer=Tokenizer())
+    vocabulary = Vocabulary(store)
+    term = vocabulary.lookup(["reconnect"])
+    assert term[0] is not None
+    plain = body_only.scores(term)
+    weighted = fielded.scores(term)
+    assert plain[0] == 0.0 and plain[1] > 0.0  # body only: the answering passage is not found
+    assert weighted[0] > weighted[1] > 0.0
+    # Against the oracle on the same field-weighted tokens.
+    rows, tokens = indexed_tokens(store, Tokenizer())
+    oracle = rank_bm25.BM25Okapi(tokens, k1=1.5, b=0.75).get_scores(["reconnect"])
+    assert list(weighted) == pytest.approx(list(oracle), rel=1e-9)
 
 
 def test_missing_terms_get_highest_idf_and_count_in_max_score(tmp_path):

@@ -56,8 +56,14 @@ NEAR_DUPLICATE = 0.8
 # questions anyone would ask about).
 MIN_SENTENCE_WORDS = 8
 META_KEY = "support_probe"
+# Fewer probe questions than this give no usable quantile (a corpus of a few pages).
+MIN_PROBES = 20
 
 _WORD = re.compile(r"[^\W\d_][\w'-]*[^\W_]|[^\W\d_]", re.U)
+
+
+class ProbeUnavailable(Exception):
+    """The corpus is too small to probe; the configured threshold stays."""
 
 
 @dataclass(frozen=True)
@@ -69,7 +75,7 @@ class ProbeSettings:
 
     def check(self, where: str = "config") -> None:
         """ConfigError naming `where` (a file) for settings the probe cannot use."""
-        if not 20 <= self.questions <= 5000:
+        if not MIN_PROBES <= self.questions <= 5000:
             raise ConfigError(f"{where!r}: support.probe_questions must be between 20 and 5000, not {self.questions}")
         if not 2 <= self.terms <= 10:
             raise ConfigError(f"{where!r}: support.probe_terms must be between 2 and 10, not {self.terms}")
@@ -155,9 +161,8 @@ def run_probe(store: Store, index: PassageIndex, k: int, settings: ProbeSettings
     """Probe the corpus (no cache); raises ConfigError for unusable settings."""
     settings.check()
     probes = probe_questions(store, index, settings)
-    if len(probes) < 20:
-        # Too small a corpus to measure: the caller keeps the configured threshold.
-        raise ValueError(f"the corpus gives {len(probes)} probe questions; at least 20 are needed")
+    if len(probes) < MIN_PROBES:
+        raise ProbeUnavailable(f"the corpus gives {len(probes)} probe questions; at least {MIN_PROBES} are needed")
     texts = [p[0] for p in probes]
     visible = assess_questions(store, index, texts, k)
     # Near-duplicates of the source among the visible hits are hidden with it.
