@@ -106,7 +106,11 @@ def test_audit_thresholds_name_their_source(corpora, tmp_path):
             [json.dumps({"support": 0.33, "weak_margin": 0.04})],
         )
     try:
-        assert resolve_thresholds(store, config, index) == {"support": 0.33, "weak_margin": 0.04, "source": "calibration"}
+        assert resolve_thresholds(store, config, index) == {
+            "support": 0.33,
+            "weak_margin": 0.04,
+            "source": "calibration",
+        }
     finally:
         with store.transaction():
             store.db.execute("DELETE FROM calibrations")

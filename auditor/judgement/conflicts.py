@@ -25,7 +25,7 @@ from auditor.temporal.extract import extract
 COMPARED = ("amount", "date", "duration", "phone")
 
 _PHONE_QUESTION = re.compile(r"\b(phone|telephone|hotline|number\s+(to|do\s+i|should\s+i)\s+call|call\s+line)\b", re.I)
-_PHONE = re.compile(r"(?<![\w.])(\+?\(?\d[\d ().-]{5,}\d)(?![\w.])")
+_PHONE = re.compile(r"(?<![\w.])(\+?\(?\d[\d ().-]{5,}\d)(?!\w|\.\d)")
 _MONEY = re.compile(
     r"(?P<cur>[$€£¥])\s?(?P<num>\d{1,3}(?:,\d{3})+(?:\.\d+)?|\d+(?:\.\d+)?)"
     r"|(?P<num2>\d{1,3}(?:,\d{3})+(?:\.\d+)?|\d+(?:\.\d+)?)\s?(?P<unit>%|percent\b|per\s+cent\b|dollars?\b|euros?\b)",
