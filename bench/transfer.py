@@ -48,6 +48,7 @@ from auditor.config import Config, load_config  # noqa: E402
 from auditor.ingest.pipeline import ingest_corpus  # noqa: E402
 from auditor.judgement import verdicts  # noqa: E402
 from auditor.judgement.calibrate import choose_threshold, gap_metrics, roc_auc  # noqa: E402
+from auditor.judgement.conflicts import Conflict, compared_type, find_conflict  # noqa: E402
 from auditor.judgement.probe import SCALE, ProbeOutcome, ProbeSettings, place_threshold, run_probe  # noqa: E402
 from auditor.judgement.verdicts import Assessment, assess_questions  # noqa: E402
 from auditor.retrieval import index as retrieval_index  # noqa: E402
@@ -258,7 +259,31 @@ def main(argv=None) -> int:
     table(measured, names, "labels")
     print("\nremove-the-answering-page (each answerable question with its pages hidden, and as it is):")
     table(measured, names, "removal")
+    print("\nconflicting values among the supporting passages (at the probe threshold), for checking by hand:")
+    for name in names:
+        m = measured[name]
+        threshold = place_threshold(m.probe.visible, SCALE)
+        asked = sum(1 for _, r in m.labelled if compared_type(r["question"]))
+        flagged = [(r, c) for a, r in m.labelled if (c := conflict_of(a, r["question"], threshold))]
+        print(f"{name}: {asked} questions ask for an amount, date, duration or phone number; {len(flagged)} flagged")
+        for r, c in flagged:
+            first, second = c.as_json()["values"]
+            print(
+                f"  {r['id']} {r['question']!r}: {first['value']!r} ({page_of(first['document'])}) vs "
+                f"{second['value']!r} ({page_of(second['document'])})"
+            )
     return 0
+
+
+def conflict_of(assessed: Assessment, question: str, threshold: float) -> Conflict | None:
+    """The conflict among the supporting passages of one assessed question (best window each)."""
+    supporting = [
+        (i, document, text[p.window[0] : p.window[1]])
+        for i, (p, document, text) in enumerate(zip(assessed.passages, assessed.documents, assessed.texts))
+        if p.support >= threshold
+    ]
+    supporting.sort(key=lambda item: -assessed.passages[item[0]].support)
+    return find_conflict(question, supporting)
 
 
 if __name__ == "__main__":

@@ -4,7 +4,6 @@ constraint the best passage lacks, and the weak band."""
 from __future__ import annotations
 
 from auditor.judgement.constraints import (
-    WEAK_BAND,
     MissingConstraint,
     constraint_terms,
     missing_constraint,
@@ -56,11 +55,14 @@ def test_the_asked_for_answer_type_is_part_of_the_constraint():
     assert missing_constraint(question, dated, idf=idf, tokenize=TOKENIZE).answer_type is None
 
 
+WEAK_BAND = 0.05  # the shipped weak margin (auditor/config.py)
+
+
 def test_weak_band():
     nothing = MissingConstraint()
-    assert weak_band(0.60, 0.45, nothing).needs_look is False
-    assert weak_band(0.45 + WEAK_BAND / 2, 0.45, nothing).reasons == ["near_threshold"]
-    assert weak_band(0.45 + WEAK_BAND, 0.45, nothing).needs_look is False  # the band is half-open
+    assert weak_band(0.60, 0.45, nothing, WEAK_BAND).needs_look is False
+    assert weak_band(0.45 + WEAK_BAND / 2, 0.45, nothing, WEAK_BAND).reasons == ["near_threshold"]
+    assert weak_band(0.45 + WEAK_BAND, 0.45, nothing, WEAK_BAND).needs_look is False  # the band is half-open
     missing = MissingConstraint(("graphic",))
-    assert weak_band(0.90, 0.45, missing).reasons == ["missing_constraint"]
-    assert weak_band(0.46, 0.45, missing).reasons == ["near_threshold", "missing_constraint"]
+    assert weak_band(0.90, 0.45, missing, WEAK_BAND).reasons == ["missing_constraint"]
+    assert weak_band(0.46, 0.45, missing, WEAK_BAND).reasons == ["near_threshold", "missing_constraint"]

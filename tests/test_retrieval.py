@@ -24,8 +24,8 @@ from auditor.retrieval.index import (
     NO_PASSAGES,
     NO_TERMS,
     PassageIndex,
-    corpus_fingerprint,
     build_index,
+    corpus_fingerprint,
     describe_hits,
     index_folder,
 )

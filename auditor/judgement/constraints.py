@@ -11,9 +11,9 @@ constraint of a question is what sets it apart from other questions on the same 
 * the asked-for answer type (a date, an amount, a duration, a name, a place) in that window
   (`answer_types`).
 
-`missing_constraint` says what the best passage lacks (empty when nothing); `needs_look` puts a
-covered question in the weak band: its support is within `band` above the threshold, or a
-constraint is missing. Such a question stays covered (the verdict vocabulary of results.json is
+`missing_constraint` says what the best passage lacks (empty when nothing); `weak_band` puts a
+covered question in the weak band: its support is within the weak margin above the threshold (the
+band of the `weak` flag, support.judge), or a constraint is missing. Such a question stays covered (the verdict vocabulary of results.json is
 unchanged) and is shown to its owner as "needs a look" with the reason.
 """
 
@@ -29,9 +29,6 @@ from auditor.judgement.support import WINDOW_SENTENCES, split_sentences
 # itself ("stash") and the second what is asked of it ("temporarily", "graphical"); common practice
 # in passage retrieval for short queries, no source.
 CONSTRAINT_TERMS = 2
-# Width of the weak band above the threshold, as support (chosen on the FAQ and git reference corpora
-# of bench/transfer.py, the guide kept out).
-WEAK_BAND = 0.05
 
 
 @dataclass(frozen=True)
@@ -90,9 +87,9 @@ class WeakBand:
     reasons: list[str] = field(default_factory=list)  # near_threshold, missing_constraint
 
 
-def weak_band(support: float, threshold: float, missing: MissingConstraint, band: float = WEAK_BAND) -> WeakBand:
-    """A covered question needs a look when its support is within `band` above the threshold or its
-    best passage lacks part of the constraint."""
+def weak_band(support: float, threshold: float, missing: MissingConstraint, band: float) -> WeakBand:
+    """A covered question needs a look when its support is within `band` (the weak margin) above
+    the threshold or its best passage lacks part of the constraint."""
     reasons = []
     if threshold <= support < threshold + band:
         reasons.append("near_threshold")

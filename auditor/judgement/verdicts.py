@@ -4,14 +4,20 @@ probe and the benches measure, with the same functions the audit judges with.
 `assess_questions` retrieves the top k passages of each question (optionally with some documents
 hidden, for the hold-out protocols), scores each with `support.passage_support`, and returns one
 `Assessment` per question: its best support, the documents of its evidence, and the judged passages.
+
+`fact_check` is what the audit adds to a judged question beyond its verdict: the missing constraint
+of its best passage, whether a covered question needs a look, and a conflict between the values its
+fresh supporting passages give (docs/judgement.md).
 """
 
 from __future__ import annotations
 
 import json
+from collections.abc import Callable, Mapping, Sequence
 from dataclasses import dataclass, field
 
-from auditor.judgement.constraints import MissingConstraint, constraint_terms, missing_constraint
+from auditor.judgement.conflicts import Conflict, find_conflict
+from auditor.judgement.constraints import MissingConstraint, WeakBand, constraint_terms, missing_constraint, weak_band
 from auditor.judgement.support import PassageSupport, passage_support
 from auditor.retrieval.index import PassageIndex
 from auditor.store import Store
@@ -114,3 +120,58 @@ def assess_questions(
             )
         )
     return out
+
+
+@dataclass(frozen=True)
+class EvidencePassage:
+    """One judged evidence passage, as `fact_check` needs it."""
+
+    passage_id: int
+    document: str
+    text: str
+    window: tuple[int, int]  # character span of its best sentence window
+    support: float
+    fresh: bool
+
+
+@dataclass(frozen=True)
+class FactCheck:
+    missing: MissingConstraint
+    look: WeakBand
+    conflict: Conflict | None
+
+    def as_json(self) -> dict:
+        """The keys a question gains in results.json (added keys; format 1 consumers ignore them)."""
+        return {
+            "missing_constraint": self.missing.as_json(),
+            "needs_look": self.look.needs_look,
+            "look_reasons": list(self.look.reasons),
+            "conflict": self.conflict.as_json() if self.conflict else None,
+        }
+
+
+CONFLICT_FLAG = "conflicting_values"
+
+
+def fact_check(
+    question: str,
+    evidence: Sequence[EvidencePassage],
+    *,
+    verdict: str,
+    support: float,
+    threshold: float,
+    weak_margin: float,
+    idf: Mapping[str, float],
+    tokenize: Callable[[str], list[str]],
+) -> FactCheck:
+    """Missing constraint (best passage), weak band (covered questions only) and conflict (fresh
+    supporting passages, best first) of one judged question."""
+    if evidence:
+        best = max(evidence, key=lambda e: e.support)
+        missing = missing_constraint(question, best.text, idf=idf, tokenize=tokenize)
+    else:
+        missing = MissingConstraint(tuple(constraint_terms(tokenize(question), idf)))
+    look = weak_band(support, threshold, missing, weak_margin) if verdict == "covered" else WeakBand(False)
+    fresh = sorted((e for e in evidence if e.fresh and e.support >= threshold), key=lambda e: -e.support)
+    conflict = find_conflict(question, [(e.passage_id, e.document, e.text[e.window[0] : e.window[1]]) for e in fresh])
+    return FactCheck(missing, look, conflict)
