@@ -66,3 +66,12 @@ def test_weak_band():
     missing = MissingConstraint(("graphic",))
     assert weak_band(0.90, 0.45, missing, WEAK_BAND).reasons == ["missing_constraint"]
     assert weak_band(0.46, 0.45, missing, WEAK_BAND).reasons == ["near_threshold", "missing_constraint"]
+
+
+def test_the_words_asking_for_the_answer_type_are_no_constraint():
+    # "much" may be the rarest word of a small corpus; it asks for an amount, which the answer type
+    # already checks, so it must not be reported missing.
+    question = "How much is the reconnection fee?"
+    idf = idf_of(question, {"much": 5.0, "reconnect": 3.0, "fee": 2.0})
+    text = "Reconnection after a shut-off carries a fee of $45."
+    assert not missing_constraint(question, text, idf=idf, tokenize=TOKENIZE)

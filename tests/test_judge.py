@@ -21,6 +21,7 @@ from auditor.judgement.support import (
     term_coverage,
     window_coverage,
 )
+from auditor.judgement.verdicts import CONFLICT_FLAG, EvidencePassage, fact_check
 from auditor.retrieval.tokenize import Tokenizer
 
 TOKENIZE = Tokenizer().tokenize
@@ -250,3 +251,76 @@ def test_missing_answer_type_is_flagged_on_the_strongest_passage():
 def test_threshold_is_inclusive():
     assert judge([Judged(T, True)], threshold=T, weak_margin=0.0).verdict == "covered"
     assert judge([Judged(math.nextafter(T, 0), True)], threshold=T, weak_margin=0.0).verdict == "gap"
+
+
+# --- what a judged question gains beyond its verdict (auditor/judgement/verdicts.py) ---------------
+
+
+def _evidence(pid, document, text, support, fresh=True):
+    first, last = split_sentences(text)[0][0], split_sentences(text)[-1][1]
+    return EvidencePassage(pid, document, text, (first, last), support, fresh)
+
+
+def test_fact_check_reports_missing_constraint_weak_band_and_conflict():
+    # Demo-style passages (invented Fernhollow help-centre text, like fixtures/demo).
+    question = "How much is the reconnection fee?"
+    idf = {t: 2.0 for t in TOKENIZE(question)} | {"reconnect": 3.0}
+    evidence = [
+        _evidence(1, "billing/fees.md", "The reconnection fee is $45 after a shut-off.", 0.80),
+        _evidence(2, "customer-care/moving.md", "Reconnection costs $60; the fee is on your next bill.", 0.70),
+        _evidence(3, "billing/old-fees.md", "The reconnection fee was $30.", 0.75, fresh=False),
+    ]
+    checked = fact_check(
+        question,
+        evidence,
+        verdict="covered",
+        support=0.80,
+        threshold=0.45,
+        weak_margin=0.05,
+        idf=idf,
+        tokenize=TOKENIZE,
+    )
+    shown = checked.as_json()
+    assert shown["missing_constraint"] == {"terms": [], "answer_type": None}
+    assert shown["needs_look"] is False and shown["look_reasons"] == []
+    # The stale $30 page does not count: the two fresh ones disagree.
+    assert [v["value"] for v in shown["conflict"]["values"]] == ["$45", "$60"]
+    assert CONFLICT_FLAG == "conflicting_values"
+    # Below the threshold the second page no longer supports, so nothing conflicts.
+    alone = fact_check(
+        question,
+        evidence,
+        verdict="covered",
+        support=0.80,
+        threshold=0.72,
+        weak_margin=0.05,
+        idf=idf,
+        tokenize=TOKENIZE,
+    )
+    assert alone.conflict is None
+
+
+def test_fact_check_weak_band_only_for_covered_questions():
+    question = "How do I put a package on hold with a graphical tool?"
+    idf = {t: 1.0 for t in TOKENIZE(question)} | {"hold": 2.0, "graphic": 3.0}
+    evidence = [_evidence(1, "pkg.html", "To hold a package, run apt-mark hold with its name.", 0.47)]
+    near = fact_check(
+        question,
+        evidence,
+        verdict="covered",
+        support=0.47,
+        threshold=0.45,
+        weak_margin=0.05,
+        idf=idf,
+        tokenize=TOKENIZE,
+    )
+    assert near.look.reasons == ["near_threshold", "missing_constraint"]
+    assert near.missing.terms == ("graphic",)
+    gap = fact_check(
+        question, evidence, verdict="gap", support=0.47, threshold=0.5, weak_margin=0.05, idf=idf, tokenize=TOKENIZE
+    )
+    assert gap.look.needs_look is False and gap.missing.terms == ("graphic",)  # a gap still says why
+    nothing = fact_check(
+        question, [], verdict="gap", support=0.0, threshold=0.45, weak_margin=0.05, idf=idf, tokenize=TOKENIZE
+    )
+    assert nothing.missing.terms == ("hold", "graphic")

@@ -104,6 +104,16 @@ def expected_answer_type(question: str) -> str | None:
     return None
 
 
+def without_cue(question: str) -> str:
+    """The question with the words that ask for its answer type blanked ("how much", "what date"):
+    they name the type, not the fact, so they are no constraint of their own."""
+    for _, cue in _QUESTION_CUES:
+        match = cue.search(question)
+        if match:
+            return question[: match.start()] + " " + question[match.end() :]
+    return question
+
+
 def has_answer_type(text: str, answer_type: str | None) -> bool:
     """True when `text` holds something of `answer_type` (always True when no type is asked for)."""
     if answer_type is None:

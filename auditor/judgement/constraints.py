@@ -5,8 +5,9 @@ A page on the right topic can lack what the question asks for: "How do I put a p
 a graphical tool?" meets a page on holding packages that never names a graphical tool. The
 constraint of a question is what sets it apart from other questions on the same topic:
 
-* its rarest terms — the CONSTRAINT_TERMS terms of highest IDF (ties broken by question order),
-  which must stand together in one sentence window of the passage (the window of
+* its rarest terms — the CONSTRAINT_TERMS terms of highest IDF (ties broken by question order;
+  the words that ask for the answer type, "how much", "what date", are not among them), which must
+  stand together in one sentence window of the passage (the window of
   `support.window_coverage`); a term the corpus never uses is always among them;
 * the asked-for answer type (a date, an amount, a duration, a name, a place) in that window
   (`answer_types`).
@@ -22,7 +23,7 @@ from __future__ import annotations
 from collections.abc import Callable, Mapping, Sequence
 from dataclasses import dataclass, field
 
-from auditor.judgement.answer_types import expected_answer_type, has_answer_type
+from auditor.judgement.answer_types import expected_answer_type, has_answer_type, without_cue
 from auditor.judgement.support import WINDOW_SENTENCES, split_sentences
 
 # Rarest question terms that make the constraint: two, because one rare term is usually the topic
@@ -62,7 +63,7 @@ def missing_constraint(
 ) -> MissingConstraint:
     """What of the question's constraint the passage lacks: the constraint terms missing from the
     sentence window that holds most of them, and the answer type when that window has none."""
-    wanted = constraint_terms(tokenize(question), idf)
+    wanted = constraint_terms(tokenize(without_cue(question)), idf)
     spans = split_sentences(passage_text)
     sentence_terms = [set(tokenize(passage_text[a:b])) for a, b in spans]
     best: tuple[int, int, int] = (-1, 0, 0)  # (constraint terms found, first sentence, last sentence)

@@ -16,6 +16,7 @@ import json
 from collections.abc import Callable, Mapping, Sequence
 from dataclasses import dataclass, field
 
+from auditor.judgement.answer_types import without_cue
 from auditor.judgement.conflicts import Conflict, find_conflict
 from auditor.judgement.constraints import MissingConstraint, WeakBand, constraint_terms, missing_constraint, weak_band
 from auditor.judgement.support import PassageSupport, passage_support
@@ -60,7 +61,7 @@ def load_passages(store: Store, ids: list[int]) -> dict[int, dict]:
 
 def constraint_terms_of(text: str, idf, index: PassageIndex) -> list[str]:
     """The constraint terms of a question with no evidence at all: every one is missing."""
-    return constraint_terms(index.tokenizer.tokenize(text), idf)
+    return constraint_terms(index.tokenizer.tokenize(without_cue(text)), idf)
 
 
 def diversified(hits: list, documents: list[str], k: int, per_document: int) -> list:
@@ -170,7 +171,7 @@ def fact_check(
         best = max(evidence, key=lambda e: e.support)
         missing = missing_constraint(question, best.text, idf=idf, tokenize=tokenize)
     else:
-        missing = MissingConstraint(tuple(constraint_terms(tokenize(question), idf)))
+        missing = MissingConstraint(tuple(constraint_terms(tokenize(without_cue(question)), idf)))
     look = weak_band(support, threshold, missing, weak_margin) if verdict == "covered" else WeakBand(False)
     fresh = sorted((e for e in evidence if e.fresh and e.support >= threshold), key=lambda e: -e.support)
     conflict = find_conflict(question, [(e.passage_id, e.document, e.text[e.window[0] : e.window[1]]) for e in fresh])
