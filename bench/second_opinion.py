@@ -61,9 +61,7 @@ def main(argv=None) -> int:
             texts = sorted({t for a, _ in items for t in a.texts})
             vectors = dict(zip(texts, model.encode(texts, batch_size=32, normalize_embeddings=True)))
             asked = model.encode(questions, batch_size=32, normalize_embeddings=True)
-            semantic = [
-                max((float(q @ vectors[t]) for t in a.texts), default=0.0) for q, (a, _) in zip(asked, items)
-            ]
+            semantic = [max((float(q @ vectors[t]) for t in a.texts), default=0.0) for q, (a, _) in zip(asked, items)]
             cost = (time.process_time() - started) / len(items)
             lexical = [a.support for a, _ in items]
             gaps = [r["gap"] for _, r in items]

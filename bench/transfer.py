@@ -149,7 +149,8 @@ def remove_protocol(
     k = TOP_K or config.retrieval.top_k
     gone = assess_questions(store, index, texts, k, hidden=hidden)
     present = assess_questions(store, index, texts, k)
-    return [(a, True) for a in gone] + [(a, False) for a in present]
+    row = lambda text, gap: {"question": text, "gap": gap, "expected": set()}  # noqa: E731
+    return [(a, row(t, True)) for a, t in zip(gone, texts)] + [(a, row(t, False)) for a, t in zip(present, texts)]
 
 
 def fmt(row: dict) -> str:
@@ -176,7 +177,7 @@ def measure(corpus: Corpus, data: Path, work: Path) -> Measured:
         index = PassageIndex.load_or_build(store, config.retrieval)
         k = TOP_K or config.retrieval.top_k
         labelled = list(zip(assess_questions(store, index, [r["question"] for r in rows], k), rows))
-        removal = [(a, {"gap": g, "expected": set()}) for a, g in remove_protocol(store, index, config, rows)]
+        removal = remove_protocol(store, index, config, rows)
         probe = run_probe(store, index, k, ProbeSettings())
         passages = store.db.execute("SELECT count(*) FROM passages").fetchone()[0]
     finally:
