@@ -77,6 +77,7 @@ CORPORA = {
 TOP_K: int | None = None  # evidence depth, when the command line replaces the config's
 SCALE_GRID = tuple(round(0.4 + 0.025 * i, 3) for i in range(13))  # 0.40 .. 0.70
 TARGET_PRECISION = 0.9
+VALUE_QUESTIONS = DATA / "value_questions.csv"
 
 
 def read_questions(path: Path) -> list[dict]:
@@ -167,6 +168,7 @@ class Measured:
     labelled: list[tuple[Assessment, dict]]
     removal: list[tuple[Assessment, dict]]
     probe: ProbeOutcome
+    values: list[tuple[Assessment, dict]]  # bench/data/value_questions.csv: questions asking for a value
 
 
 def measure(corpus: Corpus, data: Path, work: Path) -> Measured:
@@ -179,6 +181,9 @@ def measure(corpus: Corpus, data: Path, work: Path) -> Measured:
         labelled = list(zip(assess_questions(store, index, [r["question"] for r in rows], k), rows))
         removal = remove_protocol(store, index, config, rows)
         probe = run_probe(store, index, k, ProbeSettings())
+        with open(VALUE_QUESTIONS, newline="", encoding="utf-8") as f:
+            asking = [r for r in csv.DictReader(f) if r["corpus"] == corpus.name]
+        values = list(zip(assess_questions(store, index, [r["question"] for r in asking], k), asking))
         passages = store.db.execute("SELECT count(*) FROM passages").fetchone()[0]
     finally:
         store.close()
@@ -186,7 +191,7 @@ def measure(corpus: Corpus, data: Path, work: Path) -> Measured:
         f"{corpus.name}: {corpus.style}, {passages} passages, {time.perf_counter() - started:.1f} s; probe: "
         f"{probe.summary()}"
     )
-    return Measured(labelled, removal, probe)
+    return Measured(labelled, removal, probe, values)
 
 
 def probe_rule(measured: dict[str, Measured], names: list[str]) -> float:
@@ -266,7 +271,11 @@ def main(argv=None) -> int:
         threshold = place_threshold(m.probe.visible, SCALE)
         asked = sum(1 for _, r in m.labelled if compared_type(r["question"]))
         flagged = [(r, c) for a, r in m.labelled if (c := conflict_of(a, r["question"], threshold))]
-        print(f"{name}: {asked} questions ask for an amount, date, duration or phone number; {len(flagged)} flagged")
+        flagged += [(r, c) for a, r in m.values if (c := conflict_of(a, r["question"], threshold))]
+        asked += len(m.values)
+        print(
+            f"{name}: {asked} questions ask for a value ({len(m.values)} of them from value_questions.csv); {len(flagged)} flagged"
+        )
         for r, c in flagged:
             first, second = c.as_json()["values"]
             print(
