@@ -18,7 +18,9 @@ from pathlib import Path
 from auditor.clock import utc_now
 from auditor.config import Config
 from auditor.errors import InputError
-from auditor.judgement.audit import current_thresholds, question_support
+from auditor.judgement.measures import roc_auc
+from auditor.judgement.thresholds import resolve_thresholds
+from auditor.judgement.verdicts import assess_questions
 from auditor.retrieval.index import PassageIndex
 from auditor.store import Store, dumps
 
@@ -82,27 +84,6 @@ def load_labels(path: str | Path) -> list[Label]:
 
 
 # --- measures -------------------------------------------------------------------------------------
-
-
-def roc_auc(positives: list[float], negatives: list[float]) -> float:
-    """P(score of a random positive > score of a random negative), ties counting one half.
-
-    This is the Mann–Whitney U statistic over n₁·n₀ (Hanley & McNeil, Radiology 1982).
-    """
-    if not positives or not negatives:
-        raise ValueError("ROC AUC needs at least one positive and one negative")
-    ordered = sorted([(s, 1) for s in positives] + [(s, 0) for s in negatives])
-    # Average ranks over ties, then U = R₁ − n₁(n₁+1)/2.
-    rank_sum, i = 0.0, 0
-    while i < len(ordered):
-        j = i
-        while j + 1 < len(ordered) and ordered[j + 1][0] == ordered[i][0]:
-            j += 1
-        average = (i + j) / 2 + 1
-        rank_sum += average * sum(1 for k in range(i, j + 1) if ordered[k][1] == 1)
-        i = j + 1
-    n1, n0 = len(positives), len(negatives)
-    return (rank_sum - n1 * (n1 + 1) / 2) / (n1 * n0)
 
 
 def gap_metrics(supports: list[float], unanswerable: list[bool], threshold: float) -> dict:
@@ -170,11 +151,11 @@ def calibrate(
     questions that then get the gap verdict is measured (how often a removed answer would be caught).
     """
     labels = load_labels(labels_path)
-    previous = current_thresholds(store, config).to_json()
     index = PassageIndex.load_or_build(store, config.retrieval)
+    previous = resolve_thresholds(store, config, index)
     k = config.retrieval.top_k
     texts = [l.question for l in labels]
-    supports = question_support(store, index, texts, k)
+    supports = [a.support for a in assess_questions(store, index, texts, k)]
     unanswerable = [not l.answerable for l in labels]
     auc = roc_auc(
         [-s for s, u in zip(supports, unanswerable) if u], [-s for s, u in zip(supports, unanswerable) if not u]
@@ -188,9 +169,10 @@ def calibrate(
         known = {r["path"] for r in store.query("SELECT path FROM documents WHERE status = 'active'")}
         picked = [l for l in labels if l.answerable and l.expected_documents]
         if picked:
-            hidden_supports = question_support(
-                store, index, [l.question for l in picked], k, hidden=[set(l.expected_documents) for l in picked]
-            )
+            hidden = [set(l.expected_documents) for l in picked]
+            hidden_supports = [
+                a.support for a in assess_questions(store, index, [l.question for l in picked], k, hidden=hidden)
+            ]
             fired = sum(1 for s in hidden_supports if s < threshold)
             held = {
                 "questions": len(picked),

@@ -35,7 +35,7 @@ import re
 from dataclasses import asdict, dataclass, field
 
 from auditor.errors import ConfigError
-from auditor.judgement.calibrate import roc_auc
+from auditor.judgement.measures import roc_auc
 from auditor.judgement.support import split_sentences
 from auditor.judgement.verdicts import assess_questions, load_passages
 from auditor.retrieval.index import PassageIndex, corpus_fingerprint

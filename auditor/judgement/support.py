@@ -259,7 +259,20 @@ def _reason_key(reason: str) -> int:
     return _STALE_ORDER.index(reason) if reason in _STALE_ORDER else len(_STALE_ORDER)
 
 
-_FLAG_ORDER = ("stale_competitor", "weak", "file_dated", "undated", "no_answer_type")
+_FLAG_ORDER = (
+    "stale_competitor",
+    "weak",
+    "needs_look",
+    "conflicting_values",
+    "file_dated",
+    "undated",
+    "no_answer_type",
+)
+
+
+def ordered_flags(flags: list[str]) -> list[str]:
+    """Flags once each, in the order the report lists them."""
+    return _ordered(flags)
 
 
 def _ordered(flags: list[str]) -> list[str]:

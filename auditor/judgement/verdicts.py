@@ -20,7 +20,7 @@ from auditor.judgement.answer_types import without_cue
 from auditor.judgement.conflicts import Conflict, find_conflict
 from auditor.judgement.constraints import MissingConstraint, WeakBand, constraint_terms, missing_constraint, weak_band
 from auditor.judgement.support import PassageSupport, passage_support
-from auditor.retrieval.index import PassageIndex
+from auditor.retrieval.index import PassageIndex, SearchResult
 from auditor.store import Store
 
 # Extra hits fetched when documents are hidden, so that k remain after the hidden ones are dropped.
@@ -77,6 +77,15 @@ def diversified(hits: list, documents: list[str], k: int, per_document: int) -> 
             if len(out) == k:
                 break
     return out
+
+
+def diversify(results: list[SearchResult], path_of: Mapping[int, str], k: int, per_document: int = -1) -> None:
+    """Cut each result's hits to k, at most `per_document` (default PER_DOCUMENT) from one document;
+    the audit searches 4k so that k remain (hits whose passage is unknown are dropped)."""
+    cap = PER_DOCUMENT if per_document < 0 else per_document
+    for result in results:
+        hits = [h for h in result.hits if h.passage_id in path_of]
+        result.hits = diversified(hits, [path_of[h.passage_id] for h in hits], k, cap)
 
 
 def assess_questions(
