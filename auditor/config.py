@@ -75,8 +75,9 @@ class SupportConfig:
     threshold: float = 0.45
     weak_margin: float = 0.05
     # The corpus probe (auditor/judgement/probe.py) places the threshold when no labelled calibration
-    # is stored; a threshold written in the file turns it off unless `probe` is set too.
-    probe: bool = True
+    # is stored. None: on while `threshold` is the shipped one; a threshold written in the file or
+    # given in code is the owner's choice and turns it off unless `probe` is set too.
+    probe: bool | None = None
     probe_questions: int = 200
     probe_scale: float = 0.55
 

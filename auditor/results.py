@@ -151,6 +151,11 @@ class QuestionResult(Record):
     missing_terms: list[str]
     terms: list[str] = field(default_factory=list)
     evidence: list[Evidence]
+    # What the fact-level checks found (auditor/judgement/verdicts.fact_check, docs/judgement.md).
+    missing_constraint: dict | None = None
+    needs_look: bool = False
+    look_reasons: list[str] = field(default_factory=list)
+    conflict: dict | None = None
 
     @classmethod
     def from_json(cls, data: Mapping[str, Any]) -> QuestionResult:
@@ -212,11 +217,13 @@ class Corpus(Record):
 
 @dataclass(kw_only=True)
 class Thresholds(Record):
-    """The support thresholds a run used, and where they came from (calibration | config | default)."""
+    """The support thresholds a run used, and where they came from (calibration | probe | config |
+    default; docs/judgement.md), with the corpus probe's summary when it was measured or skipped."""
 
     support: float
     weak_margin: float
     source: str
+    probe: dict | None = None
 
     @classmethod
     def from_json(cls, data: Mapping[str, Any] | None) -> Thresholds | None:

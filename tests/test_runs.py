@@ -55,6 +55,10 @@ def question(qid: str, verdict: str, reasons=None, weight=None) -> dict:
         "flags": [],
         "action": {"gap": "write", "stale": "refresh"}.get(verdict),
         "horizon_days": 365,
+        "missing_constraint": None,
+        "needs_look": False,
+        "look_reasons": [],
+        "conflict": None,
     }
 
 
@@ -73,7 +77,7 @@ def run_json(as_of: str, questions: list[dict]) -> dict:
             "title": "Fernhollow help centre",
             "tokenizer": {"language": "english", "stopwords": "english"},
             "corpus": {"documents": 25, "passages": 310, "failed": 1, "freshness": 0.8, "mean_age_days": 40.0},
-            "thresholds": {"support": 0.45, "weak_margin": 0.05, "source": "default"},
+            "thresholds": {"support": 0.45, "weak_margin": 0.05, "source": "default", "probe": None},
             "config_fingerprint": "c0ffee",
             "corpus_fingerprint": f"corpus-{as_of}",
         },

@@ -24,7 +24,9 @@ from auditor.history.runs import history, save_run
 from auditor.ingest.owners import owner_from_config
 from auditor.judgement import freshness
 from auditor.judgement.briefs import content_briefs
-from auditor.judgement.support import Judged, judge, passage_support
+from auditor.judgement.support import Judged, judge, ordered_flags, passage_support
+from auditor.judgement.thresholds import resolve_thresholds
+from auditor.judgement.verdicts import CONFLICT_FLAG, EvidencePassage, diversify, fact_check
 from auditor.models import Freshness, Question, TemporalExpression
 from auditor.results import (
     Corpus,
@@ -79,13 +81,15 @@ def run_audit(
     fresh_config = config.freshness
     if horizon_days is not None:
         fresh_config = dataclasses.replace(fresh_config, horizon_days=horizon_days)
-    thresholds = current_thresholds(store, config)
     index = PassageIndex.load_or_build(store, config.retrieval)
+    thresholds = Thresholds(**resolve_thresholds(store, config, index))
     tokenizer = index.tokenizer  # the index's own, so that question and passage terms match
-    found = index.search_many([q.question for q in questions], config.retrieval.top_k) if questions else []
-
+    k = config.retrieval.top_k
+    # 4k searched, k kept with one passage per document (judgement/verdicts.py, docs/judgement.md).
+    found = index.search_many([q.question for q in questions], 4 * k) if questions else []
+    passages = _load_passages(store, sorted({h.passage_id for result in found for h in result.hits}))
+    diversify(found, {pid: p["path"] for pid, p in passages.items()}, k)
     hit_ids = sorted({h.passage_id for result in found for h in result.hits})
-    passages = _load_passages(store, hit_ids)
     statements = _load_statements(store, hit_ids)
     freshness_cache: dict[tuple[int, int], Freshness] = {}
 
@@ -143,7 +147,7 @@ def _judge_question(
     tokenizer: Tokenizer,
 ) -> QuestionResult:
     idf = dict(result.idf)
-    evidence, judged = [], []
+    evidence, judged, facts = [], [], []
     for rank, hit in enumerate(result.hits, start=1):
         passage = passages.get(hit.passage_id)
         if passage is None:  # the index is newer than the store read; cannot happen in one process
@@ -162,6 +166,11 @@ def _judge_question(
         )
         judged.append(
             Judged(scored.support, fresh.fresh, tuple(fresh.reasons), fresh.as_of_source, scored.answer_type_found)
+        )
+        facts.append(
+            EvidencePassage(
+                hit.passage_id, passage["path"], passage["text"], scored.window, scored.support, fresh.fresh
+            )
         )
         evidence.append(
             Evidence(
@@ -190,6 +199,16 @@ def _judge_question(
     verdict = judge(judged, threshold=thresholds.support, weak_margin=thresholds.weak_margin)
     for item, supporting in zip(evidence, verdict.supporting):
         item.supporting = supporting
+    check = fact_check(
+        question.question,
+        facts,
+        verdict=verdict.verdict,
+        support=verdict.support,
+        threshold=thresholds.support,
+        weak_margin=thresholds.weak_margin,
+        idf=idf,
+        tokenize=tokenizer.tokenize,
+    )
     return QuestionResult(
         id=question.id,
         question=question.question,
@@ -198,13 +217,14 @@ def _judge_question(
         weight=float(question.weight),
         verdict=verdict.verdict,
         reasons=verdict.reasons,
-        flags=verdict.flags,
+        flags=ordered_flags(verdict.flags + ([CONFLICT_FLAG] if check.conflict else [])),
         action=verdict.action,
         support=round(verdict.support, 4),
         horizon_days=freshness.horizon_for(fresh_config, topic=question.topic, override=question.horizon_days),
         missing_terms=list(result.missing_terms),
         terms=list(result.terms),
         evidence=evidence,
+        **check.as_json(),
     )
 
 

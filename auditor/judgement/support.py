@@ -262,7 +262,6 @@ def _reason_key(reason: str) -> int:
 _FLAG_ORDER = (
     "stale_competitor",
     "weak",
-    "needs_look",
     "conflicting_values",
     "file_dated",
     "undated",

@@ -18,6 +18,11 @@ from auditor.retrieval.index import PassageIndex
 from auditor.store import Store
 
 
+def probe_on(support: SupportConfig) -> bool:
+    """Whether the probe places the threshold: as configured, else while the threshold is the shipped one."""
+    return support.probe if support.probe is not None else support.threshold == SupportConfig.threshold
+
+
 def probe_settings(config: Config) -> ProbeSettings:
     return ProbeSettings(questions=config.support.probe_questions, scale=config.support.probe_scale)
 
@@ -37,7 +42,7 @@ def resolve_thresholds(store: Store, config: Config, index: PassageIndex) -> dic
         "weak_margin": config.support.weak_margin,
         "source": "default" if config.support == SupportConfig() else "config",
     }
-    if not config.support.probe:
+    if not probe_on(config.support):
         return configured
     try:
         outcome = cached_probe(store, index, config.retrieval.top_k, probe_settings(config))

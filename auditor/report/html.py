@@ -75,6 +75,7 @@ REASON_TEXT = {
 FLAG_TEXT = {
     "stale_competitor": "a stale passage supports it too; the assistant may pick that one",
     "weak": "support is just above the threshold",
+    "conflicting_values": "two fresh supporting passages give different values; reconcile them",
     "file_dated": "freshness rests on a file time only",
     "undated": "the supporting passages carry no date at all; check them by hand",
     "no_answer_type": (
@@ -189,14 +190,39 @@ def verdict_sentence(q: QuestionResult, thresholds: Thresholds | None) -> str:
         s = "No passage supports this question"
         if support is not None and threshold is not None:
             s += f" (best support {_num(support)}, threshold {_num(threshold)})"
-        return s + "; the assistant would fall back to an outside source or answer without grounding."
+        s += "; the assistant would fall back to an outside source or answer without grounding."
+        return s + _fact_sentence(q)
     if verdict == "stale":
         reasons = [REASON_TEXT.get(r, str(r)) for r in q.reasons]
         s = "Supported only by stale passages"
         return s + (": " + "; ".join(reasons) + "." if reasons else ".")
     if verdict == "covered":
-        return "Supported by at least one fresh passage."
+        s = "Supported by at least one fresh passage."
+        if q.needs_look:
+            s += " Needs a look: " + "; ".join(LOOK_TEXT.get(r, r) for r in q.look_reasons) + "."
+        return s + _fact_sentence(q)
     return f"Verdict: {verdict}."
+
+
+LOOK_TEXT = {
+    "near_threshold": "support is within the weak margin of the threshold",
+    "missing_constraint": "the best passage is on the topic but not on the asked-for fact",
+}
+
+
+def _fact_sentence(q: QuestionResult) -> str:
+    """The fact-level findings in words: what the best passage lacks, and conflicting values."""
+    out = ""
+    missing = q.missing_constraint or {}
+    lacking = [f"“{t}”" for t in missing.get("terms") or []]
+    if missing.get("answer_type"):
+        lacking.append(f"a {missing['answer_type']}")
+    if lacking:
+        out += " The best passage lacks " + " and ".join(lacking) + " from the question."
+    if q.conflict:
+        values = [f"{v['value']} ({v['document']})" for v in q.conflict.get("values", [])]
+        out += " Conflicting values: " + " vs ".join(values) + "; the owner must reconcile them."
+    return out
 
 
 def best_line(q: QuestionResult, best: Evidence | None) -> str | None:
