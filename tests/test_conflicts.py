@@ -4,9 +4,23 @@ different values of the asked-for type. The passages are demo-style Fernhollow h
 
 from __future__ import annotations
 
+import json
+from datetime import date
+
 import pytest
 
+from auditor.config import Config, SupportConfig
+from auditor.judgement.audit import run_audit
 from auditor.judgement.conflicts import compared_type, find_conflict, values_in
+from auditor.models import Question
+from auditor.report import write_report
+from auditor.report.html import verdict_sentence
+from auditor.store import Store
+
+try:
+    from tests.test_audit import add_document
+except ImportError:  # tests/ run as top-level modules (pytest's default rootdir-less import mode)
+    from test_audit import add_document
 
 
 @pytest.mark.parametrize(
@@ -84,3 +98,25 @@ def test_durations_in_other_units_that_agree_do_not_conflict():
 def test_unknown_type_is_refused():
     with pytest.raises(ValueError, match="not compared"):
         values_in("text", "colour")
+
+
+def test_audit_flags_conflicting_fees_in_results_and_report(tmp_path):
+    # Two fresh demo-style pages (invented Fernhollow text) that give the reconnection fee twice.
+    with Store(tmp_path / "kb.db") as store:
+        add_document(store, "billing/fees.md", [(["Fees", "Reconnection"], "The reconnection fee is $45.")])
+        add_document(
+            store, "customer-care/moving.md", [(["Moving", "Reconnection"], "The reconnection fee is $60 now.")]
+        )
+        add_document(store, "care/contact.md", [(["Contact"], "Customer Care answers questions about service.")])
+        config = Config(support=SupportConfig(threshold=0.3))
+        run = run_audit(store, config, [Question("q1", "How much is the reconnection fee?")], as_of=date(2026, 12, 1))
+    q = run.questions[0]
+    assert q.verdict == "covered" and "conflicting_values" in q.flags
+    assert q.conflict is not None and q.conflict["type"] == "amount"
+    assert sorted(v["value"] for v in q.conflict["values"]) == ["$45", "$60"]
+    sentence = verdict_sentence(q, run.info.thresholds)
+    assert "$45" in sentence and "$60" in sentence and "reconcile" in sentence
+    index = write_report(run, tmp_path / "report")
+    written = json.loads((index.parent / "results.json").read_text(encoding="utf-8"))
+    assert written["questions"][0]["conflict"] == q.conflict
+    assert run.info.thresholds is not None and run.info.thresholds.source == "config"
