@@ -128,6 +128,10 @@ def question(
         "missing_terms": list(missing),
         "terms": terms,
         "evidence": list(evidence_items),
+        "missing_constraint": None,
+        "needs_look": False,
+        "look_reasons": [],
+        "conflict": None,
     }
 
 
@@ -870,7 +874,7 @@ def sample_json() -> dict:
             "title": "Fernhollow Water Cooperative help centre",
             "tokenizer": {"language": "english", "stopwords": "english"},
             "corpus": {"documents": 12, "passages": 35, "failed": 2, "freshness": 0.4571, "mean_age_days": 412.6},
-            "thresholds": {"support": 0.35, "weak_margin": 0.08, "source": "default"},
+            "thresholds": {"support": 0.35, "weak_margin": 0.08, "source": "default", "probe": None},
             "config_fingerprint": "c0ffee1234567890abcdef",
             "corpus_fingerprint": "feedface0987654321",
         },

@@ -26,9 +26,12 @@ COMPARED = ("amount", "date", "duration", "phone")
 
 _PHONE_QUESTION = re.compile(r"\b(phone|telephone|hotline|number\s+(to|do\s+i|should\s+i)\s+call|call\s+line)\b", re.I)
 _PHONE = re.compile(r"(?<![\w.])(\+?\(?\d[\d ().-]{5,}\d)(?!\w|\.\d)")
+# A figure starts only where a run of digits starts (the lookbehinds), so a long run of digits is
+# scanned once, not once per position (tests/test_regex_budget.py).
 _MONEY = re.compile(
     r"(?P<cur>[$€£¥])\s?(?P<num>\d{1,3}(?:,\d{3})+(?:\.\d+)?|\d+(?:\.\d+)?)"
-    r"|(?P<num2>\d{1,3}(?:,\d{3})+(?:\.\d+)?|\d+(?:\.\d+)?)\s?(?P<unit>%|percent\b|per\s+cent\b|dollars?\b|euros?\b)",
+    r"|(?<![\d.,])(?P<num2>\d{1,3}(?:,\d{3})+(?:\.\d+)?|\d+(?:\.\d+)?)\s?"
+    r"(?P<unit>%|percent\b|per\s+cent\b|dollars?\b|euros?\b)",
     re.I,
 )
 _NUMBER_WORDS = {
