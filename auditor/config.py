@@ -11,6 +11,7 @@ import dataclasses
 import os
 import sys
 import tomllib
+from collections.abc import Mapping
 from dataclasses import dataclass, field
 from datetime import date
 from pathlib import Path
@@ -150,10 +151,10 @@ ENVIRONMENT = {
 }
 
 
-def load_config(path: str | Path | None = None, env: dict[str, str] | None = None, warn=None) -> Config:
+def load_config(path: str | Path | None = None, env: Mapping[str, str] | None = None, warn=None) -> Config:
     """Read `path` (TOML) over the defaults, then the AUDITOR_* environment."""
     warn = warn or (lambda message: print(f"warning: {message}", file=sys.stderr))
-    env = os.environ if env is None else env
+    environment: Mapping[str, str] = os.environ if env is None else env
     raw: dict[str, Any] = {}
     base = Path.cwd()
     source: Path | None = None
@@ -170,11 +171,11 @@ def load_config(path: str | Path | None = None, env: dict[str, str] | None = Non
         base = source.resolve().parent
     where = repr(str(source)) if source else "environment"
     for name, (section, key) in ENVIRONMENT.items():
-        if env.get(name):
+        if environment.get(name):
             target = raw.setdefault(section, {}) if section else raw
             if not isinstance(target, dict):
                 raise ConfigError(f"{where}: [{section}] must be a table")
-            value = env[name]
+            value = environment[name]
             if key in ("database", "out"):
                 value = str(Path(value).resolve())  # relative to where the command runs, not the file
             target[key] = value
@@ -221,6 +222,8 @@ def _build(raw: dict, base: Path, source: Path | None, where: str, warn) -> Conf
     rules = []
     for i, item in enumerate(reader.array(fresh_raw.pop("rules", []), "freshness.rules")):
         item = reader.table(item, f"freshness.rules[{i}]", {"path", "topic", "horizon_days"})
+        if "horizon_days" not in item:
+            raise ConfigError(f"{where}: freshness.rules[{i}].horizon_days is required")
         rule = reader.fill(HorizonRule, item, f"freshness.rules[{i}]")
         if (rule.path is None) == (rule.topic is None):
             raise ConfigError(f"{where}: freshness.rules[{i}] needs exactly one of 'path' or 'topic'")

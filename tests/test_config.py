@@ -79,6 +79,7 @@ def test_unknown_key_warns_and_is_ignored(tmp_path):
         ("[support]\nthreshold = 1.5\n", "support.threshold"),
         ('[corpus]\nhemisphere = "east"\n', "corpus.hemisphere"),
         ("[[freshness.rules]]\nhorizon_days = 3\n", "freshness.rules[0]"),
+        ('[[freshness.rules]]\npath = "rates/**"\n', "freshness.rules[0].horizon_days"),
         ("questions = 3\n", "questions"),
         ("[gate]\nmax_gap_share = 1.5\n", "gate.max_gap_share"),
         ('[retrieval]\nvariant = "bm99"\n', "lucene"),  # the message lists the valid variants

@@ -166,7 +166,7 @@ def _scan(soup: BeautifulSoup, path: str) -> _Scan:
     """One iterative pass (bs4's find() walks the whole tree each call; pages can be large), which
     also refuses trees nested deeper than MAX_DEPTH."""
     scan = _Scan()
-    stack = [(soup, 0)]
+    stack: list[tuple[Tag, int]] = [(soup, 0)]
     while stack:
         node, depth = stack.pop()
         if depth > MAX_DEPTH:
@@ -177,15 +177,15 @@ def _scan(soup: BeautifulSoup, path: str) -> _Scan:
         if name == "meta":
             scan.metas.append(node)
         elif name == "script":
-            if "ld+json" in (node.get("type") or "").lower():
+            if "ld+json" in (_attr(node, "type") or "").lower():
                 scan.scripts.append(node)
         elif name == "time":
             scan.times.append(node)
         elif name == "article":
             scan.articles.append(node)
-        if scan.main is None and (name == "main" or node.get("role") == "main") and name != "[document]":
+        if scan.main is None and (name == "main" or _attr(node, "role") == "main") and name != "[document]":
             scan.main = node
-        prop = node.get("itemprop")
+        prop = _attr(node, "itemprop")
         if prop in ("dateModified", "datePublished", "expires"):
             scan.itemprops.setdefault(prop, node)
         children = [c for c in node.contents if isinstance(c, Tag)]
@@ -197,8 +197,8 @@ def _title(soup: BeautifulSoup, scan: _Scan) -> str | None:
     if soup.title and soup.title.string and soup.title.string.strip():
         return _WS.sub(" ", soup.title.string).strip()
     for meta in scan.metas:
-        if meta.get("property") == "og:title" and (meta.get("content") or "").strip():
-            return meta["content"].strip()
+        if _attr(meta, "property") == "og:title" and (_attr(meta, "content") or "").strip():
+            return (_attr(meta, "content") or "").strip()
     return None
 
 
@@ -209,19 +209,26 @@ def _dropped(tag: Tag, inside_root: bool) -> bool:
     if tag.name in _DROP or (tag.name in _CHROME and not inside_root):
         return True
     # Documentation generators append permalink anchors ("¶") to headings and definitions.
-    if tag.name == "a" and (tag.get("href") or "").startswith("#") and tag.get_text().strip() in _PERMALINK:
+    if tag.name == "a" and (_attr(tag, "href") or "").startswith("#") and tag.get_text().strip() in _PERMALINK:
         return True
     if (
-        tag.get("hidden") is not None
-        or tag.get("aria-hidden") == "true"
-        or tag.get("role") in ("navigation", "banner", "contentinfo")
+        _attr(tag, "hidden") is not None
+        or _attr(tag, "aria-hidden") == "true"
+        or _attr(tag, "role") in ("navigation", "banner", "contentinfo")
     ):
         return True
-    style = tag.get("style")
+    style = _attr(tag, "style")
     if style and "display:none" in style.replace(" ", "").lower():
         return True
-    marker = f"{tag.get('id') or ''} {tag.get('class') or ''}".strip()
+    marker = f"{_attr(tag, 'id') or ''} {_attr(tag, 'class') or ''}".strip()
     return bool(marker and _BANNER.search(marker))
+
+
+def _attr(tag: Tag, name: str) -> str | None:
+    """An attribute's value as text: with multi_valued_attributes=None (parse_html) bs4 gives every
+    attribute as one string; a list, should one come, is joined the way bs4 would split it."""
+    value = tag.get(name)
+    return value if value is None or isinstance(value, str) else " ".join(value)
 
 
 class _OnClose:
@@ -251,6 +258,10 @@ def _blocks(root: Tag, keep_chrome: bool) -> list[Block]:
         if lines:
             blocks.append(Block("\n".join(lines), tuple(h for _, h in headings)))
             lines.clear()
+
+    def end_preformatted() -> None:
+        end_block()
+        preformatted[0] -= 1
 
     preformatted = [0]
     # Stack items: a node to visit, or an _OnClose to run when its element closes (not a bare
@@ -286,7 +297,7 @@ def _blocks(root: Tag, keep_chrome: bool) -> list[Block]:
             end_block()
             if name == "pre":
                 preformatted[0] += 1
-                stack.append(_OnClose(lambda: (end_block(), preformatted.__setitem__(0, preformatted[0] - 1))))
+                stack.append(_OnClose(end_preformatted))
             else:
                 stack.append(_OnClose(end_block))
         elif name in _LINES:
@@ -296,7 +307,7 @@ def _blocks(root: Tag, keep_chrome: bool) -> list[Block]:
                 current.append("- ")
         elif name in _CELLS:
             stack.append(_OnClose(lambda: current.append(" | ")))
-        elif name == "img" and item.get("alt"):
+        elif name == "img" and _attr(item, "alt"):
             current.append(f" {item['alt']} ")
         stack.extend(children)
     end_block()
@@ -321,14 +332,14 @@ def _dates(scan: _Scan) -> list[MetaDate]:
         tag = scan.itemprops.get(key)
         if tag is not None:
             used.add(id(tag))
-            value = tag.get("content") or tag.get("datetime") or tag.get_text()
+            value = _attr(tag, "content") or _attr(tag, "datetime") or tag.get_text()
             parse = parse_time_element if tag.name == "time" else parse_w3c_datetime
             if d := parse(value.strip()):
                 found.append(MetaDate(d, kind, f"microdata:{key}"))
     metas = scan.metas
     for attr, name, kind, source in _META:
         for meta in metas:
-            if (meta.get(attr) or "").strip().lower() == name and (d := parse_w3c_datetime(meta.get("content"))):
+            if (_attr(meta, attr) or "").strip().lower() == name and (d := parse_w3c_datetime(_attr(meta, "content"))):
                 found.append(MetaDate(d, kind, source))
                 break
     for time in scan.times:
@@ -338,8 +349,8 @@ def _dates(scan: _Scan) -> list[MetaDate]:
             filter(
                 None,
                 [
-                    time.get("itemprop"),
-                    time.get("class"),
+                    _attr(time, "itemprop"),
+                    _attr(time, "class"),
                     "updated" if time.has_attr("pubdate") else None,
                     _preceding_text(time),
                 ],
@@ -347,12 +358,14 @@ def _dates(scan: _Scan) -> list[MetaDate]:
         )
         for kind, pattern in _TIME_HINTS:
             if pattern.search(hint):
-                d = parse_time_element(time.get("datetime") or time.get_text())
+                d = parse_time_element(_attr(time, "datetime") or time.get_text())
                 if d:
                     found.append(MetaDate(d, kind, "time:datetime"))
                 break
     for meta in metas:
-        if (meta.get("http-equiv") or "").lower() == "last-modified" and (d := parse_http_date(meta.get("content"))):
+        if (_attr(meta, "http-equiv") or "").lower() == "last-modified" and (
+            d := parse_http_date(_attr(meta, "content"))
+        ):
             found.append(MetaDate(d, "modified", "http:last-modified"))
             break
     return found

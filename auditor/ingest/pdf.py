@@ -13,6 +13,9 @@ from __future__ import annotations
 import io
 import logging
 import re
+from typing import Any
+
+from pypdf.errors import DependencyError as DependencyMissing  # AES without the cryptography package
 
 from auditor.ingest.dates import parse_pdf_date
 from auditor.ingest.failures import IngestFailure
@@ -83,14 +86,6 @@ def parse_pdf(data: bytes, path: str) -> ParsedDocument:
     else:
         blocks = _blocks(pages, _font_headings(runs), prefix=False)
     return ParsedDocument(blocks=blocks, title=title or next((t for t, _, _ in outline), None), dates=dates)
-
-
-try:  # pypdf >= 3.x raises this when AES needs the cryptography package
-    from pypdf.errors import DependencyError as DependencyMissing
-except ImportError:  # pragma: no cover
-
-    class DependencyMissing(Exception):
-        pass
 
 
 def _one_line(exc: Exception) -> str:
@@ -174,7 +169,7 @@ def _font_headings(runs: list[list[tuple[str, float, bool]]]) -> dict[int, list[
             bold_chars += len(text) if bold else 0
     if not chars:
         return {}
-    body = max(chars, key=chars.get)
+    body = max(chars, key=lambda size: chars[size])
     bold_headings = bold_chars < 0.3 * total
 
     def is_heading(text: str, size: float, bold: bool) -> bool:
@@ -275,7 +270,7 @@ def _dates(reader) -> list[MetaDate]:
         xmp = reader.xmp_metadata
     except Exception:
         xmp = None
-    info = {}
+    info: Any = {}
     try:
         info = reader.metadata or {}
     except Exception:

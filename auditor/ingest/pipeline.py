@@ -31,6 +31,7 @@ import time
 from dataclasses import dataclass, field
 from datetime import UTC, datetime
 from pathlib import Path
+from typing import Any
 
 from auditor.clock import utc_now
 from auditor.errors import InputError
@@ -129,7 +130,9 @@ def _ingest(store, config, given: list, jobs, progress) -> IngestSummary:
     }
     now = utc_now()
     seen: set[str] = set()
-    tasks, unchanged, by_path = [], [], {}
+    tasks: list[dict[str, Any]] = []
+    unchanged: list[tuple[SourceFile, dict]] = []
+    by_path: dict[str, SourceFile] = {}
 
     def record_failure(doc_path: str, root: Path, kind: str, message: str, sha: str | None = None) -> None:
         summary.fail(doc_path, kind, message)
@@ -227,12 +230,12 @@ def _ingest(store, config, given: list, jobs, progress) -> IngestSummary:
             continue
         # Remember the failed content only when the failure is the file's own (a refusal or a
         # timeout): an unexpected exception or a crash may be ours, so the file is tried again.
-        sha = None
+        failed_sha: str | None = None
         if status == "timeout" or status == "ok":
             try:
-                sha = sha256(read_file(f.file, f.doc_path))
+                failed_sha = sha256(read_file(f.file, f.doc_path))
             except IngestFailure:
-                sha = None
+                failed_sha = None
         if status == "ok":
             kind, message = value["kind"], value["message"]
         elif status == "timeout":
@@ -244,7 +247,7 @@ def _ingest(store, config, given: list, jobs, progress) -> IngestSummary:
             kind, message = "parse_error", f"{str(f.file)!r}: the parser crashed (worker exit code {value})"
         else:
             kind, message = "parse_error", f"{str(f.file)!r}: parser failed ({value})"
-        record_failure(f.doc_path, f.root, kind, message, sha)
+        record_failure(f.doc_path, f.root, kind, message, failed_sha)
     if bar:
         bar.done()
 

@@ -13,6 +13,7 @@ import multiprocessing as mp
 import time
 from collections.abc import Callable, Iterator
 from multiprocessing.connection import wait
+from typing import Any
 
 from auditor.errors import AuditorError
 
@@ -44,8 +45,8 @@ class _Worker:
         self.process.start()
         child.close()
         self.ready = False
-        self.task = None
-        self.deadline = None
+        self.task: Any = None
+        self.deadline: float | None = None  # set together with task
 
     def stop(self, kill: bool = False) -> None:
         if kill:
@@ -64,7 +65,7 @@ class _Worker:
 
 def run_tasks(
     tasks: list, target: Callable, settings, *, jobs: int, timeout: float, init: Callable | None = None
-) -> Iterator[tuple[object, str, object]]:
+) -> Iterator[tuple[Any, str, Any]]:
     """Run target(task, settings) for every task in `jobs` worker processes; each worker first
     runs init(settings) (imports, warm-up) before its first task's clock starts.
 
@@ -89,7 +90,7 @@ def run_tasks(
     try:
         while pending or any(w.task is not None for w in workers):
             assign()
-            deadlines = [w.deadline for w in workers if w.task is not None]
+            deadlines = [w.deadline for w in workers if w.task is not None and w.deadline is not None]
             wait_for = max(0.0, min(deadlines) - time.monotonic()) if deadlines else None
             ready = wait([w.conn for w in workers], timeout=wait_for)
             finished = []
@@ -116,7 +117,7 @@ def run_tasks(
                         continue
                     finished.append((w.task, status, value))
                     w.task, w.deadline = None, None
-                elif w.task is not None and time.monotonic() >= w.deadline:
+                elif w.task is not None and w.deadline is not None and time.monotonic() >= w.deadline:
                     finished.append((w.task, "timeout", timeout))
                     w.stop(kill=True)
                     workers[i] = _Worker(ctx, target, settings, init)

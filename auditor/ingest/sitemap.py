@@ -8,6 +8,7 @@ folder's index.html; a URL without a suffix also matches "<name>.html".
 
 from __future__ import annotations
 
+from datetime import date
 from pathlib import Path
 from urllib.parse import unquote, urlsplit
 
@@ -20,7 +21,7 @@ from auditor.models import MetaDate
 _NS = "{http://www.sitemaps.org/schemas/sitemap/0.9}"
 
 
-def read_sitemap(file: Path) -> dict[str, object]:
+def read_sitemap(file: Path) -> dict[str, date]:
     """URL -> lastmod date for every <url> of a sitemap file that has a valid <lastmod>."""
     try:
         parser = etree.XMLParser(resolve_entities=False, no_network=True, huge_tree=False)
@@ -29,7 +30,7 @@ def read_sitemap(file: Path) -> dict[str, object]:
         raise InputError(f"{str(file)!r}: cannot read sitemap ({exc})") from None
     except etree.XMLSyntaxError as exc:
         raise InputError(f"{str(file)!r}: sitemap is not well-formed XML ({exc})") from None
-    out = {}
+    out: dict[str, date] = {}
     for url in tree.iter(f"{_NS}url", "url"):
         loc = url.findtext(f"{_NS}loc") or url.findtext("loc")
         lastmod = url.findtext(f"{_NS}lastmod") or url.findtext("lastmod")

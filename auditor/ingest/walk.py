@@ -122,7 +122,7 @@ def _doc_paths_base(roots: list[Path]) -> Path:
 def resolve_roots(paths) -> list[tuple[Path, Path | None]]:
     """Corpus paths -> (root folder, single file or None). A missing path is an InputError: an
     ingest must not mark a whole corpus removed because a mount point is absent."""
-    roots = []
+    roots: list[tuple[Path, Path | None]] = []
     for given in paths:
         p = Path(given).expanduser().absolute()
         if p.is_dir():
@@ -214,8 +214,7 @@ def discover(paths, corpus) -> tuple[list[SourceFile], list[SkippedFile]]:
                 else:
                     files.append((via_link, path))
         # Files reached without links first, so a file reached both ways keeps its own path.
-        files = [p for _, p in sorted(files, key=lambda item: (item[0], str(item[1])))]
-        for file in files:
+        for file in [p for _, p in sorted(files, key=lambda item: (item[0], str(item[1])))]:
             if single is None and not _wanted(file, root, corpus):
                 continue
             real = os.path.realpath(file)
