@@ -18,9 +18,9 @@ questions: its peak RSS is the index's resident cost. The same is then done thro
 (token ids in a SQLite store, PassageIndex.load_or_build cold, then warm), each step in its own
 process, as it is at 50k.
 
-    python bench/bm25.py                 # 50k and 500k
-    python bench/bm25.py --million       # also the 1M memory check
-    python bench/bm25.py --sizes 50000   # one size
+    python -m bench.bm25                 # 50k and 500k
+    python -m bench.bm25 --million       # also the 1M memory check
+    python -m bench.bm25 --sizes 50000   # one size
 
 The machine is shared: figures are noisy, run it a couple of times and read the ratios.
 """
@@ -40,7 +40,6 @@ from pathlib import Path
 import numpy as np
 
 REPO = Path(__file__).resolve().parent.parent
-sys.path.insert(0, str(REPO))
 
 VOCAB = 100_000
 K = 10
@@ -268,7 +267,9 @@ def print_store(n: int, r: dict) -> None:
 
 
 def child(*args: str) -> dict:
-    run = subprocess.run([sys.executable, __file__, "--worker", *args], capture_output=True, text=True)
+    run = subprocess.run(
+        [sys.executable, "-m", "bench.bm25", "--worker", *args], capture_output=True, text=True, cwd=REPO
+    )
     if run.returncode != 0:
         raise SystemExit(f"worker {args} failed:\n{run.stderr}")
     return json.loads(run.stdout.strip().splitlines()[-1])

@@ -14,7 +14,7 @@ date spans missed; the spans each found that the other did not (most frequent fi
 Python memory of each (tracemalloc, on a subset, outside the timed runs). The machine is shared:
 run it two or three times and quote the range.
 
-    python bench/dates.py [--paragraphs 2000] [--seed 7]
+    python -m bench.dates [--paragraphs 2000] [--seed 7]
 """
 
 from __future__ import annotations
@@ -22,15 +22,11 @@ from __future__ import annotations
 import argparse
 import collections
 import random
-import sys
 import time
 import tracemalloc
 from datetime import date, datetime, timedelta
-from pathlib import Path
 
-sys.path.insert(0, str(Path(__file__).resolve().parent.parent))
-
-from auditor.temporal import extract as temporal  # noqa: E402
+from auditor.temporal import extract as temporal
 from auditor.temporal import patterns as temporal_patterns
 
 MONTHS = [

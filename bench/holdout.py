@@ -16,7 +16,7 @@ corpus) and only then measured on the validation claims, so that row is out of s
 weights were chosen with the validation claims in view (bench/shared_defaults.py), so the
 "combined" row is in-sample. The dense baseline runs for real in bench/dense_baseline.py.
 
-    python bench/holdout.py [--seeds 10] [--top-k 5] [--tune]
+    python -m bench.holdout [--seeds 10] [--top-k 5] [--tune]
 """
 
 from __future__ import annotations
@@ -27,22 +27,20 @@ import io
 import random
 import re
 import statistics
-import sys
 import tempfile
 import time
 import zipfile
 from pathlib import Path
 
-REPO = Path(__file__).resolve().parent.parent
-sys.path.insert(0, str(REPO))
+from auditor.config import RetrievalConfig
+from auditor.judgement import support as judge
+from auditor.judgement.calibrate import roc_auc
+from auditor.retrieval.index import PassageIndex
+from auditor.retrieval.tokenize import Tokenizer
+from auditor.retrieval.vocabulary import Vocabulary
+from auditor.store import Store
 
-from auditor.config import RetrievalConfig  # noqa: E402
-from auditor.judgement import support as judge  # noqa: E402
-from auditor.judgement.calibrate import roc_auc  # noqa: E402
-from auditor.retrieval.index import PassageIndex  # noqa: E402
-from auditor.retrieval.tokenize import Tokenizer  # noqa: E402
-from auditor.retrieval.vocabulary import Vocabulary  # noqa: E402
-from auditor.store import Store  # noqa: E402
+REPO = Path(__file__).resolve().parent.parent
 
 SCIFACT = REPO.parent / "shared" / "data" / "scifact" / "scifact.zip"
 _ITEM = re.compile(r"(['\"])(.*?)\1(?=\s|\]|,)", re.S)

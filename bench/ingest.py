@@ -1,7 +1,7 @@
 """Ingest bench: real third-party documentation that Debian ships, ingested with --jobs 1 and
 --jobs 2, side by side with the bare reference parsers (bs4+lxml get_text, pypdf extract_text).
 
-    python bench/ingest.py [--cache DIR] [--limit N] [--sets html,pdf]
+    python -m bench.ingest [--cache DIR] [--limit N] [--sets html,pdf]
 
 The packages are fetched with `apt-get download` into a cache outside the repository (default
 ~/.cache/corpus-auditor-bench, or $AUDITOR_BENCH_CACHE) and unpacked with `dpkg-deb -x`:
@@ -21,13 +21,10 @@ import collections
 import os
 import resource
 import subprocess
-import sys
 import tempfile
 import threading
 import time
 from pathlib import Path
-
-sys.path.insert(0, str(Path(__file__).resolve().parent.parent))
 
 PACKAGES = {
     "html": ("python3.11-doc", "usr/share/doc/python3.11/html", ("**/*.html",)),

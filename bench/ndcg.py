@@ -8,26 +8,23 @@ the 300 claims of claims_validation.csv are the questions, their cited documents
 The corpus goes through the project's own path: Tokenizer + Vocabulary into a SQLite store, then
 PassageIndex.load_or_build and search_many. bm25s is run on the same tokens for comparison.
 
-    python bench/ndcg.py
+    python -m bench.ndcg
 """
 
 from __future__ import annotations
 
 import math
-import sys
 import tempfile
 import time
 from pathlib import Path
 
+from auditor.config import RetrievalConfig
+from auditor.retrieval.index import PassageIndex
+from auditor.retrieval.tokenize import Tokenizer
+from auditor.store import Store
+from bench.claims_data import FOLDER, fill_store, load_scifact
+
 REPO = Path(__file__).resolve().parent.parent
-sys.path[:0] = [str(REPO), str(REPO / "bench")]
-
-from claims_data import FOLDER, fill_store, load_scifact  # noqa: E402
-
-from auditor.config import RetrievalConfig  # noqa: E402
-from auditor.retrieval.index import PassageIndex  # noqa: E402
-from auditor.retrieval.tokenize import Tokenizer  # noqa: E402
-from auditor.store import Store  # noqa: E402
 
 
 def ndcg_at_k(ranked: list, relevance: dict, k: int = 10) -> float:

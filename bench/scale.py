@@ -1,7 +1,7 @@
 """Scale: a full scan of 1,000,000 generated passages and 10,000 questions on one machine.
 
-    python bench/scale.py                      # 100,000 text files x 10 passages, 10,000 questions
-    python bench/scale.py --passages 20000     # a quick look at the same pipeline
+    python -m bench.scale                      # 100,000 text files x 10 passages, 10,000 questions
+    python -m bench.scale --passages 20000     # a quick look at the same pipeline
 
 Stages, each timed and run the way `auditor scan` runs them: ingest (discovery, parse, segment,
 tokenize, dated statements, SQLite writes), BM25 index build, audit (retrieval, judging, the run
@@ -36,7 +36,6 @@ from pathlib import Path
 import numpy as np
 
 REPO = Path(__file__).resolve().parent.parent
-sys.path.insert(0, str(REPO))
 
 CACHE = Path(os.environ.get("XDG_CACHE_HOME", Path.home() / ".cache")) / "corpus-auditor" / "scale"
 AS_OF = date(2026, 12, 1)

@@ -16,7 +16,7 @@ The gap verdict fires when no retrieved passage reaches the threshold, i.e. when
 passage support is below it. Printed per corpus: ROC AUC, precision / recall / F1 at the shipped
 threshold, the corpus' own best-F1 threshold, and a sweep of F1 across thresholds.
 
-    python bench/shared_defaults.py [--seeds 10] [--no-python]
+    python -m bench.shared_defaults [--seeds 10] [--no-python]
 
 The Python manual is fetched once with `apt-get download python3.11-doc` into
 ~/.cache/corpus-auditor/ (outside the repository) and ingested there with our own ingest.
@@ -29,14 +29,11 @@ import csv
 import shutil
 import statistics
 import subprocess
-import sys
 import tempfile
 import time
 from pathlib import Path
 
 REPO = Path(__file__).resolve().parent.parent
-sys.path.insert(0, str(REPO))
-sys.path.insert(0, str(REPO / "bench"))
 
 CACHE = Path.home() / ".cache" / "corpus-auditor"
 PYTHON_DOC = CACHE / "extract" / "usr" / "share" / "doc" / "python3.11" / "html"
@@ -118,23 +115,22 @@ def demo_corpus(tmp: Path) -> dict:
 
 
 def scifact_corpus(tmp: Path, seeds: int, k: int) -> dict | None:
-    import holdout as bench
-
     from auditor.retrieval.index import PassageIndex
     from auditor.retrieval.tokenize import Tokenizer
+    from bench import holdout
 
-    if not bench.SCIFACT.is_file():
+    if not holdout.SCIFACT.is_file():
         print("scifact: dataset absent; skipped")
         return None
-    docs, claims = bench.load_scifact()
-    store = bench.build_store(tmp / "scifact.db", docs, Tokenizer())
+    docs, claims = holdout.load_scifact()
+    store = holdout.build_store(tmp / "scifact.db", docs, Tokenizer())
     supports, gaps = [], []
     for seed in range(seeds):
-        hidden, labels = bench.holdout_split(claims, seed)
-        bench.set_hidden(store, hidden)
-        index = PassageIndex.load_or_build(store, bench.RetrievalConfig(), save=False)
+        hidden, labels = holdout.holdout_split(claims, seed)
+        holdout.set_hidden(store, hidden)
+        index = PassageIndex.load_or_build(store, holdout.RetrievalConfig(), save=False)
         ids = sorted(labels)
-        judged = bench.claim_signals(store, index, [claims[c][0] for c in ids], k)
+        judged = holdout.claim_signals(store, index, [claims[c][0] for c in ids], k)
         supports += [max([p.support for p in items] or [0.0]) for items in judged]
         gaps += [labels[c] == 1 for c in ids]
     store.close()

@@ -4,7 +4,6 @@ import json
 from datetime import date
 
 import pytest
-from ingest_helpers import make_pdf
 
 from auditor.config import Config, FreshnessConfig, HorizonRule, SupportConfig, load_config
 from auditor.history import runs
@@ -19,6 +18,7 @@ from auditor.retrieval.tokenize import Tokenizer
 from auditor.retrieval.vocabulary import Vocabulary
 from auditor.store import Store, dumps
 from auditor.temporal import extract as temporal
+from tests.ingest_helpers import make_pdf
 
 AS_OF = date(2026, 12, 1)
 

@@ -26,11 +26,7 @@ from auditor.judgement.calibrate import (
     roc_auc,
 )
 from auditor.models import Question
-
-try:
-    from tests.test_audit import small_kb
-except ImportError:  # tests/ run as top-level modules (pytest's default rootdir-less import mode)
-    from test_audit import small_kb
+from tests.test_audit import small_kb
 
 AS_OF = date(2026, 12, 1)
 

@@ -9,12 +9,12 @@ import json
 
 import pytest
 from click.testing import CliRunner
-from conftest import DEMO
 
 from auditor.cli import cli
 from auditor.config import load_config
 from auditor.scan import scan
 from auditor.store import Store
+from tests.conftest import DEMO
 
 # results.json format 1, docs/results-json.md: the keys every consumer may rely on.
 RUN_KEYS = {"id", "as_of", "horizon_days", "started", "corpus"}

@@ -10,13 +10,13 @@ import json
 import math
 
 import pytest
-from cpu_budget import run_in_budget
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 from auditor.errors import AuditorError, InputError
 from auditor.questions.querylog import import_query_log
 from auditor.questions.sets import load_questions
+from tests.cpu_budget import run_in_budget
 
 FUZZ = settings(
     max_examples=150,

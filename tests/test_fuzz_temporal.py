@@ -12,13 +12,13 @@ import re
 from datetime import date
 
 import pytest
-from cpu_budget import cpu_seconds, run_in_budget
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 from auditor.errors import AuditorError
 from auditor.models import GRANULARITIES, ROLES
 from auditor.temporal.extract import extract
+from tests.cpu_budget import cpu_seconds, run_in_budget
 
 # Tokens that steer the generator into the extractor's patterns: month and weekday names in several
 # cases, numbers that look like days, years, ISO and numeric dates, quarters, fiscal years, seasons,

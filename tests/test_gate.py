@@ -7,11 +7,11 @@ gap and stale shares are the unweighted counts over the question count.
 from __future__ import annotations
 
 import pytest
-from test_runs import DECEMBER, NOVEMBER, make_run, question
 
 from auditor.config import GateConfig, load_config
 from auditor.history.diff import diff_runs
 from auditor.history.gate import evaluate_gate, gate_figures
+from tests.test_runs import DECEMBER, NOVEMBER, make_run, question
 
 
 def test_figures_of_a_worked_run():

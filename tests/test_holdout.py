@@ -5,7 +5,6 @@ Skipped when the dataset is absent. One seeded split of the README's protocol th
 retrieval and judge (bench/holdout.py prints the figures over ten splits).
 """
 
-import importlib.util
 import statistics
 from pathlib import Path
 
@@ -13,6 +12,7 @@ import pytest
 
 from auditor.judgement import support as judge
 from auditor.retrieval.tokenize import Tokenizer
+from bench import holdout
 
 REPO = Path(__file__).resolve().parent.parent
 SCIFACT = REPO.parent / "shared" / "data" / "scifact" / "scifact.zip"
@@ -21,16 +21,9 @@ pytestmark = pytest.mark.skipif(
 )
 
 
-def _bench():
-    spec = importlib.util.spec_from_file_location("holdout", REPO / "bench" / "holdout.py")
-    module = importlib.util.module_from_spec(spec)
-    spec.loader.exec_module(module)
-    return module
-
-
 @pytest.fixture(scope="module")
 def scifact(tmp_path_factory):
-    bench = _bench()
+    bench = holdout
     docs, claims = bench.load_scifact(SCIFACT)
     store = bench.build_store(Path(tmp_path_factory.mktemp("scifact")) / "scifact.db", docs, Tokenizer())
     yield bench, store, docs, claims

@@ -11,11 +11,11 @@ import subprocess
 import sys
 from pathlib import Path
 
-import hostile_corpus
 import numpy as np
 import pytest
 
 from auditor.store import Store
+from tests import hostile_corpus
 
 REPO = Path(__file__).resolve().parent.parent
 

@@ -11,10 +11,10 @@ import sys
 from pathlib import Path
 
 import pytest
-from ingest_helpers import config_for, encrypt_pdf, html_page, make_pdf, write_tree
 
 from auditor.ingest.pipeline import ingest_corpus
 from auditor.store import Store
+from tests.ingest_helpers import config_for, encrypt_pdf, html_page, make_pdf, write_tree
 
 REPO = Path(__file__).resolve().parent.parent
 GOOD = {"good.md", "good.txt", "good.html", "good.pdf"}

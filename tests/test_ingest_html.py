@@ -8,11 +8,11 @@ import json
 from datetime import date
 
 import pytest
-from ingest_helpers import html_page
 
 from auditor.ingest.failures import IngestFailure
 from auditor.ingest.html import parse_html
 from auditor.ingest.parse import choose_doc_date
+from tests.ingest_helpers import html_page
 
 PAGE = html_page(
     """

@@ -6,13 +6,13 @@ from __future__ import annotations
 import json
 
 import numpy as np
-from ingest_helpers import config_for, write_tree
 
 from auditor.config import RetrievalConfig
 from auditor.ingest.pipeline import ingest_corpus
 from auditor.retrieval.tokenize import Tokenizer
 from auditor.retrieval.vocabulary import Vocabulary
 from auditor.store import Store
+from tests.ingest_helpers import config_for, write_tree
 
 GUIDE = "# Leaks\n\nReport running leaks on the hotline any time.\n"
 

@@ -6,11 +6,11 @@ from __future__ import annotations
 from datetime import date
 
 import pytest
-from ingest_helpers import encrypt_pdf, image_only_pdf, make_pdf, xmp_packet
 
 from auditor.ingest.failures import IngestFailure
 from auditor.ingest.pdf import parse_pdf
 from auditor.ingest.walk import detect_kind
+from tests.ingest_helpers import encrypt_pdf, image_only_pdf, make_pdf, xmp_packet
 
 RATES = "Residential rates apply to homes. The base charge is 12 dollars a month."
 COMMERCIAL = "Commercial rates apply to businesses and are billed monthly."

@@ -8,13 +8,13 @@ from datetime import date
 
 import numpy as np
 import pytest
-from ingest_helpers import config_for, html_page, make_pdf, write_tree, xmp_packet
 
 from auditor.ingest.pipeline import ingest_corpus
 from auditor.retrieval.tokenize import Tokenizer
 from auditor.retrieval.vocabulary import Vocabulary
 from auditor.store import Store
 from auditor.temporal import extract as temporal
+from tests.ingest_helpers import config_for, html_page, make_pdf, write_tree, xmp_packet
 
 FEES_MD = (
     "---\ntitle: Late fees\nowner: Billing\nupdated: 2024-03-01\nexpires: 2025-01-01\ntags: [fees, billing]\n---\n"

@@ -4,11 +4,10 @@ from __future__ import annotations
 
 import time
 
-from ingest_helpers import config_for, make_pdf, misbehave, replicate_pages, words, write_tree
-
 from auditor.ingest.pipeline import ingest_corpus
 from auditor.ingest.pool import run_tasks
 from auditor.store import Store
+from tests.ingest_helpers import config_for, make_pdf, misbehave, replicate_pages, words, write_tree
 
 
 def test_hang_crash_and_exception_cost_one_task_each():

@@ -2,12 +2,11 @@
 
 from __future__ import annotations
 
-from ingest_helpers import config_for, html_page, write_tree
-
 from auditor.config import SitemapConfig
 from auditor.ingest.pipeline import ingest_corpus
 from auditor.ingest.sitemap import read_sitemap
 from auditor.store import Store
+from tests.ingest_helpers import config_for, html_page, write_tree
 
 # The protocol's example file, with the URLs of our export (sitemaps.org/protocol.html:
 # <lastmod> in W3C Datetime, date-only or full).

@@ -6,12 +6,12 @@ import os
 import sys
 
 import pytest
-from ingest_helpers import config_for, make_pdf, write_tree
 
 from auditor.config import CorpusConfig
 from auditor.ingest.pipeline import ingest_corpus
 from auditor.ingest.walk import discover, glob_match
 from auditor.store import Store
+from tests.ingest_helpers import config_for, make_pdf, write_tree
 
 
 @pytest.mark.parametrize(

@@ -17,11 +17,11 @@ import sys
 import time
 
 import pytest
-from test_crash_safety import december_edits, environment, make_site, run_scan, wrapped_scan
 
 from auditor.history.runs import list_runs, load_run
 from auditor.results import GateResult
 from auditor.store import Store
+from tests.test_crash_safety import december_edits, environment, make_site, run_scan, wrapped_scan
 
 
 def verdicts(results: dict) -> dict[str, str]:

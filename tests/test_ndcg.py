@@ -4,19 +4,16 @@ from __future__ import annotations
 
 import importlib.util
 import shutil
-import sys
 from pathlib import Path
 
 import pytest
 
+from auditor.config import RetrievalConfig
+from auditor.retrieval.tokenize import Tokenizer
+from bench.claims_data import FOLDER, load_scifact, parse_sentences
+from bench.ndcg import bm25s_ndcg, evaluate, ndcg_at_k
+
 REPO = Path(__file__).resolve().parent.parent
-sys.path.insert(0, str(REPO / "bench"))
-
-from claims_data import FOLDER, load_scifact, parse_sentences  # noqa: E402
-from ndcg import bm25s_ndcg, evaluate, ndcg_at_k  # noqa: E402
-
-from auditor.config import RetrievalConfig  # noqa: E402
-from auditor.retrieval.tokenize import Tokenizer  # noqa: E402
 
 
 def test_ndcg_worked_example():

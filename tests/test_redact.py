@@ -11,13 +11,13 @@ from pathlib import Path
 
 import phonenumbers
 import pytest
-from cpu_budget import run_in_budget
 from hypothesis import given, settings
 from hypothesis import strategies as st
 from phonenumbers import PhoneNumberFormat, PhoneNumberType
 from stdnum import iban
 
 from auditor.questions.redact import KINDS, RedactionOptions, has_long_digit_run, luhn_valid, redact
+from tests.cpu_budget import run_in_budget
 
 _spec = importlib.util.spec_from_file_location("redaction_bench", Path(__file__).parents[1] / "bench" / "redaction.py")
 bench = importlib.util.module_from_spec(_spec)

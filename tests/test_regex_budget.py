@@ -34,9 +34,9 @@ import time
 from pathlib import Path
 
 import pytest
-from cpu_budget import OverBudget, run_in_budget
 
 import auditor
+from tests.cpu_budget import OverBudget, run_in_budget
 
 SIZE = 100_000
 BUDGET_S = 1.0

@@ -12,10 +12,10 @@ from collections import Counter
 from pathlib import Path
 
 import pytest
-import report_samples as samples
 
 from auditor.report import write_report
 from auditor.report.html import SERVER_ROWS, verdict_sentence
+from tests import report_samples as samples
 
 CHROMIUM = shutil.which("chromium") or ("/usr/bin/chromium" if Path("/usr/bin/chromium").exists() else None)
 sync_api = pytest.importorskip("playwright.sync_api")

@@ -7,7 +7,6 @@ import dataclasses
 import json
 
 import pytest
-import report_samples as samples
 
 from auditor.report import write_report
 from auditor.report.exports import (
@@ -19,6 +18,7 @@ from auditor.report.exports import (
     slugify,
 )
 from auditor.results import DocumentEntry, Run
+from tests import report_samples as samples
 
 
 @pytest.fixture(scope="module")

@@ -9,7 +9,6 @@ import os
 import re
 
 import pytest
-import report_samples as samples
 from bs4 import BeautifulSoup
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
@@ -17,6 +16,7 @@ from hypothesis import strategies as st
 from auditor.report import html as report_html
 from auditor.report import write_report
 from auditor.report.charts import age_histogram, trend, verdicts_by_owner
+from tests import report_samples as samples
 
 
 @pytest.fixture(scope="module")

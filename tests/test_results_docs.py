@@ -16,14 +16,14 @@ import typing
 from datetime import date
 
 import pytest
-import report_samples as samples
-from conftest import DEMO, REPO
 
 from auditor import results
 from auditor.config import load_config
 from auditor.results import DIFF_CATEGORIES, Record, Run, json_key
 from auditor.scan import scan
 from auditor.store import Store
+from tests import report_samples as samples
+from tests.conftest import DEMO, REPO
 
 DOC = REPO / "docs" / "results-json.md"
 _ROW = re.compile(r"^\| `([^`]+)` \| ([^|]+) \| ([^|]+) \| (.+) \|$")

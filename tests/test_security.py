@@ -17,6 +17,7 @@ import sqlite3
 import pytest
 
 from auditor.config import load_config
+from tests import report_samples as samples
 
 # The classic injection shapes (OWASP SQL Injection Prevention Cheat Sheet lists quote breaking,
 # statement stacking and comment truncation); the marker makes them findable in SQL text.
@@ -149,8 +150,6 @@ def test_include_globs_never_reach_outside_the_source_root(tmp_path):
 
 @pytest.mark.parametrize("owner", ["../../escaped", "/etc/cron.d/x", "..", "owners/../../x", "C:\\evil", "\x00nul"])
 def test_report_files_for_hostile_owner_names_stay_inside_the_report_folder(tmp_path, owner):
-    import report_samples as samples
-
     from auditor.report import write_report
     from auditor.results import Run
 

@@ -7,10 +7,10 @@ import re
 
 from hypothesis import given, settings
 from hypothesis import strategies as st
-from ingest_helpers import words
 
 from auditor.ingest.segment import MAX_WORDS, document_text, segment
 from auditor.models import Block
+from tests.ingest_helpers import words
 
 
 def n_words(text: str) -> int:
