@@ -44,7 +44,7 @@ def test_every_cited_docs_page_exists():
 
 
 def test_the_citation_pattern_skips_file_names_in_test_data():
-    assert CITATION.findall('see docs/cli.md and (docs/schema.md).') == ["cli.md", "schema.md"]
+    assert CITATION.findall("see docs/cli.md and (docs/schema.md).") == ["cli.md", "schema.md"]
     assert CITATION.findall('{"docs/guide.md": "# Guide"}') == []
     assert CITATION.findall("fixtures/docs/x.md") == []
 
