@@ -27,7 +27,7 @@ bench:  ## the quick benchmarks: a few minutes on 2 cores (bench/README.md has t
 min-versions:  ## the suite with every dependency at its declared floor, in a fresh $(MIN_VENV)
 	rm -rf $(MIN_VENV)
 	$(PYTHON) -m venv $(MIN_VENV)
-	$(MIN_VENV)/bin/pip install -q --only-binary=:all: $$($(PYTHON) tools/min_versions.py --extras test)
+	$(MIN_VENV)/bin/pip install -q --only-binary=:all: $$($(PYTHON) -m tools.min_versions --extras test)
 	$(MIN_VENV)/bin/pip install -q --no-deps -e .
 	$(MIN_VENV)/bin/pip check
 	$(MIN_VENV)/bin/python -m pytest -q -p no:cacheprovider \

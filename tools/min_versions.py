@@ -4,7 +4,7 @@ Installing these pins together with the project (`make min-versions`, see DEVELO
 the floors in pyproject.toml are true: the suite must pass with the oldest releases we claim to support.
 Every requirement must carry a `>=` floor; one without a floor is an error, so none slips through.
 
-    python tools/min_versions.py [--extras test,dev]
+    python -m tools.min_versions [--extras test,dev]
 """
 
 from __future__ import annotations
