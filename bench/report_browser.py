@@ -1,6 +1,6 @@
 """The report of a 10,000-question run in headless Chromium: time to open it and to filter it.
 
-    python bench/report_browser.py [--questions 10000] [--repeat 3]
+    python -m bench.report_browser [--questions 10000] [--repeat 3]
 
 The run is the generated one of tests/report_samples.py (`large_run`: each question with three
 evidence passages). Side by side, in the same browser: our index.html, and as the reference a bare
@@ -27,13 +27,8 @@ import sys
 import tempfile
 from pathlib import Path
 
-REPO = Path(__file__).resolve().parent.parent
-sys.path.insert(0, str(REPO))
-sys.path.insert(0, str(REPO / "tests"))
-
-import report_samples as samples  # noqa: E402
-
-from auditor.report import write_report  # noqa: E402
+from auditor.report import write_report
+from tests import report_samples as samples
 
 TARGET_MS = 1000
 ARGS = ["--no-sandbox", "--disable-gpu", "--no-first-run", "--disable-background-networking", "--disable-sync"]
