@@ -164,10 +164,10 @@ def parse_markdown(data: bytes, path: str) -> ParsedDocument:
     if isinstance(tags, str):
         tags = [t.strip() for t in tags.split(",")]
     owner = meta.get("owner")
-    title = meta.get("title") or first_h1
+    doc_title = meta.get("title") or first_h1
     return ParsedDocument(
         blocks=blocks,
-        title=str(title).strip() if title else None,
+        title=str(doc_title).strip() if doc_title else None,
         dates=dates,
         owner=str(owner).strip() if owner not in (None, "") else None,
         tags=tuple(str(t) for t in tags if str(t).strip()) if isinstance(tags, (list, tuple)) else (),

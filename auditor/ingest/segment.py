@@ -60,8 +60,8 @@ def _pieces(text: str, first_budget: int = TARGET_WORDS) -> list[tuple[int, int]
             size = TARGET_WORDS
         units.append((words[0].start(), words[-1].end() if b == len(text) else b, len(words)))
     spans: list[tuple[int, int]] = []
-    start = end = None
-    count = 0
+    start: int | None = None
+    end = count = 0  # end is set with start
     for a, b, n in units:
         limit = first_budget if not spans else TARGET_WORDS
         if start is not None and count + n > limit:
