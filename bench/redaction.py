@@ -1,6 +1,6 @@
 """Redaction quality per kind on a generated query log, and import speed.
 
-    python bench/redaction.py [--lines 10000] [--seed 20261203] [--speed-lines 100000] [--region US]
+    python -m bench.redaction [--lines 10000] [--seed 20261203] [--speed-lines 100000] [--region US]
 
 1. Quality: `generate(lines, seed)` writes questions to the invented Fernhollow Water Cooperative
    (demo scenario, fixtures/demo/README.md) with personal data planted in known places, plus lines
@@ -36,7 +36,6 @@ import csv
 import importlib
 import random
 import re
-import sys
 import tempfile
 import time
 from collections import Counter
@@ -46,10 +45,8 @@ import phonenumbers
 from phonenumbers import PhoneNumberFormat, PhoneNumberType
 from stdnum import iban, luhn
 
-sys.path.insert(0, str(Path(__file__).resolve().parent.parent))
-
-from auditor.questions.querylog import import_query_log  # noqa: E402
-from auditor.questions.redact import KINDS, RedactionOptions, redact  # noqa: E402
+from auditor.questions.querylog import import_query_log
+from auditor.questions.redact import KINDS, RedactionOptions, redact
 
 # Example IBANs of the SWIFT IBAN registry, one per country (from memory; stdnum.iban validates
 # each, so a misremembered one fails tests/test_redact.py::test_published_example_ibans).

@@ -3,7 +3,6 @@
 from __future__ import annotations
 
 import csv
-import importlib.util
 import json
 import logging
 import random
@@ -33,12 +32,10 @@ from auditor.questions.redact import KINDS, PLACEHOLDERS, luhn_valid
 from auditor.questions.sets import load_questions, store_questions, stored_questions
 from auditor.scan import audit_and_report, load_question_files, scan, store_question_sets
 from auditor.store import SCHEMA, SCHEMA_VERSION, Store
+from bench import redaction as bench
 
 # The redaction bench's value sources: libphonenumber's example numbers, stdnum's docstring
 # examples, the IBAN registry's examples, published test cards, RFC 5737 / RFC 3849 addresses.
-_spec = importlib.util.spec_from_file_location("redaction_bench", Path(__file__).parents[1] / "bench" / "redaction.py")
-bench = importlib.util.module_from_spec(_spec)
-_spec.loader.exec_module(bench)
 
 # Invented questions to a fictional water utility (demo data, fixtures/demo/README.md); each has 6+ distinct
 # words, so one extra word keeps Jaccard ≥ 6/7 ≈ 0.857 with its base, while different bases share
