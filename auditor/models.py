@@ -11,6 +11,7 @@ from datetime import date
 
 # Valid values live here once, so that error messages and validation cannot drift apart.
 GRANULARITIES = ("day", "week", "month", "quarter", "half", "season", "year", "decade")
+TIMEX_TYPES = ("DATE", "TIME", "DURATION", "SET")  # TIMEX3 types (ISO 24617-1:2012)
 ROLES = ("as_of", "effective", "expires", "planned", "event", "period", "other")
 VERDICTS = ("covered", "stale", "gap")
 STALE_REASONS = ("too_old", "expired", "overtaken")
@@ -73,7 +74,10 @@ class Passage:
 class TemporalExpression:
     """A normalized temporal expression (docs/dates.md).
 
-    `char_start`/`char_end` locate `expression` in the text that was scanned.
+    `char_start`/`char_end` locate `expression` in the text that was scanned. `timex_type` and
+    `value` are its TIMEX3 type (one of TIMEX_TYPES) and value (ISO-TimeML, ISO 24617-1:2012:
+    "2026-03-05", "2026-Q3", "P3D", "XXXX-WXX-2", "PRESENT_REF"; None for a range written with two
+    ends, which TIMEX3 would annotate as two expressions).
     """
 
     text: str  # the sentence it stands in
@@ -84,8 +88,13 @@ class TemporalExpression:
     role: str
     char_start: int = 0
     char_end: int = 0
+    timex_type: str = "DATE"
+    value: str | None = None
 
     def as_json(self) -> dict:
+        """The `auditor dates` JSON line: the original keys first, then the TIMEX3 type and value
+        and the character offsets of the expression in its input ("end" already names the
+        interval's end, so the offsets are an object of their own)."""
         return {
             "text": self.text,
             "expression": self.expression,
@@ -93,6 +102,9 @@ class TemporalExpression:
             "end": self.end.isoformat(),
             "granularity": self.granularity,
             "role": self.role,
+            "type": self.timex_type,
+            "value": self.value,
+            "offsets": {"begin": self.char_start, "end": self.char_end},
         }
 
 

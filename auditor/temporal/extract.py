@@ -23,29 +23,64 @@ Every expression is an interval [start, end] with a granularity; conventions:
 from __future__ import annotations
 
 import bisect
+import dataclasses
 import re
-from datetime import date
+from datetime import date, timedelta
 
 from auditor.models import TemporalExpression
+from auditor.temporal import kinds
 from auditor.temporal.patterns import (
-    DIGIT_CANDIDATES,
+    ALTERNATIVES,
+    DIGIT_FIRST,
     MODIFIER_BEFORE,
     MODIFIERS,
     RANGE_JOIN,
     RANGE_OPEN,
-    STARTS,
-    WORD_CANDIDATES,
+    STARTER_PHRASES,
+    STARTER_WORDS,
+    WORD_FIRST,
     Atom,
     month_end,
-    month_span,
     narrow,
     parse_candidate,
 )
-from auditor.temporal.roles import role_for
+from auditor.temporal.roles import role_for, tense
+from auditor.temporal.timex import interval_value
 
 __all__ = ["extract", "timex3"]
 
 _DIGITS = frozenset("0123456789'")
+
+# The candidate forms of `patterns` first, then the TIMEX3 kinds of `kinds`: at one position the
+# first alternative that matches wins, so a fuller date beats a weekday or a bare month. Split by
+# what a candidate starts with, so that a position tries only the forms that can begin there.
+_ALL = ALTERNATIVES + kinds.ALTERNATIVES
+DIGIT_CANDIDATES = re.compile(
+    "|".join(f"(?P<{n}>{b})" for n, b in _ALL if n in DIGIT_FIRST or n in kinds.DIGIT_FIRST)
+)
+WORD_CANDIDATES = re.compile("|".join(f"(?P<{n}>{b})" for n, b in _ALL if n in WORD_FIRST or n in kinds.WORD_FIRST))
+# Where a candidate can begin; trying the alternation only at these word starts, not at every
+# character, is what makes the scan cheap.
+STARTS = re.compile(
+    rf"(?<!\w)(?=['\d]|Q[1-4]|H[12]|FY|F\.Y\.|(?:{STARTER_WORDS}|(?i:{kinds.STARTER_WORDS}))\b|(?i:{STARTER_PHRASES}))"
+)
+# a part of the day after a day ("Friday morning", "yesterday evening") makes it a TIMEX3 TIME
+_PART_AFTER = re.compile(r"\s+(?P<part>morning|afternoon|evening|night)\b", re.I)
+# text between a duration and the date it is counted from ("90 days from 1 March 2026")
+_ANCHOR_AFTER = re.compile(
+    r"(?i:\s+(?P<how>from|after|following|starting(?:\s+(?:on|from))?|beginning(?:\s+on)?|of|before)\s+(?:the\s+)?)"
+)
+# text between a date and a duration that runs from it ("from March 1 for 90 days")
+_ANCHOR_BEFORE = re.compile(r"(?i:,?\s+for\s+(?:the\s+next\s+)?)")
+_CLOCK_GAP = re.compile(r"(?i:,?\s+(?:on\s+|at\s+|by\s+|from\s+|between\s+)?)")
+_CLOCK_TO_CLOCK = re.compile(r"(?i:\s*(?:-|–|to|and|until|till)\s*)")
+# news past tense that the role lexicon does not need ("said" opens most reported sentences)
+_REPORTED = re.compile(
+    r"(?i:\b(?:said|told|rose|fell|grew|came|went|gave|made|saw|took|began|won|lost|paid|sold|bought|left|met)\b"
+    r"|(?<!\bis )(?<!\bare )(?<!\bbe )(?<!\bbeen )(?<!\bget )(?<!\bgets )\b[a-z]{2,}[^e\s]ed\b)"
+)  # a verb in -ed not after is/are/be ("reached", not "is closed"); not "need", "speed", "seed"
+_GRANULARITY_OF_UNIT = {"second": "day", "minute": "day", "hour": "day", "century": "decade"}
+
 _PARAGRAPH_BREAK = re.compile(r"\n[ \t]*\n")
 
 # --- sentences -------------------------------------------------------------------------------------
@@ -137,6 +172,8 @@ def _merge_ranges(text: str, atoms: list[Atom], reference: date | None) -> list[
             prev is not None
             and not prev.relative
             and not atom.relative
+            and prev.placed
+            and atom.placed
             and atom.start - prev.end <= 30
             and RANGE_JOIN.fullmatch(joiner)
         ):
@@ -175,7 +212,7 @@ def _join(a: Atom, b: Atom, reference: date | None) -> Atom | None:
 
 def _modify(text: str, atom: Atom, reference: date | None) -> Atom:
     """Apply an early/mid/late or start/end-of modifier written just before the atom."""
-    if atom.granularity in ("day",) or atom.first is None:
+    if atom.granularity in ("day",) or atom.first is None or atom.timex_type != "DATE":
         return atom
     m = MODIFIER_BEFORE.search(text, max(0, atom.start - 30), atom.start)
     if not m:
@@ -187,15 +224,13 @@ def _modify(text: str, atom: Atom, reference: date | None) -> Atom:
         first, last = (atom.first, reference) if word == "earlier" else (reference, atom.last)
     else:
         first, last = narrow(atom.first, atom.last, atom.granularity, modifier)
-    return Atom(
-        m.start(),
-        atom.end,
-        atom.granularity,
-        first,
-        last,
+    return dataclasses.replace(
+        atom,
+        start=m.start(),
+        first=first,
+        last=last,
         future=atom.future or word == "later",
         past=atom.past and word != "later",
-        relative=atom.relative,
     )
 
 
@@ -218,6 +253,24 @@ def extract(
         raise ValueError(f"hemisphere must be 'north' or 'south', not {hemisphere!r}")
     if not (isinstance(fiscal_year_start, int) and 1 <= fiscal_year_start <= 12):
         raise ValueError(f"fiscal_year_start must be a month number 1-12, not {fiscal_year_start!r}")
+    sentences = _sentences(text)
+    starts = [s for s, _ in sentences]
+    normalized: dict[int, str] = {}  # once per sentence: re-joining it per expression is quadratic
+
+    def sentence_at(position: int) -> tuple[int, str]:
+        index = max(0, bisect.bisect_right(starts, position) - 1)
+        sentence = normalized.get(index)
+        if sentence is None:
+            s_start, s_end = sentences[index] if sentences else (0, len(text))
+            sentence = normalized[index] = " ".join(text[s_start:s_end].split())
+        return index, sentence
+
+    def tense_at(position: int) -> tuple[bool, bool]:
+        """(future, past) of the sentence at `position`, for reading yearless dates (kinds.py)."""
+        sentence = sentence_at(position)[1]
+        future, past = tense(sentence)
+        return future, past or _REPORTED.search(sentence) is not None
+
     ctx = {
         "text": text,
         "reference": reference_date,
@@ -225,6 +278,7 @@ def extract(
         "day_first": day_first,
         "hemisphere": hemisphere,
         "previous_end": None,
+        "tense": tense_at,
     }
     atoms: list[Atom] = []
     scanned_to = 0
@@ -240,45 +294,71 @@ def extract(
             continue
         scanned_to = m.end()
         try:
-            atom = parse_candidate(m, ctx)
+            if m.lastgroup in kinds.NAMES:
+                atom = kinds.parse_kind(m, ctx)
+            else:
+                atom = parse_candidate(m, ctx)
         except (ValueError, KeyError, OverflowError):  # 2024-02-30, week 54 ...: not a date
             atom = None
-        if atom is not None:
-            atoms.append(_modify(text, atom, reference_date))
-            ctx["previous_end"] = atom.end
-    atoms = _merge_ranges(text, atoms, reference_date)
-    sentences = _sentences(text)
-    starts = [s for s, _ in sentences]
+        if atom is None:
+            continue
+        if atom.placed and atom.first is not None:
+            if atom.value is None and atom.timex_type == "DATE":
+                atom.value = interval_value(atom.first, atom.last, atom.granularity, hemisphere)
+            if atom.granularity == "day" and atom.first == atom.last and atom.timex_type == "DATE":
+                part = _PART_AFTER.match(text, atom.end)
+                if part and not _PARAGRAPH_BREAK.search(text, atom.end, part.end()):
+                    code = kinds.PART_OF_DAY[part.group("part").lower()]
+                    atom = dataclasses.replace(atom, end=part.end(), timex_type="TIME", value=f"{atom.first}T{code}")
+                    scanned_to = atom.end
+        atoms.append(_modify(text, atom, reference_date))
+        ctx["previous_end"] = atom.end
+    atoms = _merge_ranges(text, _join_year_and_quarter(text, atoms), reference_date)
+    _anchor(text, atoms)
+    _back_from_quarter(atoms)
     found: list[TemporalExpression] = []
     previous_in_sentence: dict[int, int] = {}
-    normalized: dict[int, str] = {}  # once per sentence: re-joining it per expression is quadratic
     for atom in atoms:
-        if atom.first is None:  # a month-day with no year anywhere
+        if not atom.placed:  # no place on the calendar: the reference date stands in
             if reference_date is None:
                 continue
+            atom.first = atom.last = reference_date
+        if atom.first is None:  # a month-day with no year anywhere: by the tense, as a bare month
+            if reference_date is None:
+                continue
+            way = kinds.direction(text[max(0, atom.start - 40) : atom.start], tense_at(atom.start))
+            year = reference_date.year
+            if way < 0 and (atom.month, atom.day) > (reference_date.month, reference_date.day):
+                year -= 1
+            elif way > 0 and (atom.month, atom.day) < (reference_date.month, reference_date.day):
+                year += 1
             try:
-                point = date(reference_date.year, atom.month, atom.day)
+                point = date(year, atom.month, atom.day)
             except ValueError:
                 continue
             atom.first = atom.last = point
-        index = max(0, bisect.bisect_right(starts, atom.start) - 1)
+            atom.value = point.isoformat()
+        assert atom.last is not None
+        index, sentence = sentence_at(atom.start)
         s_start, s_end = sentences[index]
         left_from = max(s_start, previous_in_sentence.get(index, s_start))
-        sentence = normalized.get(index)
-        if sentence is None:
-            sentence = normalized[index] = " ".join(text[s_start:s_end].split())
-        role = role_for(
-            text[left_from : atom.start],
-            text[atom.end : s_end],
-            sentence,
-            start=atom.first,
-            reference_date=reference_date,
-            granularity=atom.granularity,
-            future_relative=atom.future,
-            past_relative=atom.past,
-            bounded=atom.bounded,
-            expression=text[atom.start : atom.end],
-        )
+        if atom.present:
+            role = "as_of"  # "currently", "now": the statement holds on the document date
+        elif not atom.placed or atom.timex_type == "SET":
+            role = "other"
+        else:
+            role = role_for(
+                text[left_from : atom.start],
+                text[atom.end : s_end],
+                sentence,
+                start=atom.first,
+                reference_date=reference_date,
+                granularity=atom.granularity,
+                future_relative=atom.future,
+                past_relative=atom.past,
+                bounded=atom.bounded,
+                expression=text[atom.start : atom.end],
+            )
         previous_in_sentence[index] = atom.end
         found.append(
             TemporalExpression(
@@ -290,34 +370,107 @@ def extract(
                 role,
                 atom.start,
                 atom.end,
+                atom.timex_type,
+                atom.value,
             )
         )
     return found
+
+
+_POSSESSIVE = re.compile(r"(?:'s|’s)?\s+")
+
+
+def _join_year_and_quarter(text: str, atoms: list[Atom]) -> list[Atom]:
+    """"this year's third quarter", "the 1988 third quarter": one quarter of that year."""
+    out: list[Atom] = []
+    for atom in atoms:
+        prev = out[-1] if out else None
+        if (
+            prev is not None
+            and prev.granularity == "year"
+            and prev.first is not None
+            and atom.granularity in ("quarter", "half")
+            and atom.relative
+            and atom.first is not None
+            and _POSSESSIVE.fullmatch(text, prev.end, atom.start)
+        ):
+            first = atom.first.replace(year=prev.first.year)
+            last = atom.last.replace(year=prev.first.year) if atom.last else first
+            out[-1] = dataclasses.replace(atom, start=prev.start, first=first, last=last, value=None, past=False)
+            out[-1].value = interval_value(first, last, atom.granularity)
+            continue
+        out.append(atom)
+    return out
+
+
+def _back_from_quarter(atoms: list[Atom]) -> None:
+    """"... in the third quarter, up from $2 a share a year earlier": the same quarter a year
+    before (in reports a year-ago figure compares the period just named)."""
+    quarter = None
+    for atom in atoms:
+        if atom.granularity == "quarter" and atom.placed and atom.first is not None and not atom.years_back:
+            quarter = atom
+        elif atom.years_back and quarter is not None and atom.start - quarter.end < 400:
+            assert quarter.first is not None and quarter.last is not None
+            years = atom.years_back
+            atom.first = quarter.first.replace(year=quarter.first.year - years)
+            atom.last = month_end(quarter.last.year - years, quarter.last.month)
+            atom.granularity = "quarter"
+            atom.value = interval_value(atom.first, atom.last, "quarter")
+
+
+def _anchor(text: str, atoms: list[Atom]) -> None:
+    """Give a duration counted from a date its interval ("90 days from 1 March 2026" ends on
+    date(2026, 3, 1) + timedelta(days=90); "two weeks before June 1" ends on June 1), and a clock
+    time written beside a day that day ("8 a.m. on Monday")."""
+    for i, atom in enumerate(atoms):
+        following = atoms[i + 1] if i + 1 < len(atoms) else None
+        preceding = atoms[i - 1] if i > 0 else None
+        if atom.length is not None and not atom.placed:
+            count, unit = atom.length
+            granularity = _GRANULARITY_OF_UNIT.get(unit, unit)
+            gap = _ANCHOR_AFTER.fullmatch(text, atom.end, following.start) if following else None
+            if following is not None and gap and following.placed and following.first is not None:
+                if gap.group("how").lower() == "before":
+                    atom.last, atom.first = following.first, kinds.shift(following.first, count, unit, -1)
+                else:
+                    atom.first, atom.last = following.first, kinds.shift(following.first, count, unit)
+                atom.placed, atom.granularity = True, granularity
+            elif (
+                preceding is not None
+                and preceding.placed
+                and preceding.timex_type == "DATE"
+                and preceding.first is not None
+                and _ANCHOR_BEFORE.fullmatch(text, preceding.end, atom.start)
+            ):
+                atom.first, atom.last = preceding.first, kinds.shift(preceding.first, count, unit)
+                atom.placed, atom.granularity = True, granularity
+        elif atom.clock is not None:
+            _place_clock(text, atom, preceding, following)
+
+
+def _place_clock(text: str, atom: Atom, preceding: Atom | None, following: Atom | None) -> None:
+    """A clock time takes the day written next to it ("Monday at 8 a.m.", "8 a.m. on Monday"), or
+    the day of the clock time it runs from ("10 p.m. to 2 a.m." ends on the next day)."""
+    if preceding is not None and preceding.clock is not None and preceding.placed and preceding.first is not None:
+        if _CLOCK_TO_CLOCK.fullmatch(text, preceding.end, atom.start):
+            day = preceding.first
+            if atom.clock < preceding.clock:
+                day += timedelta(days=1)
+            atom.first = atom.last = day
+            atom.value, atom.placed = f"{day}{atom.clock}", True
+            return
+    for day, (a, b) in ((preceding, (preceding.end if preceding else 0, atom.start)), (following, (atom.end, following.start if following else 0))):
+        if day is None or day.clock is not None or not day.placed or day.first is None or day.first != day.last:
+            continue
+        if _CLOCK_GAP.fullmatch(text, a, b):
+            atom.first = atom.last = day.first
+            atom.value, atom.placed = f"{day.first}{atom.clock}", True
+            return
 
 
 def timex3(expression: TemporalExpression, hemisphere: str = "north") -> str | None:
     """The TimeML TIMEX3 `value` of a calendar-aligned expression ("2024-Q3", "2025-H1",
     "2025-SP", "2024-W05", "199" for the 1990s), or None when it has none (ranges, fiscal quarters
     that are not calendar quarters)."""
-    start, end, g = expression.start, expression.end, expression.granularity
-    if g == "day" and start == end:
-        return start.isoformat()
-    if g == "week" and start.weekday() == 0 and (end - start).days == 6:
-        year, week, _ = start.isocalendar()
-        return f"{year}-W{week:02d}"
-    if g == "month" and start.day == 1 and end == month_end(start.year, start.month):
-        return f"{start:%Y-%m}"
-    if g == "quarter" and start.month % 3 == 1 and end == month_span(start.year, start.month, 3)[1]:
-        return f"{start.year}-Q{(start.month - 1) // 3 + 1}"
-    if g == "half" and start.month in (1, 7) and end == month_span(start.year, start.month, 6)[1]:
-        return f"{start.year}-H{1 if start.month == 1 else 2}"
-    if g == "season":
-        codes = {3: "SP", 6: "SU", 9: "FA", 12: "WI"}
-        month = start.month if hemisphere == "north" else (start.month + 6 - 1) % 12 + 1
-        if month in codes and end == month_span(start.year, start.month, 3)[1]:
-            return f"{start.year}-{codes[month]}"
-    if g == "year" and (start.month, start.day, end.month, end.day) == (1, 1, 12, 31) and start.year == end.year:
-        return str(start.year)
-    if g == "decade" and start.year % 10 == 0 and end.year == start.year + 9:
-        return str(start.year // 10)
-    return None
+    return interval_value(expression.start, expression.end, expression.granularity, hemisphere)

@@ -172,61 +172,31 @@ _ALTERNATIVES = [
     ("year", rf"(?<![\w.,:/$€£#+])(?<!\d-)(?P<by>{YEAR_CORE})(?![\w%]|[.,:/-]\d|\s*(?:%|percent\b))"),
 ]
 
-# Every candidate form in one alternation; extract() uses its two halves below.
+ALTERNATIVES = _ALTERNATIVES
+# Every candidate form of this module in one alternation (extract.py joins these forms with those
+# of kinds.py and splits them by what a candidate starts with, keeping this order).
 CANDIDATES = re.compile("|".join(f"(?P<{name}>{body})" for name, body in _ALTERNATIVES))
-# The same alternation split by what a candidate starts with, so that a position tries only the
-# forms that can begin there (the order within each stays that of _ALTERNATIVES).
-_DIGIT_FIRST = {
-    "isoweek",
-    "isodate",
-    "isoordinal",
-    "quarter",
-    "half",
-    "fiscalrange",
-    "decade",
-    "dmrange",
-    "dmy",
-    "numeric",
-    "yearrange",
-    "ago",
-    "year",
-}
-_WORD_FIRST = {
-    "quarter",
-    "half",
-    "fiscal",
-    "season",
-    "decade",
-    "mdrange",
-    "mmrange",
-    "mdy",
-    "dmy",
-    "monthyear",
-    "ago",
-    "inrel",
-    "rolling",
-    "monthrel",
-    "relative",
-    "deictic",
-}
-DIGIT_CANDIDATES = re.compile("|".join(f"(?P<{n}>{b})" for n, b in _ALTERNATIVES if n in _DIGIT_FIRST))
-WORD_CANDIDATES = re.compile("|".join(f"(?P<{n}>{b})" for n, b in _ALTERNATIVES if n in _WORD_FIRST))
-assert _DIGIT_FIRST | _WORD_FIRST == {n for n, _ in _ALTERNATIVES}
+DIGIT_FIRST = frozenset(
+    {"isoweek", "isodate", "isoordinal", "quarter", "half", "fiscalrange", "decade", "dmrange", "dmy", "numeric"}
+    | {"yearrange", "ago", "year"}
+)
+WORD_FIRST = frozenset(
+    {"quarter", "half", "fiscal", "season", "decade", "mdrange", "mmrange", "mdy", "dmy", "monthyear", "ago"}
+    | {"inrel", "rolling", "monthrel", "relative", "deictic"}
+)
+assert DIGIT_FIRST | WORD_FIRST == {n for n, _ in _ALTERNATIVES}
 
-# Where a candidate can begin. Trying the whole alternation only at these word starts, instead of
-# at every character, is what makes the scan cheap (about ten times faster on help-centre text).
-_STARTER_WORDS = (
-    "first|second|third|fourth|last|final|spring|summer|fall|autumn|winter|this|next|"
-    "past|previous|coming|current|following|yesterday|today|tomorrow"
+# Words where a candidate can begin (extract.STARTS): trying the alternation only at these word
+# starts, instead of at every character, is what makes the scan cheap.
+STARTER_WORDS = (
+    rf"[Ff]iscal|{MONTH_NAMES}|{WEEKDAY_NAMES}|(?i:first|second|third|fourth|last|final|spring|summer|fall|"
+    "autumn|winter|this|next|past|previous|coming|current|following|yesterday|today|tomorrow)"
 )
 # frequent small words start a candidate only before what can follow them there
-_STARTER_PHRASES = (
+STARTER_PHRASES = (
     r"the\s+(?:first|second|third|fourth|1st|2nd|3rd|4th|last|final|past|previous|next|coming|"
-    rf"following|\d|')|in\s+{COUNT}\s|(?:{COUNT})\s+{_UNIT}\s+ago\b"
-)
-STARTS = re.compile(
-    rf"(?<!\w)(?=['\d]|Q[1-4]|H[12]|FY|F\.Y\.|(?:[Ff]iscal|{MONTH_NAMES}|{WEEKDAY_NAMES}|"
-    rf"(?i:{_STARTER_WORDS}))\b|(?i:{_STARTER_PHRASES}))"
+    r"following|latest|most|year-|future|recent|\d|')|in\s+(?:the\s+past\b|" + COUNT + r"\s)|"
+    rf"(?:{COUNT})\s+{_UNIT}\s+ago\b|an?\s+(?:few\s+)?(?:second|minute|hour|day|week|month|quarter|year|decade|century)"
 )
 
 # "early 2023", "mid-2022", "the end of this year", "late March 2024"
@@ -320,7 +290,7 @@ def month_end(year: int, month: int) -> date:
     return date(year, month, calendar.monthrange(year, month)[1])
 
 
-def _add_months(day: date, months: int) -> date:
+def add_months(day: date, months: int) -> date:
     index = day.year * 12 + day.month - 1 + months
     year, month = divmod(index, 12)
     return date(year, month + 1, min(day.day, calendar.monthrange(year, month + 1)[1]))
@@ -329,8 +299,8 @@ def _add_months(day: date, months: int) -> date:
 def month_span(year: int, first: int, count: int) -> tuple[date, date]:
     """`count` months from month `first` of `year` (which may run past December)."""
     start = date(year, 1, 1)
-    start = _add_months(start, first - 1)
-    return start, _add_months(start, count) - timedelta(days=1)
+    start = add_months(start, first - 1)
+    return start, add_months(start, count) - timedelta(days=1)
 
 
 def _iso_week(year: int, week: int) -> date:
@@ -453,6 +423,13 @@ class Atom:
     past: bool = False  # one pointing back ("two weeks ago", "last year"): never planned
     relative: bool = False
     bounded: bool = False  # a range with both ends written ("from A to B")
+    timex_type: str = "DATE"  # TIMEX3 type: DATE, TIME, DURATION or SET
+    value: str | None = None  # TIMEX3 value when the interval does not give it (P3D, PRESENT_REF)
+    placed: bool = True  # False: no place on the calendar (auditor/temporal/kinds.py)
+    present: bool = False  # a present reference ("now", "currently")
+    clock: str | None = None  # the time of a clock time ("T15:00"), for a day it may join
+    length: tuple[int, str] | None = None  # a duration's count and unit, for an anchor to give it an end
+    years_back: int = 0  # "a year earlier": a quarter named just before it moves back this many years
 
 
 def _month(text: str) -> int:
@@ -580,23 +557,27 @@ def parse_candidate(m, ctx) -> Atom | None:
         if unit_name == "fortnight":
             count, unit_name = count * 2, "week"
         if unit_name == "quarter":  # dateparser has no quarters
-            point = _add_months(ref, 3 * count * (-1 if kind == "ago" else 1))
+            point = add_months(ref, 3 * count * (-1 if kind == "ago" else 1))
         else:
             span = f"{count} {unit_name}s ago" if kind == "ago" else f"in {count} {unit_name}s"
             point = _relative_point(span, unit_name, ref)
             if point is None:
                 return None
         first, last, granularity = _unit_interval(point, unit_name)
-        return Atom(s, e, granularity, first, last, future=kind == "inrel", past=kind == "ago", relative=True)
+        atom = Atom(s, e, granularity, first, last, future=kind == "inrel", past=kind == "ago", relative=True)
+        if kind == "ago" and unit_name == "year":
+            atom.years_back = count
+        return atom
     if kind == "rolling":
         count, unit = _count(g("ron")), g("rou").lower().rstrip("s")
         forward = g("rod").lower() in ("next", "coming", "following")
+        value = f"P{count}{unit[0].upper()}"  # TIMEX3 duration: P12M, P2W, P3Y
         span = {"day": timedelta(days=count), "week": timedelta(weeks=count)}.get(unit)
         if forward:
-            last = ref + span if span else _add_months(ref, count * (12 if unit == "year" else 1))
-            return Atom(s, e, unit, ref, last, future=True, relative=True)
-        first = ref - span if span else _add_months(ref, -count * (12 if unit == "year" else 1))
-        return Atom(s, e, unit, first, ref, past=True, relative=True)
+            last = ref + span if span else add_months(ref, count * (12 if unit == "year" else 1))
+            return Atom(s, e, unit, ref, last, future=True, relative=True, timex_type="DURATION", value=value)
+        first = ref - span if span else add_months(ref, -count * (12 if unit == "year" else 1))
+        return Atom(s, e, unit, first, ref, past=True, relative=True, timex_type="DURATION", value=value)
     if kind == "monthrel":
         month, direction = MONTH_NUMBERS[g("mrel").lower()], g("mdir").lower()
         if direction in ("next", "coming", "following"):
@@ -617,7 +598,7 @@ def parse_candidate(m, ctx) -> Atom | None:
             first, last = _fiscal_year(label, fys)
             return Atom(s, e, "year", first, last, future=step > 0, past=step < 0, relative=True)
         months = {"week": 0, "month": 1, "quarter": 3, "year": 12}[unit]
-        point = ref + timedelta(weeks=step) if unit == "week" else _add_months(ref, months * step)
+        point = ref + timedelta(weeks=step) if unit == "week" else add_months(ref, months * step)
         first, last, granularity = _unit_interval(point, unit)
         return Atom(s, e, granularity, first, last, future=step > 0, past=step < 0, relative=True)
     if kind == "deictic":

@@ -239,7 +239,7 @@ def _nearest(cues: re.Pattern, left: str, reach: int) -> str | None:
 
 
 @functools.lru_cache(maxsize=1024)
-def _tense(sentence: str) -> tuple[bool, bool]:
+def tense(sentence: str) -> tuple[bool, bool]:
     """(speaks of the future, speaks of the past), computed once per sentence."""
     lower = sentence.lower()
     words = set(_WORDS.findall(lower))
@@ -280,13 +280,13 @@ def role_for(
         return "as_of"
     if _EFFECTIVE_RIGHT.match(right):
         return "effective"
-    future, past = _tense(sentence)
+    future, past = tense(sentence)
     future = (future or future_relative) and not past_relative
     weak = {"weak_effective": "effective", "weak_expires": "expires"}.get(near)
     if weak is not None:
         participle = _PARTICIPLE_BEFORE_CUE.search(left)
         if participle:
-            past = _tense(sentence.replace(participle.group(), " "))[1]
+            past = tense(sentence.replace(participle.group(), " "))[1]
         if weak == "effective" and left.rstrip().lower().endswith("after") and _NEGATION.search(sentence):
             return "expires"  # "applications received after 30 April cannot be considered"
         cue = weak
