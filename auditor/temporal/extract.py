@@ -313,7 +313,7 @@ def extract(
                     scanned_to = atom.end
         atoms.append(_modify(text, atom, reference_date))
         ctx["previous_end"] = atom.end
-    atoms = _merge_ranges(text, _join_year_and_quarter(text, atoms), reference_date)
+    atoms = _merge_ranges(text, _join_neighbours(text, atoms), reference_date)
     _anchor(text, atoms)
     _back_from_quarter(atoms)
     found: list[TemporalExpression] = []
@@ -380,11 +380,41 @@ def extract(
 _POSSESSIVE = re.compile(r"(?:'s|’s)?\s+")
 
 
-def _join_year_and_quarter(text: str, atoms: list[Atom]) -> list[Atom]:
-    """"this year's third quarter", "the 1988 third quarter": one quarter of that year."""
+_CLOCK_THEN_DAY = re.compile(r"\s*(?:[A-Z]{2,4}\b)?,?\s*")
+
+
+def _join_neighbours(text: str, atoms: list[Atom]) -> list[Atom]:
+    """One expression of two written together: "this year's third quarter" and "the 1988 third
+    quarter" (a quarter of that year), "June last year" (a month of that year), "9 a.m. EST
+    Tuesday" and "noon Saturday" (a time of that day)."""
     out: list[Atom] = []
     for atom in atoms:
         prev = out[-1] if out else None
+        if (
+            prev is not None
+            and prev.granularity == "month"
+            or (prev is not None and prev.value and prev.value.startswith("XXXX-"))
+        ) and (
+            atom.granularity == "year" and atom.relative and atom.first is not None and text[prev.end : atom.start].isspace()
+        ):
+            assert prev is not None
+            month = int((prev.value or "XXXX-00")[5:7])
+            if month:
+                first, last = date(atom.first.year, month, 1), month_end(atom.first.year, month)
+                out[-1] = dataclasses.replace(atom, start=prev.start, first=first, last=last, granularity="month")
+                out[-1].value = interval_value(first, last, "month")
+                continue
+        if (
+            prev is not None
+            and prev.clock is not None
+            and atom.placed
+            and atom.first is not None
+            and atom.first == atom.last
+            and atom.timex_type == "DATE"
+            and _CLOCK_THEN_DAY.fullmatch(text, prev.end, atom.start)
+        ):
+            out[-1] = dataclasses.replace(atom, start=prev.start, timex_type="TIME", value=f"{atom.first}{prev.clock}")
+            continue
         if (
             prev is not None
             and prev.granularity == "year"

@@ -178,10 +178,7 @@ _FORWARD_CUE = re.compile(
 _BACKWARD_CUE = re.compile(r"(?i:\b(?:since|after|as\s+of)[\s-]+(?:(?:early|mid|late)[\s-]+)?$)")
 _WEEKDAY_RANGE_AFTER = re.compile(rf"\s*(?:-|–|—|\bto\b|\bthrough\b|\bthru\b|\band\b|\bor\b|,)\s*(?:{_WEEKDAY_RE})\b")
 _WEEKDAY_RANGE_BEFORE = re.compile(rf"\b(?:{_WEEKDAY_RE})s?\s*(?:-|–|—|\bto\b|\bthrough\b|\bthru\b|\band\b|\bor\b|,)\s*$")
-# "Now," and "Now that" open a sentence as a discourse word, not as a time
-_NOW_DISCOURSE = re.compile(r"(?i:now\s*(?:,|that\b|then\b|and\s+then\b))")
-_PER_UNIT_LEFT = re.compile(r"(?:\d[\d,.]*|\$\S+)\s+(?:[A-Za-z]+\s+)?$")
-_MONEY_LEFT = re.compile(r"(?i:(?:\$\S*|\b(?:million|billion|cents?|dollars?|pounds?|euros?|yen))\s+$)")
+_PER_UNIT_LEFT = re.compile(r"(?i:(?:\d[\d,.]*|\$\S+|\b(?:one|two|three|four|five|six|seven|eight|nine|ten))\s+(?:[A-Za-z]+\s+)?$)")
 _SENTENCE_START = re.compile(r"(?:^|[.!?:;\n])\s*[\"'“(]?$")
 
 
@@ -310,8 +307,8 @@ def parse_kind(m: re.Match, ctx: dict) -> Atom | None:
     if kind == "present":
         word = " ".join(g("pr").lower().split())
         if word == "now":
-            if _NOW_DISCOURSE.match(text, s) and _SENTENCE_START.search(left):
-                return None
+            if _SENTENCE_START.search(left):
+                return None  # "Now, open the menu", "Now the alliance ...": a discourse word
             if re.search(r"(?i:\bfrom\s+$)", left):  # "from now on"
                 return None
         value = "FUTURE_REF" if word == "the future" else "PRESENT_REF"
@@ -347,10 +344,12 @@ def parse_kind(m: re.Match, ctx: dict) -> Atom | None:
         count = None if vague else _number(word) if word not in ("a", "an", "one") else 1
         if count is None and not vague:
             return None
-        if word in ("a", "an") and _PER_UNIT_LEFT.search(left):
-            if _MONEY_LEFT.search(left):
-                return None  # "$500 million a year": a rate of money, not a schedule
-            return _placeholder(s, e, "SET", duration_value(1, unit))  # "300 calls a day"
+        if word in ("a", "an") and (_PER_UNIT_LEFT.search(left) or unit == "second"):
+            return None  # "300 calls a day", "$500 million a year" (rates), "a second time"
+        if not g("du").islower():
+            return None  # "60 Minutes": a title
+        if (word == "one" and unit == "day") or (unit == "quarter" and "-" in m.group(kind)):
+            return None  # "one day he ..." (some day), "three-quarters" (a fraction)
         if vague and not g("du").lower().endswith("s"):
             return None
         atom = _placeholder(s, e, "DURATION", duration_value(count, unit))
