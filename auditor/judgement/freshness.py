@@ -23,6 +23,13 @@ The rules, for audit date T and horizon H days:
   * `overtaken` a `planned` event whose interval ended before T: the passage still announces as
     coming what has happened, whenever it was last reviewed.
   An expiry after T is fine; so is an event that has happened (role `event`).
+* TIMEX3 kinds (docs/dates.md): a present reference ("currently", "now"; value PRESENT_REF)
+  pins the as-of to the document date, ahead of any older statement ("Updated March 2025: the fee
+  is currently $12" in a document dated 2026-11-20 is as of 2026-11-20); a duration anchored to a
+  date is a window from that date to its end, the end an expiry when the window is one of
+  validity ("valid for 90 days from 1 March 2026" expires on date(2026, 3, 1) + timedelta(days=90));
+  a schedule or recurring date (TIMEX3 SET: "every Tuesday", "annually in April") never makes a
+  passage stale, nor does a duration or clock time with no place on the calendar (role `other`).
 * An undated passage (no dated statement, no document date, no file time) is not stale for age:
   fresh, with as_of None and as_of_source "none", so that the judge can flag it. It can still be
   expired or overtaken by what it says.
@@ -73,7 +80,20 @@ def passage_freshness(
     periods: list[date] = []
     expiries: list[date] = []
     planned_ends: list[date] = []
+    present: list[date] = []
     for s in statements:
+        if s.timex_type == "SET" or s.role == "other":
+            continue  # a schedule recurs; nothing recurring is out of date
+        if s.value == "PRESENT_REF":
+            present.append(min(doc_date or s.start, today))
+            continue
+        if s.timex_type == "DURATION" and s.role in ("effective", "expires"):
+            # a window of validity counted from a date: in force from its start, over at its end
+            expiries.append(s.end)
+            if s.role == "effective" and s.start <= today:
+                effective_starts.append(s.start)
+                stated.append(s.start)
+            continue
         if s.role == "as_of" and s.start <= today:
             stated.append(min(s.end, today))
         elif s.role == "effective":
@@ -92,7 +112,9 @@ def passage_freshness(
         elif s.role == "planned":
             planned_ends.append(s.end)
 
-    if stated:
+    if present:
+        as_of, source = max(present + stated), "statement"
+    elif stated:
         as_of, source = max(stated), "statement"
     elif periods:
         as_of, source = max(periods), "statement"

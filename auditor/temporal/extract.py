@@ -73,6 +73,7 @@ _ANCHOR_AFTER = re.compile(
 # text between a date and a duration that runs from it ("from March 1 for 90 days")
 _ANCHOR_BEFORE = re.compile(r"(?i:,?\s+for\s+(?:the\s+next\s+)?)")
 _CLOCK_GAP = re.compile(r"(?i:,?\s+(?:on\s+|at\s+|by\s+|from\s+|between\s+)?)")
+_SENTENCE_GAP = re.compile(r"[.!?;\n]")
 _CLOCK_TO_CLOCK = re.compile(r"(?i:\s*(?:-|–|to|and|until|till)\s*)")
 # news past tense that the role lexicon does not need ("said" opens most reported sentences)
 _REPORTED = re.compile(
@@ -314,6 +315,11 @@ def extract(
         atoms.append(_modify(text, atom, reference_date))
         ctx["previous_end"] = atom.end
     atoms = _merge_ranges(text, _join_neighbours(text, atoms), reference_date)
+    if reference_date is not None:
+        for atom in atoms:
+            if atom.first is None and atom.placed:  # a month-day with no year anywhere: by the tense
+                _give_year(text, atom, reference_date, tense_at(atom.start))
+    atoms = [a for a in atoms if a.first is not None or not a.placed]
     _anchor(text, atoms)
     _back_from_quarter(atoms)
     found: list[TemporalExpression] = []
@@ -323,29 +329,14 @@ def extract(
             if reference_date is None:
                 continue
             atom.first = atom.last = reference_date
-        if atom.first is None:  # a month-day with no year anywhere: by the tense, as a bare month
-            if reference_date is None:
-                continue
-            way = kinds.direction(text[max(0, atom.start - 40) : atom.start], tense_at(atom.start))
-            year = reference_date.year
-            if way < 0 and (atom.month, atom.day) > (reference_date.month, reference_date.day):
-                year -= 1
-            elif way > 0 and (atom.month, atom.day) < (reference_date.month, reference_date.day):
-                year += 1
-            try:
-                point = date(year, atom.month, atom.day)
-            except ValueError:
-                continue
-            atom.first = atom.last = point
-            atom.value = point.isoformat()
         assert atom.last is not None
         index, sentence = sentence_at(atom.start)
         s_start, s_end = sentences[index]
         left_from = max(s_start, previous_in_sentence.get(index, s_start))
         if atom.present:
             role = "as_of"  # "currently", "now": the statement holds on the document date
-        elif not atom.placed or atom.timex_type == "SET":
-            role = "other"
+        elif not atom.placed or atom.timex_type == "SET" or atom.clock is not None:
+            role = "other"  # a clock time adds nothing to the role of the day it falls on
         else:
             role = role_for(
                 text[left_from : atom.start],
@@ -449,6 +440,22 @@ def _back_from_quarter(atoms: list[Atom]) -> None:
             atom.value = interval_value(atom.first, atom.last, "quarter")
 
 
+def _give_year(text: str, atom: Atom, reference: date, sentence_tense: tuple[bool, bool]) -> None:
+    """The year of a month-day written without one: the reference year, unless the sentence's
+    tense (or a cue) puts the date on the other side of the reference date (kinds.direction)."""
+    way = kinds.direction(text[max(0, atom.start - 40) : atom.start], sentence_tense)
+    year = reference.year
+    if way < 0 and (atom.month, atom.day) > (reference.month, reference.day):
+        year -= 1
+    elif way > 0 and (atom.month, atom.day) < (reference.month, reference.day):
+        year += 1
+    try:
+        atom.first = atom.last = date(year, atom.month, atom.day)
+    except ValueError:  # February 29 in a common year
+        return
+    atom.value = atom.first.isoformat()
+
+
 def _anchor(text: str, atoms: list[Atom]) -> None:
     """Give a duration counted from a date its interval ("90 days from 1 March 2026" ends on
     date(2026, 3, 1) + timedelta(days=90); "two weeks before June 1" ends on June 1), and a clock
@@ -497,6 +504,12 @@ def _place_clock(text: str, atom: Atom, preceding: Atom | None, following: Atom 
             atom.first = atom.last = day.first
             atom.value, atom.placed = f"{day.first}{atom.clock}", True
             return
+    # else the day named earlier in the same sentence ("Next Monday the lobby reopens at 8 a.m.")
+    day = preceding
+    if day is not None and day.placed and day.first is not None and day.first == day.last and day.clock is None:
+        if atom.start - day.end < 60 and not _SENTENCE_GAP.search(text, day.end, atom.start):
+            atom.first = atom.last = day.first
+            atom.value, atom.placed = f"{day.first}{atom.clock}", True
 
 
 def timex3(expression: TemporalExpression, hemisphere: str = "north") -> str | None:

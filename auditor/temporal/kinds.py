@@ -132,7 +132,7 @@ ALTERNATIVES = [
     # "a year earlier", "a year ago" is patterns' "ago"
     (
         "earlier",
-        rf"(?i:\b(?:(?P<en>a|an|one|{COUNT})\s+)?(?P<eu>year|month|week|day)s?(?:\s+|-)(?P<ed>earlier|later|before|ago)\b)",
+        rf"(?i:\b(?:(?P<en>a|an|one|{COUNT})\s+)?(?P<eu>year|month|week|day)s?(?:\s+|-)(?P<ed>earlier|later|ago)\b)",
     ),
     # "three days", "a decade", "16-hour", "2,555 days", "several weeks", "twenty four hours"
     (
@@ -173,7 +173,7 @@ _MONTH_LEFT = re.compile(
     r"middle\s+of|start\s+of)[\s-]+)$"
 )
 _FORWARD_CUE = re.compile(
-    r"(?i:\b(?:until|till|through|thru|by|starting|beginning|effective|before|to)[\s-]+(?:(?:early|mid|late)[\s-]+)?$)"
+    r"(?i:\b(?:until|till|through|thru|by|starting|beginning|effective|before)[\s-]+(?:(?:early|mid|late)[\s-]+)?$)"
 )
 _BACKWARD_CUE = re.compile(r"(?i:\b(?:since|after|as\s+of)[\s-]+(?:(?:early|mid|late)[\s-]+)?$)")
 _WEEKDAY_RANGE_AFTER = re.compile(rf"\s*(?:-|–|—|\bto\b|\bthrough\b|\bthru\b|\band\b|\bor\b|,)\s*(?:{_WEEKDAY_RE})\b")
@@ -246,11 +246,9 @@ def direction(left: str, tense: tuple[bool, bool]) -> int:
     if _BACKWARD_CUE.search(left[-40:]):
         return -1
     future, past = tense
-    if past and not future:
-        return -1
-    if future and not past:
+    if future:  # "will be published in December": the future auxiliary outweighs the participle
         return 1
-    return 0
+    return -1 if past else 0
 
 
 def parse_kind(m: re.Match, ctx: dict) -> Atom | None:
