@@ -18,7 +18,7 @@ import sqlite_utils
 
 from auditor.errors import StoreError
 
-SCHEMA_VERSION = 2
+SCHEMA_VERSION = 3
 
 SCHEMA = """
 -- Key/value facts about the database itself: schema_version, tokenizer fingerprint, ...
@@ -87,7 +87,9 @@ CREATE TABLE IF NOT EXISTS statements (
     granularity TEXT NOT NULL,
     role        TEXT NOT NULL,
     char_start  INTEGER NOT NULL,
-    char_end    INTEGER NOT NULL
+    char_end    INTEGER NOT NULL,
+    timex_type  TEXT NOT NULL DEFAULT 'DATE',  -- TIMEX3 type: DATE, TIME, DURATION, SET
+    timex_value TEXT                           -- TIMEX3 value (2026-03-05, P3D, PRESENT_REF); NULL for a range
 );
 CREATE INDEX IF NOT EXISTS statements_passage ON statements(passage_id);
 
@@ -184,6 +186,13 @@ CREATE TABLE IF NOT EXISTS redaction_counts (
     count    INTEGER NOT NULL,
     PRIMARY KEY (set_name, kind)
 );
+""",
+    # 3: the TIMEX3 type and value of each dated statement (docs/dates.md); statements stored before
+    # read as DATE with no value until their file is ingested again (the temporal code is part of
+    # the parser fingerprint, so the next ingest re-reads every file)
+    3: """
+ALTER TABLE statements ADD COLUMN timex_type TEXT NOT NULL DEFAULT 'DATE';
+ALTER TABLE statements ADD COLUMN timex_value TEXT;
 """,
 }
 

@@ -7,7 +7,7 @@ below is worked out by hand from the calendar.
 
 from __future__ import annotations
 
-from datetime import date
+from datetime import date, timedelta
 
 import pytest
 
@@ -221,3 +221,43 @@ def test_review_after_an_expiry_does_not_excuse_it():
 def test_review_after_a_planned_event_does_not_excuse_it():
     text = "Reviewed 2026-07-01. Crews will replace the Alder Street main in spring 2026."
     assert fresh_of(text).reasons == ("overtaken",)
+
+
+# --- TIMEX3 kinds (docs/dates.md, docs/freshness.md) -------------------------------------------------
+
+
+def test_currently_pins_the_as_of_to_the_document_date():
+    # the document is dated 2026-11-20; "currently" says the fee holds on that date, not only on
+    # the older "Updated March 2025" (which alone would make the passage too old on 2027-01-15)
+    text = "Updated March 2025: the late fee is currently $12."
+    f = fresh_of(text, doc_date=date(2026, 11, 20), today=date(2027, 1, 15))
+    assert (f.as_of, f.as_of_source, f.fresh, f.age_days) == (date(2026, 11, 20), "statement", True, 56)
+    older = fresh_of("Updated March 2025: the late fee is $12.", doc_date=date(2026, 11, 20), today=date(2027, 1, 15))
+    assert (older.as_of, older.reasons) == (date(2025, 3, 31), ("too_old",))
+
+
+def test_a_validity_window_counted_from_a_date_expires_at_its_end():
+    # reference: Python's date arithmetic, date(2026, 3, 1) + timedelta(days=90) == date(2026, 5, 30)
+    end = date(2026, 3, 1) + timedelta(days=90)
+    text = "The permit is valid for 90 days from 1 March 2026."
+    on_the_day = fresh_of(text, doc_date=date(2026, 2, 15), today=end)
+    assert on_the_day.expires == end == date(2026, 5, 30) and on_the_day.fresh
+    after = fresh_of(text, doc_date=date(2026, 2, 15), today=end + timedelta(days=1))
+    assert after.expires == end and after.reasons == ("expired",)
+    assert after.as_of == date(2026, 3, 1)
+
+
+def test_a_schedule_never_makes_a_passage_stale():
+    # "every Tuesday" recurs: however long after the document date, it is no stale date; the
+    # passage's age still counts from the document date
+    for text in ("Meters are read every Tuesday.", "Rate tables are reviewed annually in April."):
+        f = fresh_of(text, doc_date=date(2026, 11, 2), today=date(2027, 6, 1))
+        assert f == Freshness(
+            as_of=date(2026, 11, 2), as_of_source="metadata", expires=None, fresh=True, reasons=(), age_days=211
+        ), text
+    (schedule,) = extract("Meters are read every Tuesday.", date(2026, 11, 2))
+    assert (schedule.timex_type, schedule.value, schedule.role) == ("SET", "XXXX-WXX-2", "other")
+    # a schedule statement read as an expiry would be stale; read as a SET it is not, whatever its role
+    as_expiry = TemporalExpression("s", "every Tuesday", date(2026, 1, 6), date(2026, 1, 6), "day", "expires", 0, 13, "SET", "XXXX-WXX-2")
+    f = passage_freshness([as_expiry], audit_date=T, horizon_days=H, doc_date=date(2026, 11, 2), doc_date_source="x")
+    assert f.fresh and f.expires is None

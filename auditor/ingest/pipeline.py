@@ -344,7 +344,7 @@ def _write_document(store, config, vocabulary, f: SourceFile, value: dict, row, 
             ).lastrowid
             store.db.conn.executemany(
                 "INSERT INTO statements(passage_id, expression, sentence, start, end, granularity, role, "
-                "char_start, char_end) VALUES (?,?,?,?,?,?,?,?,?)",
+                "char_start, char_end, timex_type, timex_value) VALUES (?,?,?,?,?,?,?,?,?,?,?)",
                 [
                     (
                         pid,
@@ -356,6 +356,8 @@ def _write_document(store, config, vocabulary, f: SourceFile, value: dict, row, 
                         s.role,
                         s.char_start,
                         s.char_end,
+                        s.timex_type,
+                        s.value,
                     )
                     for s in statements
                 ],

@@ -312,6 +312,8 @@ def _load_statements(store: Store, ids: list[int] | None) -> dict[int, list[Temp
                     row["role"],
                     row["char_start"],
                     row["char_end"],
+                    row["timex_type"],
+                    row["timex_value"],
                 )
             )
     return out
