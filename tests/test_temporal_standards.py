@@ -155,62 +155,80 @@ def test_timex3_of_fiscal_quarters_is_the_calendar_one_or_none():
     assert timex3(only("Rates apply from July 1, 2024 through June 30, 2025.")) is None
 
 
-# --- dateparser as reference for plain absolute forms ----------------------------------------------
-# dateparser (PyPI, the reference date parser) parses each span on its own; our normalizer must
-# agree with it on the forms both understand.
+# --- relative spans against datetime arithmetic ------------------------------------------------------
+# Reference: Python's datetime arithmetic from the reference date (timedelta for days and weeks, the
+# calendar month/year with the day capped at the month's end for months and years), computed here
+# independently of the extractor, which hands these spans to dateparser.
 
-dateparser = pytest.importorskip("dateparser")
-FORMS = [
-    "{month} {day}, {year}",
-    "{day} {month} {year}",
-    "{abbr} {day} {year}",
-    "{weekday}, {month} {day}, {year}",
-    "{month} {year}",
-    "{iso}",
-    "{m:02d}/{day:02d}/{year}",
-    "the {day}{suffix} of {month} {year}",
+RELATIVE_BASE = date(2024, 2, 29)  # a leap day: month and year arithmetic must cap it
+
+
+def _months_back(day: date, months: int) -> date:
+    index = day.year * 12 + day.month - 1 - months
+    year, month = divmod(index, 12)
+    return date(year, month + 1, min(day.day, calendar.monthrange(year, month + 1)[1]))
+
+
+RELATIVE_EXPECTED = [
+    # span, expected point (datetime arithmetic), the interval's granularity
+    ("3 days ago", RELATIVE_BASE - timedelta(days=3), "day"),
+    ("two weeks ago", RELATIVE_BASE - timedelta(weeks=2), "week"),
+    ("a month ago", _months_back(RELATIVE_BASE, 1), "month"),
+    ("1 year ago", _months_back(RELATIVE_BASE, 12), "year"),
+    ("yesterday", RELATIVE_BASE - timedelta(days=1), "day"),
+    ("tomorrow", RELATIVE_BASE + timedelta(days=1), "day"),
+    ("in 3 months", date(2024, 5, 29), "month"),
 ]
 
 
-def _suffix(day):
-    return "th" if 11 <= day <= 13 else {1: "st", 2: "nd", 3: "rd"}.get(day % 10, "th")
+def check_relative_spans() -> None:
+    for span, point, granularity in RELATIVE_EXPECTED:
+        (e,) = extract(f"Noted {span}.", RELATIVE_BASE)
+        assert e.granularity == granularity, span
+        assert e.start <= point <= e.end, span
+        if granularity == "day":
+            assert e.start == e.end == point, span
+        if granularity == "week":  # the ISO week (Monday to Sunday) holding the point
+            assert e.start == point - timedelta(days=point.weekday()) and (e.end - e.start).days == 6, span
+        if granularity == "month":
+            assert (e.start, e.end) == (point.replace(day=1), point.replace(day=calendar.monthrange(point.year, point.month)[1]))
+        if granularity == "year":
+            assert (e.start, e.end) == (date(point.year, 1, 1), date(point.year, 12, 31)), span
 
 
-@settings(max_examples=150, deadline=None)
-@given(dates, st.sampled_from(FORMS))
-def test_agrees_with_dateparser_on_absolute_forms(day, form):
-    span = form.format(
-        month=calendar.month_name[day.month],
-        abbr=calendar.month_abbr[day.month],
-        weekday=calendar.day_name[day.weekday()],
-        day=day.day,
-        year=day.year,
-        m=day.month,
-        iso=day.isoformat(),
-        suffix=_suffix(day.day),
+def test_relative_spans_match_datetime_arithmetic():
+    check_relative_spans()
+
+
+def test_the_relative_check_catches_a_parser_400_days_wrong(monkeypatch):
+    # the check must not agree with whatever parser the extractor uses: with dateparser's answers
+    # moved 400 days, the check fails (the former check compared against dateparser.parse itself,
+    # so 4 of its 6 spans still agreed when both were wrong)
+    from auditor.temporal import patterns
+
+    real = patterns.dateparser_span.__wrapped__
+    monkeypatch.setattr(patterns, "dateparser_span", lambda span, reference: real(span, reference) - timedelta(days=400))
+    with pytest.raises(AssertionError):
+        check_relative_spans()
+
+
+def test_these_checks_run_without_dateparser(tmp_path):
+    # With dateparser hidden, the ISO 8601, calendar and TIMEX3 checks of this module run and pass
+    # (a module-level importorskip used to skip them all); only the dateparser module skips.
+    import subprocess
+    import sys
+    from pathlib import Path
+
+    here = Path(__file__).parent
+    hide = tmp_path / "hide_dateparser.py"
+    hide.write_text("import sys\nsys.modules['dateparser'] = None\n")
+    code = (
+        f"import sys; sys.path.insert(0, {str(tmp_path)!r}); import hide_dateparser, pytest; "
+        f"sys.exit(pytest.main(['-q', '-p', 'no:cacheprovider', '-rs', "
+        f"{str(here / 'test_temporal_standards.py')!r} + '::test_iso_week_dates', "
+        f"{str(here / 'test_temporal_standards.py')!r} + '::test_timex3_values_and_intervals', "
+        f"{str(here / 'test_temporal_dateparser.py')!r}]))"
     )
-    reference = dateparser.parse(
-        span,
-        languages=["en"],
-        settings={
-            "DATE_ORDER": "MDY",
-            "PREFER_DAY_OF_MONTH": "first",
-            "RELATIVE_BASE": datetime(2024, 11, 1),
-            "REQUIRE_PARTS": ["month", "year"],
-        },
-    )
-    assert reference is not None, span
-    e = only(f"Dated {span}.")
-    assert e.start == reference.date(), span
-    if "{day}" not in form and "{iso}" not in form and "{m:02d}" not in form:  # month-year: the whole month
-        assert e.end == reference.date().replace(day=calendar.monthrange(day.year, day.month)[1])
-
-
-def test_agrees_with_dateparser_on_relative_spans():
-    base = datetime(2024, 2, 29)
-    for span in ["3 days ago", "two weeks ago", "a month ago", "1 year ago", "yesterday", "tomorrow"]:
-        reference = dateparser.parse(span, languages=["en"], settings={"RELATIVE_BASE": base}).date()
-        e = extract(f"Noted {span}.", base.date())[0]
-        assert e.start <= reference <= e.end, span
-    # a day-granularity one lands exactly
-    assert extract("Noted 3 days ago.", base.date())[0].start == base.date() - timedelta(days=3)
+    done = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, cwd=here.parent, timeout=120)
+    assert done.returncode == 0, done.stdout + done.stderr
+    assert "17 passed, 1 skipped" in done.stdout, done.stdout
