@@ -177,6 +177,7 @@ def _merge_ranges(text: str, atoms: list[Atom], reference: date | None) -> list[
             and atom.placed
             and atom.start - prev.end <= 30
             and RANGE_JOIN.fullmatch(joiner)
+            and not _PARAGRAPH_BREAK.search(text, prev.end, atom.start)
         ):
             opens = RANGE_OPEN.search(text, max(0, prev.start - 12), prev.start)
             if joiner != "and" or (opens and opens.group().lower().startswith("between")):
@@ -216,8 +217,8 @@ def _modify(text: str, atom: Atom, reference: date | None) -> Atom:
     if atom.granularity in ("day",) or atom.first is None or atom.timex_type != "DATE":
         return atom
     m = MODIFIER_BEFORE.search(text, max(0, atom.start - 30), atom.start)
-    if not m:
-        return atom
+    if not m or _PARAGRAPH_BREAK.search(text, m.start(), atom.start):
+        return atom  # a modifier in the paragraph before is not this one's
     word = m.group("mod").lower().split()
     word = word[1] if word[0] == "the" else word[0]
     modifier = MODIFIERS[word]
@@ -371,6 +372,7 @@ def extract(
 _POSSESSIVE = re.compile(r"(?:'s|’s)?\s+")
 
 
+_MONTH_VALUE = re.compile(r"(?:\d{4}|XXXX)-\d\d")
 _CLOCK_THEN_DAY = re.compile(r"\s*(?:[A-Z]{2,4}\b)?,?\s*")
 
 
@@ -381,10 +383,12 @@ def _join_neighbours(text: str, atoms: list[Atom]) -> list[Atom]:
     out: list[Atom] = []
     for atom in atoms:
         prev = out[-1] if out else None
+        if prev is not None and _PARAGRAPH_BREAK.search(text, prev.end, atom.start):
+            prev = None  # nothing joins across a paragraph break
         if (
             prev is not None
-            and prev.granularity == "month"
-            or (prev is not None and prev.value and prev.value.startswith("XXXX-"))
+            and prev.timex_type == "DATE"
+            and _MONTH_VALUE.fullmatch(prev.value or "")
         ) and (
             atom.granularity == "year" and atom.relative and atom.first is not None and text[prev.end : atom.start].isspace()
         ):
