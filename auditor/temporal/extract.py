@@ -32,6 +32,7 @@ from auditor.temporal import kinds
 from auditor.temporal.patterns import (
     ALTERNATIVES,
     DIGIT_FIRST,
+    MONTH_NUMBERS,
     MODIFIER_BEFORE,
     MODIFIERS,
     RANGE_JOIN,
@@ -154,8 +155,12 @@ def _sentences(text: str) -> list[tuple[int, int]]:
         mark = m.start()
         if text[mark] == ".":
             word = _WORD_BEFORE.search(text, max(0, mark - 12), mark + 1)
-            if word and (word.group(1).lower() in _ABBREVIATIONS or len(word.group(1)) == 1):
-                continue
+            if word and (
+                word.group(1).lower() in _ABBREVIATIONS
+                or len(word.group(1)) == 1
+                or (word.group(1).lower() in MONTH_NUMBERS and text[m.end() : m.end() + 1].isdigit())
+            ):
+                continue  # "Mar. 5", "J. Rivera", "MARCH. 03": the date goes on
         spans.append((start, m.end()))
         start = m.end()
     if start < len(text):
