@@ -258,6 +258,8 @@ def test_a_schedule_never_makes_a_passage_stale():
     (schedule,) = extract("Meters are read every Tuesday.", date(2026, 11, 2))
     assert (schedule.timex_type, schedule.value, schedule.role) == ("SET", "XXXX-WXX-2", "other")
     # a schedule statement read as an expiry would be stale; read as a SET it is not, whatever its role
-    as_expiry = TemporalExpression("s", "every Tuesday", date(2026, 1, 6), date(2026, 1, 6), "day", "expires", 0, 13, "SET", "XXXX-WXX-2")
+    as_expiry = TemporalExpression(
+        "s", "every Tuesday", date(2026, 1, 6), date(2026, 1, 6), "day", "expires", 0, 13, "SET", "XXXX-WXX-2"
+    )
     f = passage_freshness([as_expiry], audit_date=T, horizon_days=H, doc_date=date(2026, 11, 2), doc_date_source="x")
     assert f.fresh and f.expires is None

@@ -245,6 +245,8 @@ def test_check_rejects_an_expression_across_a_paragraph_break():
     # the invariant is checked for every expression again (an exemption used to skip the sentence
     # check for expressions spanning a paragraph break, after that bug was fixed)
     text = "Closed on March 5\n\n2025 was a good year."
-    spanning = TemporalExpression("Closed on March 5", text[10:22], date(2025, 3, 5), date(2025, 3, 5), "day", "event", 10, 22)
+    spanning = TemporalExpression(
+        "Closed on March 5", text[10:22], date(2025, 3, 5), date(2025, 3, 5), "day", "event", 10, 22
+    )
     with pytest.raises(AssertionError):
         check(text, [spanning])

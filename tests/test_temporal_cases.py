@@ -171,7 +171,9 @@ def by_set(cases):
 def regressions(measured: dict, floor: dict) -> list[str]:
     """What fell below the recorded floor of a set: fewer matches, right roles or effects, or more
     false positives."""
-    problems = [f"{key} {measured[key]} < {floor[key]}" for key in ("matched", "roles", "effects") if measured[key] < floor[key]]
+    problems = [
+        f"{key} {measured[key]} < {floor[key]}" for key in ("matched", "roles", "effects") if measured[key] < floor[key]
+    ]
     if measured["extra"] > floor["extra"]:
         problems.append(f"extra {measured['extra']} > {floor['extra']}")
     return problems

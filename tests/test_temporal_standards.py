@@ -191,7 +191,10 @@ def check_relative_spans() -> None:
         if granularity == "week":  # the ISO week (Monday to Sunday) holding the point
             assert e.start == point - timedelta(days=point.weekday()) and (e.end - e.start).days == 6, span
         if granularity == "month":
-            assert (e.start, e.end) == (point.replace(day=1), point.replace(day=calendar.monthrange(point.year, point.month)[1]))
+            assert (e.start, e.end) == (
+                point.replace(day=1),
+                point.replace(day=calendar.monthrange(point.year, point.month)[1]),
+            )
         if granularity == "year":
             assert (e.start, e.end) == (date(point.year, 1, 1), date(point.year, 12, 31)), span
 
@@ -207,7 +210,9 @@ def test_the_relative_check_catches_a_parser_400_days_wrong(monkeypatch):
     from auditor.temporal import patterns
 
     real = patterns.dateparser_span.__wrapped__
-    monkeypatch.setattr(patterns, "dateparser_span", lambda span, reference: real(span, reference) - timedelta(days=400))
+    monkeypatch.setattr(
+        patterns, "dateparser_span", lambda span, reference: real(span, reference) - timedelta(days=400)
+    )
     with pytest.raises(AssertionError):
         check_relative_spans()
 

@@ -56,9 +56,7 @@ _DIGITS = frozenset("0123456789'")
 # first alternative that matches wins, so a fuller date beats a weekday or a bare month. Split by
 # what a candidate starts with, so that a position tries only the forms that can begin there.
 _ALL = ALTERNATIVES + kinds.ALTERNATIVES
-DIGIT_CANDIDATES = re.compile(
-    "|".join(f"(?P<{n}>{b})" for n, b in _ALL if n in DIGIT_FIRST or n in kinds.DIGIT_FIRST)
-)
+DIGIT_CANDIDATES = re.compile("|".join(f"(?P<{n}>{b})" for n, b in _ALL if n in DIGIT_FIRST or n in kinds.DIGIT_FIRST))
 WORD_CANDIDATES = re.compile("|".join(f"(?P<{n}>{b})" for n, b in _ALL if n in WORD_FIRST or n in kinds.WORD_FIRST))
 # Where a candidate can begin; trying the alternation only at these word starts, not at every
 # character, is what makes the scan cheap.
@@ -390,12 +388,11 @@ def _join_neighbours(text: str, atoms: list[Atom]) -> list[Atom]:
         prev = out[-1] if out else None
         if prev is not None and _PARAGRAPH_BREAK.search(text, prev.end, atom.start):
             prev = None  # nothing joins across a paragraph break
-        if (
-            prev is not None
-            and prev.timex_type == "DATE"
-            and _MONTH_VALUE.fullmatch(prev.value or "")
-        ) and (
-            atom.granularity == "year" and atom.relative and atom.first is not None and text[prev.end : atom.start].isspace()
+        if (prev is not None and prev.timex_type == "DATE" and _MONTH_VALUE.fullmatch(prev.value or "")) and (
+            atom.granularity == "year"
+            and atom.relative
+            and atom.first is not None
+            and text[prev.end : atom.start].isspace()
         ):
             assert prev is not None
             month = int((prev.value or "XXXX-00")[5:7])
@@ -434,7 +431,7 @@ def _join_neighbours(text: str, atoms: list[Atom]) -> list[Atom]:
 
 
 def _back_from_quarter(atoms: list[Atom]) -> None:
-    """"... in the third quarter, up from $2 a share a year earlier": the same quarter a year
+    """ "... in the third quarter, up from $2 a share a year earlier": the same quarter a year
     before (in reports a year-ago figure compares the period just named)."""
     quarter = None
     for atom in atoms:
@@ -506,7 +503,10 @@ def _place_clock(text: str, atom: Atom, preceding: Atom | None, following: Atom 
             atom.first = atom.last = day
             atom.value, atom.placed = f"{day}{atom.clock}", True
             return
-    for day, (a, b) in ((preceding, (preceding.end if preceding else 0, atom.start)), (following, (atom.end, following.start if following else 0))):
+    for day, (a, b) in (
+        (preceding, (preceding.end if preceding else 0, atom.start)),
+        (following, (atom.end, following.start if following else 0)),
+    ):
         if day is None or day.clock is not None or not day.placed or day.first is None or day.first != day.last:
             continue
         if _CLOCK_GAP.fullmatch(text, a, b):

@@ -60,9 +60,13 @@ _UNIT_WORD = r"(?:second|minute|hour|day|week|month|quarter|year|decade|centur(?
 _BIG_NUMBER = r"\d{1,3}(?:,\d{3})+|\d+(?:\.\d+)?"
 _TENS = "twenty|thirty|forty|fifty|sixty|seventy|eighty|ninety"
 _COUNT_WORDS = (
-    r"(?:(?:" + _TENS + r")[\s-](?:one|two|three|four|five|six|seven|eight|nine)|"
+    r"(?:(?:"
+    + _TENS
+    + r")[\s-](?:one|two|three|four|five|six|seven|eight|nine)|"
     + "|".join(sorted((w for w in NUMBER_WORDS if w not in ("a", "an")), key=len, reverse=True))
-    + r"|thirteen|fourteen|sixteen|seventeen|nineteen|fifty|seventy|eighty|hundred|" + _TENS + ")"
+    + r"|thirteen|fourteen|sixteen|seventeen|nineteen|fifty|seventy|eighty|hundred|"
+    + _TENS
+    + ")"
 )
 _VAGUE = r"(?:a\s+few|few|several|many|some)"
 NUMBERS = dict(
@@ -78,7 +82,16 @@ NUMBERS = dict(
     hundred=100,
     forty=40,
 )
-_TENS_VALUE = {"twenty": 20, "thirty": 30, "forty": 40, "fifty": 50, "sixty": 60, "seventy": 70, "eighty": 80, "ninety": 90}
+_TENS_VALUE = {
+    "twenty": 20,
+    "thirty": 30,
+    "forty": 40,
+    "fifty": 50,
+    "sixty": 60,
+    "seventy": 70,
+    "eighty": 80,
+    "ninety": 90,
+}
 _CLOCK_SUFFIX = r"(?:[ap]\.m\.?|[ap]m\b|[AP]\.M\.?|[AP]M\b)"
 
 ALTERNATIVES = [
@@ -163,7 +176,14 @@ STARTER_WORDS = (
     "every|each|annually|yearly|once|twice|daily|weekly|biweekly|monthly|quarterly|hourly|nightly|"
     "currently|presently|at|nowadays|now|these|tonight|tomorrow|"
     "noon|midnight|midday|recent|few|several|many|some|third-quarter|fourth-quarter|first-quarter|"
-    "second-quarter|over|" + "|".join(f"{day}s" for day in _WEEKDAY_FULL) + "|" + _TENS + "|" + "|".join(w for w in NUMBERS if w.isalpha()) + "|" + _WEEKDAY_RE
+    "second-quarter|over|"
+    + "|".join(f"{day}s" for day in _WEEKDAY_FULL)
+    + "|"
+    + _TENS
+    + "|"
+    + "|".join(w for w in NUMBERS if w.isalpha())
+    + "|"
+    + _WEEKDAY_RE
 )
 
 # a bare month counts only after one of these (so "The March for Clean Water" and "May I" do not)
@@ -177,8 +197,12 @@ _FORWARD_CUE = re.compile(
 )
 _BACKWARD_CUE = re.compile(r"(?i:\b(?:since|after|as\s+of)[\s-]+(?:(?:early|mid|late)[\s-]+)?$)")
 _WEEKDAY_RANGE_AFTER = re.compile(rf"\s*(?:-|–|—|\bto\b|\bthrough\b|\bthru\b|\band\b|\bor\b|,)\s*(?:{_WEEKDAY_RE})\b")
-_WEEKDAY_RANGE_BEFORE = re.compile(rf"\b(?:{_WEEKDAY_RE})s?\s*(?:-|–|—|\bto\b|\bthrough\b|\bthru\b|\band\b|\bor\b|,)\s*$")
-_PER_UNIT_LEFT = re.compile(r"(?i:(?:\d[\d,.]*|\$\S+|\b(?:one|two|three|four|five|six|seven|eight|nine|ten))\s+(?:[A-Za-z]+\s+)?$)")
+_WEEKDAY_RANGE_BEFORE = re.compile(
+    rf"\b(?:{_WEEKDAY_RE})s?\s*(?:-|–|—|\bto\b|\bthrough\b|\bthru\b|\band\b|\bor\b|,)\s*$"
+)
+_PER_UNIT_LEFT = re.compile(
+    r"(?i:(?:\d[\d,.]*|\$\S+|\b(?:one|two|three|four|five|six|seven|eight|nine|ten))\s+(?:[A-Za-z]+\s+)?$)"
+)
 _SENTENCE_START = re.compile(r"(?:^|[.!?:;\n])\s*[\"'“(]?$")
 
 
@@ -379,7 +403,9 @@ def parse_kind(m: re.Match, ctx: dict) -> Atom | None:
             atom.years_back = -sign * count
             return atom
         if unit == "month":
-            return Atom(s, e, "month", date(point.year, point.month, 1), month_end(point.year, point.month), relative=True)
+            return Atom(
+                s, e, "month", date(point.year, point.month, 1), month_end(point.year, point.month), relative=True
+            )
         return Atom(s, e, "day", point, point, relative=True, past=sign < 0)
     if kind == "weekday":
         if _WEEKDAY_RANGE_AFTER.match(text, m.end("wkd")) or _WEEKDAY_RANGE_BEFORE.search(left):
@@ -395,7 +421,16 @@ def parse_kind(m: re.Match, ctx: dict) -> Atom | None:
         else:
             point = ref - timedelta(days=back) if back <= ahead else ref + timedelta(days=ahead)
         if g("wkp"):
-            return Atom(s, e, "day", point, point, relative=True, timex_type="TIME", value=f"{point}T{PART_OF_DAY[g('wkp').lower()]}")
+            return Atom(
+                s,
+                e,
+                "day",
+                point,
+                point,
+                relative=True,
+                timex_type="TIME",
+                value=f"{point}T{PART_OF_DAY[g('wkp').lower()]}",
+            )
         return Atom(s, e, "day", point, point, relative=True, past=point < ref, future=point > ref)
     if kind == "baremonth":
         word = g("bm")
@@ -435,4 +470,6 @@ def _yearless_quarter(m, s, e, ref, ctx, left) -> Atom | None:
     elif way <= 0 and first_month > ref.month:
         year -= 1  # no tense: the latest such quarter begun by the reference date
     first, last = month_span(year, first_month, size)
-    return Atom(s, e, "quarter" if size == 3 else "half", first, last, relative=True, past=last < ref, future=first > ref)
+    return Atom(
+        s, e, "quarter" if size == 3 else "half", first, last, relative=True, past=last < ref, future=first > ref
+    )
