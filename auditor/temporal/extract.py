@@ -32,9 +32,9 @@ from auditor.temporal import kinds
 from auditor.temporal.patterns import (
     ALTERNATIVES,
     DIGIT_FIRST,
-    MONTH_NUMBERS,
     MODIFIER_BEFORE,
     MODIFIERS,
+    MONTH_NUMBERS,
     RANGE_JOIN,
     RANGE_OPEN,
     STARTER_PHRASES,
