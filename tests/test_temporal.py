@@ -48,6 +48,9 @@ def test_as_json_fields_of_the_dates_command():
         "end": "2024-10-02",
         "granularity": "day",
         "role": "as_of",
+        "type": "DATE",
+        "value": "2024-10-02",
+        "offsets": {"begin": 8, "end": 18},
     }
 
 

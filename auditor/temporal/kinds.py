@@ -25,6 +25,7 @@ from __future__ import annotations
 import calendar
 import re
 from datetime import date, timedelta
+from typing import Any
 
 from auditor.temporal.patterns import (
     COUNT,
@@ -277,8 +278,9 @@ def direction(left: str, tense: tuple[bool, bool]) -> int:
 
 def parse_kind(m: re.Match, ctx: dict) -> Atom | None:
     """Turn a match of one of ALTERNATIVES into an atom, or None when it is not one after all."""
-    kind = m.lastgroup
-    g = m.groupdict().get
+    kind = m.lastgroup or ""
+    groups: dict[str, Any] = m.groupdict()
+    g = groups.__getitem__
     s, e = m.start(kind), m.end(kind)
     text, ref = ctx["text"], ctx["reference"]
     if ref is None:  # every kind here is read against the reference date
@@ -447,7 +449,8 @@ def parse_kind(m: re.Match, ctx: dict) -> Atom | None:
 
 
 def _yearless_quarter(m, s, e, ref, ctx, left) -> Atom | None:
-    g = m.groupdict().get
+    groups: dict[str, Any] = m.groupdict()
+    g = groups.__getitem__
     latest = g("yql")
     qualifier = m.group(m.lastgroup).lower()
     if latest or "year-ago" in qualifier or "year-earlier" in qualifier:
