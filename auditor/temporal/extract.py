@@ -270,11 +270,16 @@ def extract(
             sentence = normalized[index] = " ".join(text[s_start:s_end].split())
         return index, sentence
 
+    tenses: dict[int, tuple[bool, bool]] = {}  # once per sentence, like `normalized`
+
     def tense_at(position: int) -> tuple[bool, bool]:
         """(future, past) of the sentence at `position`, for reading yearless dates (kinds.py)."""
-        sentence = sentence_at(position)[1]
-        future, past = tense(sentence)
-        return future, past or _REPORTED.search(sentence) is not None
+        index, sentence = sentence_at(position)
+        cues = tenses.get(index)
+        if cues is None:
+            future, past = tense(sentence)
+            cues = tenses[index] = (future, past or _REPORTED.search(sentence) is not None)
+        return cues
 
     ctx = {
         "text": text,
