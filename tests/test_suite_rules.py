@@ -27,10 +27,7 @@ SLEEP_THEN_POLL = "sleep, then assert on poll()"
 
 # Known breaches, (file, rule) -> how many, each with the work that removes it. An entry that no
 # longer matches fails too, so that this set only shrinks.
-ALLOWED: dict[tuple[str, str], int] = {
-    # The temporal fuzz tests' deadlines (2000 ms and 3000 ms), left to the work on those tests.
-    ("test_fuzz_temporal.py", DEADLINE): 2,
-}
+ALLOWED: dict[tuple[str, str], int] = {}
 
 
 def _dotted(node: ast.expr) -> str:

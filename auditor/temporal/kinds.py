@@ -201,8 +201,11 @@ _WEEKDAY_RANGE_AFTER = re.compile(rf"\s*(?:-|–|—|\bto\b|\bthrough\b|\bthru\b
 _WEEKDAY_RANGE_BEFORE = re.compile(
     rf"\b(?:{_WEEKDAY_RE})s?\s*(?:-|–|—|\bto\b|\bthrough\b|\bthru\b|\band\b|\bor\b|,)\s*$"
 )
+# A number starts where a run of digits starts (the lookbehind), so a long run is read once, not
+# once from each of its digits; a sum of money is "$" and digits ("$500", "$5m").
 _PER_UNIT_LEFT = re.compile(
-    r"(?i:(?:\d[\d,.]*|\$\S+|\b(?:one|two|three|four|five|six|seven|eight|nine|ten))\s+(?:[A-Za-z]+\s+)?$)"
+    r"(?i:(?:(?<![\d,.])\d[\d,.]*|\$[\d,.]+[A-Za-z]*|\b(?:one|two|three|four|five|six|seven|eight|nine|ten))"
+    r"\s+(?:[A-Za-z]+\s+)?$)"
 )
 _SENTENCE_START = re.compile(r"(?:^|[.!?:;\n])\s*[\"'“(]?$")
 
