@@ -25,6 +25,7 @@ from __future__ import annotations
 import bisect
 import dataclasses
 import re
+from collections.abc import Iterator
 from datetime import date, timedelta
 
 from auditor.models import TemporalExpression
@@ -39,6 +40,7 @@ from auditor.temporal.patterns import (
     RANGE_OPEN,
     STARTER_PHRASES,
     STARTER_WORDS,
+    STARTER_WORDS_ANY_CASE,
     WORD_FIRST,
     Atom,
     month_end,
@@ -58,11 +60,33 @@ _DIGITS = frozenset("0123456789'")
 _ALL = ALTERNATIVES + kinds.ALTERNATIVES
 DIGIT_CANDIDATES = re.compile("|".join(f"(?P<{n}>{b})" for n, b in _ALL if n in DIGIT_FIRST or n in kinds.DIGIT_FIRST))
 WORD_CANDIDATES = re.compile("|".join(f"(?P<{n}>{b})" for n, b in _ALL if n in WORD_FIRST or n in kinds.WORD_FIRST))
-# Where a candidate can begin; trying the alternation only at these word starts, not at every
-# character, is what makes the scan cheap.
-STARTS = re.compile(
-    rf"(?<!\w)(?=['\d]|Q[1-4]|H[12]|FY|F\.Y\.|(?:{STARTER_WORDS}|(?i:{kinds.STARTER_WORDS}))\b|(?i:{STARTER_PHRASES}))"
-)
+# Where a candidate can begin: at a word start (never inside a word), a digit or an apostrophe
+# ("'24"), a code (Q3, H1, FY), a starter word, or a small word before what can follow it there
+# ("the next", "in 3"). Trying the alternation only there, not at every character, is what makes
+# the scan cheap; the words are looked up in sets, not tried as a regex alternation, which costs
+# a try of every word at every word start.
+_WORD_START = re.compile(r"(?<!\w)(?:'|\w+)")
+_CODES = ("Q1", "Q2", "Q3", "Q4", "H1", "H2", "FY", "F.Y.")
+_ANY_CASE = STARTER_WORDS_ANY_CASE | kinds.STARTER_WORDS
+_PHRASE = re.compile(rf"(?i:{STARTER_PHRASES})")
+_PHRASE_FIRST = frozenset(("the", "in"))  # the others begin with a digit or a starter word
+
+
+def _starts(text: str) -> Iterator[int]:
+    """Offsets in `text` where a candidate can begin, in text order."""
+    for m in _WORD_START.finditer(text):
+        word, at = m.group(), m.start()
+        if (
+            word == "'"
+            or word[0].isdecimal()
+            or word in STARTER_WORDS
+            or text.startswith(_CODES, at)
+            or (lower := word.lower()) in _ANY_CASE
+            or (lower in _PHRASE_FIRST and _PHRASE.match(text, at))
+        ):
+            yield at
+
+
 # a part of the day after a day ("Friday morning", "yesterday evening") makes it a TIMEX3 TIME
 _PART_AFTER = re.compile(r"\s+(?P<part>morning|afternoon|evening|night)\b", re.I)
 # text between a duration and the date it is counted from ("90 days from 1 March 2026")
@@ -292,10 +316,9 @@ def extract(
     }
     atoms: list[Atom] = []
     scanned_to = 0
-    for start in STARTS.finditer(text):
-        if start.start() < scanned_to:
+    for at in _starts(text):
+        if at < scanned_to:
             continue
-        at = start.start()
         pattern = DIGIT_CANDIDATES if text[at] in _DIGITS else WORD_CANDIDATES
         m = pattern.match(text, at)
         if m is not None and (cut := _PARAGRAPH_BREAK.search(text, at, m.end())):

@@ -25,6 +25,7 @@ from __future__ import annotations
 import calendar
 import re
 from datetime import date, timedelta
+from collections.abc import Callable
 from typing import Any
 
 from auditor.temporal.patterns import (
@@ -173,18 +174,18 @@ ALTERNATIVES = [
 NAMES = frozenset(name for name, _ in ALTERNATIVES)
 DIGIT_FIRST = frozenset({"setmday", "settimes", "clock", "duration", "earlier"})
 WORD_FIRST = NAMES
-STARTER_WORDS = (
-    "every|each|annually|yearly|once|twice|daily|weekly|biweekly|monthly|quarterly|hourly|nightly|"
-    "currently|presently|at|nowadays|now|these|tonight|tomorrow|"
-    "noon|midnight|midday|recent|few|several|many|some|third-quarter|fourth-quarter|first-quarter|"
-    "second-quarter|over|"
-    + "|".join(f"{day}s" for day in _WEEKDAY_FULL)
-    + "|"
-    + _TENS
-    + "|"
-    + "|".join(w for w in NUMBERS if w.isalpha())
-    + "|"
-    + _WEEKDAY_RE
+# words (in any case) where one of these kinds can begin (extract._starts); "third-quarter" begins
+# with "third", a starter of `patterns`
+STARTER_WORDS = frozenset(
+    (
+        *"every each annually yearly once twice daily weekly biweekly monthly quarterly hourly nightly "
+        "currently presently at nowadays now these tonight tomorrow noon midnight midday recent few several "
+        "many some over".split(),
+        *(f"{day.lower()}s" for day in _WEEKDAY_FULL),
+        *(day.lower() for day in _WEEKDAY_FULL),
+        *_TENS.split("|"),
+        *(w for w in NUMBERS if w.isalpha()),
+    )
 )
 
 # a bare month counts only after one of these (so "The March for Clean Water" and "May I" do not)
@@ -279,11 +280,17 @@ def direction(left: str, tense: tuple[bool, bool]) -> int:
     return -1 if past else 0
 
 
+def _getter(m: re.Match) -> Callable[[str], Any]:
+    """A named group of `m` (KeyError for a name its pattern lacks); `groupdict` would build a dict
+    of every group of the alternation for each candidate, the dearest step of the scan."""
+    index = m.re.groupindex
+    return lambda name: m.group(index[name])
+
+
 def parse_kind(m: re.Match, ctx: dict) -> Atom | None:
     """Turn a match of one of ALTERNATIVES into an atom, or None when it is not one after all."""
     kind = m.lastgroup or ""
-    groups: dict[str, Any] = m.groupdict()
-    g = groups.__getitem__
+    g = _getter(m)
     s, e = m.start(kind), m.end(kind)
     text, ref = ctx["text"], ctx["reference"]
     if ref is None:  # every kind here is read against the reference date
@@ -452,8 +459,7 @@ def parse_kind(m: re.Match, ctx: dict) -> Atom | None:
 
 
 def _yearless_quarter(m, s, e, ref, ctx, left) -> Atom | None:
-    groups: dict[str, Any] = m.groupdict()
-    g = groups.__getitem__
+    g = _getter(m)
     latest = g("yql")
     qualifier = m.group(m.lastgroup).lower()
     if latest or "year-ago" in qualifier or "year-earlier" in qualifier:

@@ -2,7 +2,7 @@
 
 One alternation holds every candidate form; the alternatives come longest-first because Python's
 `re` takes the first alternative that matches at a position, not the longest, and it is tried only
-where a candidate can start (`STARTS`). Month names match capitalized, in capitals, or in lower
+where a candidate can start (`extract._starts`). Month names match capitalized, in capitals, or in lower
 case except "may", "march" and "mar", which in lower case are verbs; a month counts only when a day
 or a year follows it ("May I ..." never matches). Bare years are kept only next to a cue (`year_in_context`).
 
@@ -186,11 +186,13 @@ WORD_FIRST = frozenset(
 )
 assert DIGIT_FIRST | WORD_FIRST == {n for n, _ in _ALTERNATIVES}
 
-# Words where a candidate can begin (extract.STARTS): trying the alternation only at these word
-# starts, instead of at every character, is what makes the scan cheap.
-STARTER_WORDS = (
-    rf"[Ff]iscal|{MONTH_NAMES}|{WEEKDAY_NAMES}|(?i:first|second|third|fourth|last|final|spring|summer|fall|"
-    "autumn|winter|this|next|past|previous|coming|current|following|yesterday|today|tomorrow)"
+# Words where a candidate can begin (extract._starts): trying the alternation only at these word
+# starts, instead of at every character, is what makes the scan cheap. Month and weekday names as
+# written (their case matters, see above); the other words in any case.
+STARTER_WORDS = frozenset(("Fiscal", "fiscal", *MONTH_NAMES.split("|"), *WEEKDAY_NAMES.split("|")))
+STARTER_WORDS_ANY_CASE = frozenset(
+    "first second third fourth last final spring summer fall autumn winter this next past previous coming "
+    "current following yesterday today tomorrow".split()
 )
 # frequent small words start a candidate only before what can follow them there
 STARTER_PHRASES = (
@@ -448,7 +450,11 @@ def _day_atom(m, a, month: int, day: int, year: str | None) -> Atom | None:
 def parse_candidate(m, ctx) -> Atom | None:
     """Turn the candidate match `m` into an atom, or None when it is not a date after all."""
     kind = m.lastgroup
-    g = m.groupdict().get  # the digit- and word-first alternations hold different groups
+    index = m.re.groupindex  # the digit- and word-first alternations hold different groups
+
+    def g(name: str) -> str | None:  # not `groupdict`, which builds a dict of every group
+        return m.group(name) if name in index else None
+
     s, e = m.start(kind), m.end(kind)
     if kind in ("isodate", "numeric", "isoordinal") and IDENTIFIER_BEFORE.search(ctx["text"], max(0, s - 20), s):
         return None

@@ -92,8 +92,10 @@ _PERIOD_LEFT = (
 
 def _compile(pairs):
     """One alternation with a group per role; its last match in a window is the nearest cue.
-    Where two cues start alike, the earlier pair wins ("valid through" is an expiry, not "valid")."""
-    return re.compile("|".join(rf"(?P<{role}>\b(?:{body})\b[\s:,-]*)" for role, body in pairs), re.I)
+    Where two cues start alike, the earlier pair wins ("valid through" is an expiry, not "valid").
+    Matched against lower-cased text: without re.I the engine skips an alternative at its first
+    letter, which makes the scan of each window several times cheaper."""
+    return re.compile("|".join(rf"(?P<{role}>\b(?:{body})\b[\s:,-]*)" for role, body in pairs))
 
 
 _STRONG_CUES = _compile(_STRONG)
@@ -222,11 +224,16 @@ _NEW_VERB = re.compile(r"(?i:\b(?:was|were|is|are|will|has|have|had|be|been)\b)"
 _AS_OF_REACH = 20  # "reviewed this guide in January 2024", not "updated meters were installed in 2019"
 
 
+_ASCII_LOWER = str.maketrans("ABCDEFGHIJKLMNOPQRSTUVWXYZ", "abcdefghijklmnopqrstuvwxyz")
+
+
 def _nearest(cues: re.Pattern, left: str, reach: int) -> str | None:
     """The role of the cue nearest the end of `left`, if no more than `reach` characters of the
     same clause stand between it and the expression (an as-of cue: fewer, and no new verb)."""
     last = None
-    for last in cues.finditer(left, max(0, len(left) - reach - 30)):  # noqa: B007 - keep the last match
+    # the cues are ASCII and matched in lower case (`_compile`); offsets stay those of `left`
+    lower = left.lower() if left.isascii() else left.translate(_ASCII_LOWER)
+    for last in cues.finditer(lower, max(0, len(left) - reach - 30)):  # noqa: B007 - keep the last match
         pass
     if last is None:
         return None
