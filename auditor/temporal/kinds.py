@@ -24,8 +24,8 @@ from __future__ import annotations
 
 import calendar
 import re
-from datetime import date, timedelta
 from collections.abc import Callable
+from datetime import date, timedelta
 from typing import Any
 
 from auditor.temporal.patterns import (
