@@ -47,7 +47,7 @@ from auditor.temporal.patterns import (
     narrow,
     parse_candidate,
 )
-from auditor.temporal.roles import role_for, tense
+from auditor.temporal.roles import nearest_tense, role_for, tense
 from auditor.temporal.timex import interval_value
 
 __all__ = ["extract", "timex3"]
@@ -297,8 +297,13 @@ def extract(
     tenses: dict[int, tuple[bool, bool]] = {}  # once per sentence, like `normalized`
 
     def tense_at(position: int) -> tuple[bool, bool]:
-        """(future, past) of the sentence at `position`, for reading yearless dates (kinds.py)."""
+        """(future, past) at `position`, for reading yearless dates (kinds.py): by the nearest
+        tense word in its sentence, else by the sentence."""
         index, sentence = sentence_at(position)
+        s_start, s_end = sentences[index] if sentences else (0, len(text))
+        local = nearest_tense(text[max(s_start, position - 80) : position], text[position : min(s_end, position + 80)])
+        if local is not None:
+            return local
         cues = tenses.get(index)
         if cues is None:
             future, past = tense(sentence)

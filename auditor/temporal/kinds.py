@@ -477,7 +477,7 @@ def _yearless_quarter(m, s, e, ref, ctx, left) -> Atom | None:
     first_month = (number - 1) * size + 1
     way = direction(left, ctx["tense"](s))
     year = ref.year
-    if way > 0 and first_month + size - 1 < ref.month:
+    if way > 0 and first_month + size - 1 < ref.month - 3:
         year += 1
     elif way <= 0 and first_month > ref.month:
         year -= 1  # no tense: the latest such quarter begun by the reference date

@@ -245,6 +245,35 @@ def _nearest(cues: re.Pattern, left: str, reach: int) -> str | None:
     return last.lastgroup
 
 
+# the tense words of `tense`, and news past tense the role lexicon does not need ("said" opens most
+# reported sentences; a verb in -ed: "reached", not "need"). A participle after is/are/be ("will be
+# paid", "is closed") is no past; "would" looks ahead from a past report, "payable" to a payment.
+_TENSE_CUE = re.compile(
+    r"(?i:\b(?:(?P<future>" + "|".join(sorted(_FUTURE_WORDS | {"would", "payable"})) + r")"
+    r"|(?<!\bis )(?<!\bare )(?<!\bbe )(?<!\bbeen )(?<!\bget )(?<!\bgets )(?P<past>"
+    + "|".join(sorted(_PAST_WORDS))
+    + r"|said|told|grew|came|went|gave|made|saw|won|lost|paid|sold|bought|left|[a-z]{2,}[^e\s]ed))\b)"
+)
+
+
+def nearest_tense(left: str, right: str) -> tuple[bool, bool] | None:
+    """(future, past) by the tense word nearest an expression, `left` ending and `right` starting
+    at it; None when neither holds one. In "said on Friday it will close on Monday" the nearest
+    verb, not the sentence, tells which Friday and which Monday."""
+    before = None
+    for before in _TENSE_CUE.finditer(left):  # noqa: B007 - keep the last match
+        pass
+    after = _TENSE_CUE.search(right)
+    if before is None and after is None:
+        return None
+    if after is None or (before is not None and len(left) - before.end() <= after.start()):
+        cue = before
+    else:
+        cue = after
+    assert cue is not None
+    return (True, False) if cue.lastgroup == "future" else (False, True)
+
+
 @functools.lru_cache(maxsize=1024)
 def tense(sentence: str) -> tuple[bool, bool]:
     """(speaks of the future, speaks of the past), computed once per sentence."""
