@@ -479,14 +479,18 @@ def _back_from_quarter(atoms: list[Atom]) -> None:
             atom.value = interval_value(atom.first, atom.last, "quarter")
 
 
+_NEAR_DAYS = 45
+
+
 def _give_year(text: str, atom: Atom, reference: date, sentence_tense: tuple[bool, bool]) -> None:
     """The year of a month-day written without one: the reference year, unless the sentence's
     tense (or a cue) puts the date on the other side of the reference date (kinds.direction)."""
     way = kinds.direction(text[max(0, atom.start - 40) : atom.start], sentence_tense)
     year = reference.year
-    if way < 0 and (atom.month, atom.day) > (reference.month, reference.day):
+    gap = (atom.month - reference.month) * 31 + atom.day - reference.day  # days, near enough
+    if way < 0 and gap > _NEAR_DAYS:
         year -= 1
-    elif way > 0 and (atom.month, atom.day) < (reference.month, reference.day):
+    elif way > 0 and gap < -_NEAR_DAYS:
         year += 1
     try:
         atom.first = atom.last = date(year, atom.month, atom.day)
