@@ -247,9 +247,11 @@ def _nearest(cues: re.Pattern, left: str, reach: int) -> str | None:
 
 # the tense words of `tense`, and news past tense the role lexicon does not need ("said" opens most
 # reported sentences; a verb in -ed: "reached", not "need"). A participle after is/are/be ("will be
-# paid", "is closed") is no past; "would" looks ahead from a past report, "payable" to a payment.
+# paid", "is closed") is no past; "would" looks ahead from a past report, "payable" to a payment,
+# "plans to", "set to" to what is planned.
 _TENSE_CUE = re.compile(
-    r"(?i:\b(?:(?P<future>" + "|".join(sorted(_FUTURE_WORDS | {"would", "payable"})) + r")"
+    r"(?i:\b(?:(?P<future>" + "|".join(sorted(_FUTURE_WORDS | {"would", "payable"}))
+    + r"|(?:plans?|planning|expects?|intends?|aims?|set|due)\s+to)"
     r"|(?<!\bis )(?<!\bare )(?<!\bbe )(?<!\bbeen )(?<!\bget )(?<!\bgets )(?P<past>"
     + "|".join(sorted(_PAST_WORDS))
     + r"|said|told|grew|came|went|gave|made|saw|won|lost|paid|sold|bought|left|[a-z]{2,}[^e\s]ed))\b)"
