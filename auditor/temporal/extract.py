@@ -62,7 +62,7 @@ DIGIT_CANDIDATES = re.compile("|".join(f"(?P<{n}>{b})" for n, b in _ALL if n in 
 WORD_CANDIDATES = re.compile("|".join(f"(?P<{n}>{b})" for n, b in _ALL if n in WORD_FIRST or n in kinds.WORD_FIRST))
 # Where a candidate can begin: at a word start (never inside a word), a digit or an apostrophe
 # ("'24"), a code (Q3, H1, FY), a starter word, or a small word before what can follow it there
-# ("the next", "in 3"). Trying the alternation only there, not at every character, is what makes
+# ("the next", "in 3"), a unit before a hyphen ("year-earlier"). Trying the alternation only there, not at every character, is what makes
 # the scan cheap; the words are looked up in sets, not tried as a regex alternation, which costs
 # a try of every word at every word start.
 _WORD_START = re.compile(r"(?<!\w)(?:'|\w+)")
@@ -83,6 +83,7 @@ def _starts(text: str) -> Iterator[int]:
             or text.startswith(_CODES, at)
             or (lower := word.lower()) in _ANY_CASE
             or (lower in _PHRASE_FIRST and _PHRASE.match(text, at))
+            or (lower in kinds.HYPHEN_STARTERS and text.startswith("-", m.end()))
         ):
             yield at
 

@@ -133,10 +133,10 @@ ALTERNATIVES = [
         "partofday",
         r"(?i:\b(?:(?P<pdd>this|last|tomorrow|yesterday)\s+(?P<pdp>morning|afternoon|evening|night)|(?P<tonight>tonight))\b)",
     ),
-    # clock times: "10:35 a.m.", "6 p.m", "noon", "midnight"
+    # clock times: "10:35 a.m.", "6 p.m", "noon", "midnight" (not "High Noon", a title)
     (
         "clock",
-        rf"(?<![\w:.$])(?:(?P<ch>[01]?\d)(?::(?P<cm>[0-5]\d))?\s*(?P<cap>{_CLOCK_SUFFIX})|(?i:(?P<cn>noon|midnight|midday)\b))",
+        rf"(?<![\w:.$])(?:(?P<ch>[01]?\d)(?::(?P<cm>[0-5]\d))?\s*(?P<cap>{_CLOCK_SUFFIX})|(?i:(?<!high\s)(?P<cn>noon|midnight|midday)\b))",
     ),
     # "recent weeks", "the next few months", "the coming years", "the past few days"
     (
@@ -174,6 +174,8 @@ ALTERNATIVES = [
 NAMES = frozenset(name for name, _ in ALTERNATIVES)
 DIGIT_FIRST = frozenset({"setmday", "settimes", "clock", "duration", "earlier"})
 WORD_FIRST = NAMES
+# units that begin a kind before a hyphen ("year-earlier levels", "the year-ago period")
+HYPHEN_STARTERS = frozenset(("year", "month", "week", "day"))
 # words (in any case) where one of these kinds can begin (extract._starts); "third-quarter" begins
 # with "third", a starter of `patterns`
 STARTER_WORDS = frozenset(

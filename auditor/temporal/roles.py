@@ -250,7 +250,8 @@ def _nearest(cues: re.Pattern, left: str, reach: int) -> str | None:
 # paid", "is closed") is no past; "would" looks ahead from a past report, "payable" to a payment,
 # "plans to", "set to" to what is planned.
 _TENSE_CUE = re.compile(
-    r"(?i:\b(?:(?P<future>" + "|".join(sorted(_FUTURE_WORDS | {"would", "payable"}))
+    r"(?i:\b(?:(?P<future>"
+    + "|".join(sorted(_FUTURE_WORDS | {"would", "payable"}))
     + r"|(?:plans?|planning|expects?|intends?|aims?|set|due)\s+to)"
     r"|(?<!\bis )(?<!\bare )(?<!\bbe )(?<!\bbeen )(?<!\bget )(?<!\bgets )(?P<past>"
     + "|".join(sorted(_PAST_WORDS))
