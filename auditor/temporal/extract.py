@@ -80,7 +80,7 @@ def _starts(text: str) -> Iterator[int]:
             word == "'"
             or word[0].isdecimal()
             or word in STARTER_WORDS
-            or text.startswith(_CODES, at)
+            or (word[0] in "QHF" and text.startswith(_CODES, at))
             or (lower := word.lower()) in _ANY_CASE
             or (lower in _PHRASE_FIRST and _PHRASE.match(text, at))
             or (lower in kinds.HYPHEN_STARTERS and text.startswith("-", m.end()))
