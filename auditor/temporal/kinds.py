@@ -1,17 +1,19 @@
 """Candidate patterns for the TIMEX3 kinds read against the document date (docs/dates.md).
 
-Weekdays, bare months and quarters without a year, present/past/future references ("now",
-"currently", "recently"), durations ("three days", "a decade", "16-hour"), vague spans ("recent
+Weekdays, bare months and quarters without a year, present and future references ("now",
+"currently", "the future"), durations ("three days", "a decade", "16-hour"), vague spans ("recent
 weeks", "the next few months"), schedules (TIMEX3 SET: "every Tuesday", "daily", "annually in
 April"), clock times and parts of the day. They join the alternation of `patterns` after its own
 forms (`extract` builds the two), so a fuller date ("Friday, March 5, 2024", "May 5", "Q3 2024")
 always wins at the same position.
 
-Year inference (docs/dates.md): a weekday is the one on or before the reference date in a
-past-tense sentence, on or after it in a future-tense one, else the nearest; a bare month and a
+Year inference (docs/dates.md): a weekday is the one on or before the reference date when the
+tense points back, on or after it when it points ahead, else the nearest; a bare month and a
 quarter or half without a year take the reference year unless that lies on the wrong side of the
-reference date for the sentence's tense (or for a cue: "until/through/starting December" point
-forward, "since December" back), when the adjacent year is taken. A bare month in a sentence with
+reference date for the tense (or for a cue: "until/through/starting December" point forward,
+"since December" back), when the adjacent year is taken; a quarter that ended in the three months
+before the reference date stays the one meant even ahead. The tense is that of the tense word
+nearest the expression, else of its sentence (`extract`, `roles.nearest_tense`). A bare month in a sentence with
 neither tense nor cue is a recurring month (`XXXX-06`: "Water use peaks in June"), with no place on
 the calendar; a quarter without tense is the latest one begun by the reference date.
 
@@ -123,7 +125,7 @@ ALTERNATIVES = [
     ),
     # "on Mondays", "Saturdays"
     ("setweekdays", rf"(?P<swds>(?:{_WEEKDAY_RE})s)\b"),
-    # "now", "currently", "recently", "the future" (TIMEX3 PRESENT_REF, PAST_REF, FUTURE_REF)
+    # "now", "currently", "the future" (TIMEX3 PRESENT_REF, FUTURE_REF)
     (
         "present",
         r"(?i:\b(?P<pr>currently|presently|at\s+present|nowadays|now|these\s+days|at\s+the\s+moment|the\s+future)\b)",
