@@ -228,12 +228,12 @@ def _join(a: Atom, b: Atom, reference: date | None) -> Atom | None:
         if (a.month, a.day) > (b.first.month, b.first.day):
             year -= 1
         a = Atom(a.start, a.end, a.granularity, date(year, a.month, a.day), date(year, a.month, a.day))
-    elif b.first is None and a.first is not None:
+    elif b.first is None and a.last is not None:
         year = a.last.year
         if (b.month, b.day) < (a.last.month, a.last.day):
             year += 1
         b = Atom(b.start, b.end, b.granularity, date(year, b.month, b.day), date(year, b.month, b.day))
-    if a.first is None or b.first is None or a.first > b.last:
+    if a.first is None or b.last is None or a.first > b.last:
         return None
     order = ("day", "week", "month", "season", "quarter", "half", "year", "decade")
     granularity = min(a.granularity, b.granularity, key=order.index)
@@ -242,7 +242,7 @@ def _join(a: Atom, b: Atom, reference: date | None) -> Atom | None:
 
 def _modify(text: str, atom: Atom, reference: date | None) -> Atom:
     """Apply an early/mid/late or start/end-of modifier written just before the atom."""
-    if atom.granularity in ("day",) or atom.first is None or atom.timex_type != "DATE":
+    if atom.granularity in ("day",) or atom.first is None or atom.last is None or atom.timex_type != "DATE":
         return atom
     m = MODIFIER_BEFORE.search(text, max(0, atom.start - 30), atom.start)
     if not m or _PARAGRAPH_BREAK.search(text, m.start(), atom.start):
@@ -341,7 +341,7 @@ def extract(
             atom = None
         if atom is None:
             continue
-        if atom.placed and atom.first is not None:
+        if atom.placed and atom.first is not None and atom.last is not None:
             if atom.value is None and atom.timex_type == "DATE":
                 atom.value = interval_value(atom.first, atom.last, atom.granularity, hemisphere)
             if atom.granularity == "day" and atom.first == atom.last and atom.timex_type == "DATE":
@@ -367,7 +367,7 @@ def extract(
             if reference_date is None:
                 continue
             atom.first = atom.last = reference_date
-        assert atom.last is not None
+        assert atom.first is not None and atom.last is not None
         index, sentence = sentence_at(atom.start)
         s_start, s_end = sentences[index]
         left_from = max(s_start, previous_in_sentence.get(index, s_start))
@@ -533,6 +533,8 @@ def _anchor(text: str, atoms: list[Atom]) -> None:
 def _place_clock(text: str, atom: Atom, preceding: Atom | None, following: Atom | None) -> None:
     """A clock time takes the day written next to it ("Monday at 8 a.m.", "8 a.m. on Monday"), or
     the day of the clock time it runs from ("10 p.m. to 2 a.m." ends on the next day)."""
+    if atom.clock is None:
+        return
     if preceding is not None and preceding.clock is not None and preceding.placed and preceding.first is not None:
         if _CLOCK_TO_CLOCK.fullmatch(text, preceding.end, atom.start):
             day = preceding.first
@@ -541,22 +543,34 @@ def _place_clock(text: str, atom: Atom, preceding: Atom | None, following: Atom 
             atom.first = atom.last = day
             atom.value, atom.placed = f"{day}{atom.clock}", True
             return
-    for day, (a, b) in (
+    for beside, (a, b) in (
         (preceding, (preceding.end if preceding else 0, atom.start)),
         (following, (atom.end, following.start if following else 0)),
     ):
-        if day is None or day.clock is not None or not day.placed or day.first is None or day.first != day.last:
+        if (
+            beside is None
+            or beside.clock is not None
+            or not beside.placed
+            or beside.first is None
+            or beside.first != beside.last
+        ):
             continue
         if _CLOCK_GAP.fullmatch(text, a, b):
-            atom.first = atom.last = day.first
-            atom.value, atom.placed = f"{day.first}{atom.clock}", True
+            atom.first = atom.last = beside.first
+            atom.value, atom.placed = f"{beside.first}{atom.clock}", True
             return
     # else the day named earlier in the same sentence ("Next Monday the lobby reopens at 8 a.m.")
-    day = preceding
-    if day is not None and day.placed and day.first is not None and day.first == day.last and day.clock is None:
-        if atom.start - day.end < 60 and not _SENTENCE_GAP.search(text, day.end, atom.start):
-            atom.first = atom.last = day.first
-            atom.value, atom.placed = f"{day.first}{atom.clock}", True
+    named = preceding
+    if (
+        named is not None
+        and named.placed
+        and named.first is not None
+        and named.first == named.last
+        and named.clock is None
+    ):
+        if atom.start - named.end < 60 and not _SENTENCE_GAP.search(text, named.end, atom.start):
+            atom.first = atom.last = named.first
+            atom.value, atom.placed = f"{named.first}{atom.clock}", True
 
 
 def timex3(expression: TemporalExpression, hemisphere: str = "north") -> str | None:

@@ -19,6 +19,7 @@ import functools
 import re
 from dataclasses import dataclass
 from datetime import date, datetime, timedelta
+from typing import Any
 
 MONTH_NUMBERS = {}
 for _i, _name in enumerate(
@@ -434,6 +435,17 @@ class Atom:
     years_back: int = 0  # "a year earlier": a quarter named just before it moves back this many years
 
 
+def _leading_int(text: str) -> int:
+    """The number a day is written with ("5th" -> 5)."""
+    digits = _LEADING_DIGITS.match(text)
+    if digits is None:
+        raise ValueError(f"no day number in {text!r}")  # not a date after all
+    return int(digits.group())
+
+
+_LEADING_DIGITS = re.compile(r"\d+")
+
+
 def _month(text: str) -> int:
     return MONTH_NUMBERS[text.rstrip(".").lower()]
 
@@ -452,7 +464,7 @@ def parse_candidate(m, ctx) -> Atom | None:
     kind = m.lastgroup
     index = m.re.groupindex  # the digit- and word-first alternations hold different groups
 
-    def g(name: str) -> str | None:  # not `groupdict`, which builds a dict of every group
+    def g(name: str) -> Any:  # like `m.group`; not `groupdict`, which builds a dict of every group
         return m.group(name) if name in index else None
 
     s, e = m.start(kind), m.end(kind)
@@ -514,7 +526,7 @@ def parse_candidate(m, ctx) -> Atom | None:
     if kind in ("mdrange", "dmrange"):
         month = _month(g("rm") or g("rm2"))
         year = int(g("ry") or g("ry2"))
-        d1, d2 = (int(re.match(r"\d+", g(n)).group()) for n in (("rd1", "rd2") if g("rm") else ("rd3", "rd4")))
+        d1, d2 = (_leading_int(g(n)) for n in (("rd1", "rd2") if g("rm") else ("rd3", "rd4")))
         if not d1 < d2:
             return None
         return Atom(s, e, "day", date(year, month, d1), date(year, month, d2), bounded=True)
@@ -525,7 +537,7 @@ def parse_candidate(m, ctx) -> Atom | None:
         return Atom(s, e, "month", date(year, m1, 1), month_end(year, m2), bounded=True)
     if kind in ("mdy", "dmy"):
         month = _month(g("m1") or g("m2"))
-        day = int(re.match(r"\d+", g("d1") or g("d2")).group())
+        day = _leading_int(g("d1") or g("d2"))
         return _day_atom(m, kind, month, day, g("y1") or g("y2"))
     if kind == "monthyear":
         year, month = int(g("y3")), _month(g("m3"))
@@ -563,13 +575,13 @@ def parse_candidate(m, ctx) -> Atom | None:
         if unit_name == "fortnight":
             count, unit_name = count * 2, "week"
         if unit_name == "quarter":  # dateparser has no quarters
-            point = add_months(ref, 3 * count * (-1 if kind == "ago" else 1))
+            shifted: date | None = add_months(ref, 3 * count * (-1 if kind == "ago" else 1))
         else:
             span = f"{count} {unit_name}s ago" if kind == "ago" else f"in {count} {unit_name}s"
-            point = _relative_point(span, unit_name, ref)
-            if point is None:
-                return None
-        first, last, granularity = _unit_interval(point, unit_name)
+            shifted = _relative_point(span, unit_name, ref)
+        if shifted is None:
+            return None
+        first, last, granularity = _unit_interval(shifted, unit_name)
         atom = Atom(s, e, granularity, first, last, future=kind == "inrel", past=kind == "ago", relative=True)
         if kind == "ago" and unit_name == "year":
             atom.years_back = count
@@ -578,11 +590,11 @@ def parse_candidate(m, ctx) -> Atom | None:
         count, unit = _count(g("ron")), g("rou").lower().rstrip("s")
         forward = g("rod").lower() in ("next", "coming", "following")
         value = f"P{count}{unit[0].upper()}"  # TIMEX3 duration: P12M, P2W, P3Y
-        span = {"day": timedelta(days=count), "week": timedelta(weeks=count)}.get(unit)
+        length = {"day": timedelta(days=count), "week": timedelta(weeks=count)}.get(unit)
         if forward:
-            last = ref + span if span else add_months(ref, count * (12 if unit == "year" else 1))
+            last = ref + length if length else add_months(ref, count * (12 if unit == "year" else 1))
             return Atom(s, e, unit, ref, last, future=True, relative=True, timex_type="DURATION", value=value)
-        first = ref - span if span else add_months(ref, -count * (12 if unit == "year" else 1))
+        first = ref - length if length else add_months(ref, -count * (12 if unit == "year" else 1))
         return Atom(s, e, unit, first, ref, past=True, relative=True, timex_type="DURATION", value=value)
     if kind == "monthrel":
         month, direction = MONTH_NUMBERS[g("mrel").lower()], g("mdir").lower()
@@ -609,8 +621,10 @@ def parse_candidate(m, ctx) -> Atom | None:
         return Atom(s, e, granularity, first, last, future=step > 0, past=step < 0, relative=True)
     if kind == "deictic":
         offset = {"yesterday": -1, "today": 0, "tomorrow": 1}[g("dx").lower()]
-        point = _relative_point(g("dx").lower(), "day", ref) if offset else ref
-        return Atom(s, e, "day", point, point, future=offset > 0, past=offset < 0, relative=True)
+        when = _relative_point(g("dx").lower(), "day", ref) if offset else ref
+        if when is None:
+            return None
+        return Atom(s, e, "day", when, when, future=offset > 0, past=offset < 0, relative=True)
     return None
 
 

@@ -321,7 +321,7 @@ def role_for(
         return "effective"
     future, past = tense(sentence)
     future = (future or future_relative) and not past_relative
-    weak = {"weak_effective": "effective", "weak_expires": "expires"}.get(near)
+    weak = {"weak_effective": "effective", "weak_expires": "expires"}.get(near or "")
     if weak is not None:
         participle = _PARTICIPLE_BEFORE_CUE.search(left)
         if participle:
