@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from datetime import date
+from datetime import date, timedelta
 from unittest import mock
 
 import pytest
@@ -301,3 +301,26 @@ def test_lower_case_month_names_except_the_verbs():
     # week" (TimeML Annotation Guidelines 1.2.1: value "P1W", freq "2X"; from memory)
     found = extract("Crews may 5 times a day march 12 blocks and mar 2 walls.", REF)
     assert [(e.expression, e.timex_type, e.value) for e in found] == [("5 times a day", "SET", "P1D")]
+
+
+def test_weekdays_read_by_the_nearest_tense_word():
+    # docs/dates.md, year-inference rule 2: the tense word nearest each weekday decides; expected
+    # days by Python's date arithmetic from the reference date, a Wednesday
+    reference = date(2026, 11, 18)
+    assert reference.weekday() == 2
+    found = extract("He said on Monday that the plant will reopen on Friday.", reference)
+    assert [(e.expression, e.start) for e in found] == [
+        ("Monday", reference - timedelta(days=2)),
+        ("Friday", reference + timedelta(days=2)),
+    ]
+
+
+def test_yearless_day_near_the_reference_date_keeps_its_year():
+    # docs/dates.md, year-inference rule 4: within 45 days of the reference date the reference
+    # year stands whatever the tense; further ahead in a past-tense sentence it is the year before
+    reference = date(1989, 11, 2)
+    (near,) = extract("The offer had been set to expire Nov. 6.", reference)
+    assert near.start == reference + timedelta(days=4)
+    (far,) = extract("The plant closed on Dec. 20.", reference)
+    assert far.start == date(reference.year - 1, 12, 20)
+    assert (date(reference.year, 12, 20) - reference).days > 45
