@@ -357,7 +357,7 @@ def extract(
         for atom in atoms:
             if atom.first is None and atom.placed:  # a month-day with no year anywhere: by the tense
                 _give_year(text, atom, reference_date, tense_at(atom.start))
-    atoms = [a for a in atoms if a.first is not None or not a.placed]
+    atoms = _join_clock_and_day(text, [a for a in atoms if a.first is not None or not a.placed])
     _anchor(text, atoms)
     _back_from_quarter(atoms)
     found: list[TemporalExpression] = []
@@ -415,8 +415,7 @@ _CLOCK_THEN_DAY = re.compile(r"\s*(?:[A-Z]{2,4}\b)?,?\s*")
 
 def _join_neighbours(text: str, atoms: list[Atom]) -> list[Atom]:
     """One expression of two written together: "this year's third quarter" and "the 1988 third
-    quarter" (a quarter of that year), "June last year" (a month of that year), "9 a.m. EST
-    Tuesday" and "noon Saturday" (a time of that day)."""
+    quarter" (a quarter of that year), "June last year" (a month of that year)."""
     out: list[Atom] = []
     for atom in atoms:
         prev = out[-1] if out else None
@@ -437,17 +436,6 @@ def _join_neighbours(text: str, atoms: list[Atom]) -> list[Atom]:
                 continue
         if (
             prev is not None
-            and prev.clock is not None
-            and atom.placed
-            and atom.first is not None
-            and atom.first == atom.last
-            and atom.timex_type == "DATE"
-            and _CLOCK_THEN_DAY.fullmatch(text, prev.end, atom.start)
-        ):
-            out[-1] = dataclasses.replace(atom, start=prev.start, timex_type="TIME", value=f"{atom.first}{prev.clock}")
-            continue
-        if (
-            prev is not None
             and prev.granularity == "year"
             and prev.first is not None
             and atom.granularity in ("quarter", "half")
@@ -459,6 +447,27 @@ def _join_neighbours(text: str, atoms: list[Atom]) -> list[Atom]:
             last = atom.last.replace(year=prev.first.year) if atom.last else first
             out[-1] = dataclasses.replace(atom, start=prev.start, first=first, last=last, value=None, past=False)
             out[-1].value = interval_value(first, last, atom.granularity)
+            continue
+        out.append(atom)
+    return out
+
+
+def _join_clock_and_day(text: str, atoms: list[Atom]) -> list[Atom]:
+    """A clock time written just before its day is one TIME with it: "9 a.m. EST Tuesday", "noon
+    Saturday", "5 p.m. EST, Nov. 6" (after the yearless days have their year)."""
+    out: list[Atom] = []
+    for atom in atoms:
+        prev = out[-1] if out else None
+        if (
+            prev is not None
+            and prev.clock is not None
+            and atom.placed
+            and atom.first is not None
+            and atom.first == atom.last
+            and atom.timex_type == "DATE"
+            and _CLOCK_THEN_DAY.fullmatch(text, prev.end, atom.start)
+        ):
+            out[-1] = dataclasses.replace(atom, start=prev.start, timex_type="TIME", value=f"{atom.first}{prev.clock}")
             continue
         out.append(atom)
     return out
