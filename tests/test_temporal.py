@@ -324,3 +324,13 @@ def test_yearless_day_near_the_reference_date_keeps_its_year():
     (far,) = extract("The plant closed on Dec. 20.", reference)
     assert far.start == date(reference.year - 1, 12, 20)
     assert (date(reference.year, 12, 20) - reference).days > 45
+
+
+def test_clock_time_before_a_yearless_day_is_one_time():
+    # TIMEX3 TIME value: the day and the time of day in ISO 8601's extended form YYYY-MM-DDThh:mm;
+    # the day is the reference year's, 7 days ahead by date arithmetic (docs/dates.md, rule 4)
+    reference = date(1989, 11, 2)
+    (e,) = extract("The offer expires at 5 p.m. EST, Nov. 9.", reference)
+    day = reference + timedelta(days=7)
+    assert (e.expression, e.timex_type, e.value) == ("5 p.m. EST, Nov. 9", "TIME", f"{day.isoformat()}T17:00")
+    assert (e.start, e.role) == (day, "expires")
