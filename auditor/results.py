@@ -93,7 +93,8 @@ class Statement(Record):
 
     @classmethod
     def of(cls, expression: TemporalExpression) -> Statement:
-        return cls(**expression.as_json())
+        # the dates JSON line's original keys; its TIMEX3 type, value and offsets are not part of format 1
+        return cls(**_plain_fields(cls, expression.as_json()))
 
     @classmethod
     def from_json(cls, data: Mapping[str, Any]) -> Statement:

@@ -29,9 +29,9 @@ def test_currently_in_a_document_dated_2026_11_20_is_as_of_that_date_in_the_audi
         assert row == [{"timex_type": "DATE", "timex_value": "PRESENT_REF", "role": "as_of"}]
         questions = [Question("q1", "What is the late payment fee?")]
         run = run_audit(store, Config(), questions, as_of=date(2027, 1, 15))
-    evidence = run["questions"][0]["evidence"][0]
+    evidence = run.questions[0].evidence[0]
     # without "currently" the passage would be as of 2025-03-31 and too old at a 365-day horizon
-    assert (evidence["as_of"], evidence["as_of_source"]) == ("2026-11-20", "statement")
+    assert (evidence.as_of, evidence.as_of_source) == ("2026-11-20", "statement")
 
 
 def test_a_version_1_store_gains_the_timex_columns(tmp_path):
