@@ -658,7 +658,9 @@ def test_a_version_1_database_gains_the_counts_table(tmp_path):
     with sqlite3.connect(path) as db:
         # (and without the statements' TIMEX3 columns of version 3)
         old = re.sub(r"-- What each query-log import redacted.*?\);\n", "", SCHEMA, flags=re.S)
-        old = re.sub(r"\n\s*timex_\w+[^\n]*", "", old).replace("char_end    INTEGER NOT NULL,\n);", "char_end    INTEGER NOT NULL\n);")
+        old = re.sub(r"\n\s*timex_\w+[^\n]*", "", old).replace(
+            "char_end    INTEGER NOT NULL,\n);", "char_end    INTEGER NOT NULL\n);"
+        )
         db.executescript(old)
         assert "redaction_counts" not in {r[0] for r in db.execute("SELECT name FROM sqlite_master")}
         db.execute("INSERT INTO meta (key, value) VALUES ('schema_version', '1')")
