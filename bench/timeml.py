@@ -22,7 +22,7 @@ looking at the documents): `dev` (about three quarters) is what the extractor wa
 `held-out` is scored but its errors are never printed, so that it stays out of sample. The
 `--errors` listing shows development documents only.
 
-    python bench/timeml.py [--data ../shared/data/timeml/tbaq-cleaned.tar.gz] [--errors 40]
+    python -m bench.timeml [--data ../shared/data/timeml/tbaq-cleaned.tar.gz] [--errors 40]
 """
 
 from __future__ import annotations
@@ -38,9 +38,7 @@ from dataclasses import dataclass
 from datetime import date
 from pathlib import Path
 
-sys.path.insert(0, str(Path(__file__).resolve().parent.parent))
-
-from auditor.temporal.extract import extract, timex3  # noqa: E402
+from auditor.temporal.extract import extract, timex3
 
 DEFAULT_DATA = Path(__file__).resolve().parent.parent.parent / "shared" / "data" / "timeml" / "tbaq-cleaned.tar.gz"
 TYPES = ("DATE", "TIME", "DURATION", "SET")
