@@ -6,13 +6,12 @@ from __future__ import annotations
 import sqlite3
 from datetime import date
 
-from ingest_helpers import config_for, write_tree
-
 from auditor.config import Config
 from auditor.ingest.pipeline import ingest_corpus
 from auditor.judgement.audit import run_audit
 from auditor.models import Question
 from auditor.store import SCHEMA, SCHEMA_VERSION, Store
+from tests.ingest_helpers import config_for, write_tree
 
 
 def test_currently_in_a_document_dated_2026_11_20_is_as_of_that_date_in_the_audit(tmp_path):
