@@ -120,6 +120,14 @@ class RedactionConfig:
 
 
 @dataclass(frozen=True)
+class ClusterConfig:
+    # docs/scale.md: "tcp://host:8786" for a running Dask scheduler, "local" or "local:N" for a
+    # LocalCluster of N worker processes on this machine; None runs everything in this process.
+    scheduler: str | None = None
+    shared: Path | None = None  # a folder every worker and this machine see (default: beside the database)
+
+
+@dataclass(frozen=True)
 class Config:
     source: Path | None = None  # the file it was read from
     database: Path = Path("auditor.db")
@@ -133,6 +141,7 @@ class Config:
     gate: GateConfig = field(default_factory=GateConfig)
     report: ReportConfig = field(default_factory=ReportConfig)
     redaction: RedactionConfig = field(default_factory=RedactionConfig)
+    cluster: ClusterConfig = field(default_factory=ClusterConfig)
 
     def replace(self, **changes: Any) -> Config:
         return dataclasses.replace(self, **changes)
@@ -187,19 +196,7 @@ def _build(raw: dict, base: Path, source: Path | None, where: str, warn) -> Conf
     top = reader.table(
         raw,
         "",
-        {
-            "database",
-            "as_of",
-            "questions",
-            "owners",
-            "corpus",
-            "freshness",
-            "retrieval",
-            "support",
-            "gate",
-            "report",
-            "redaction",
-        },
+        {f.name for f in dataclasses.fields(Config)} - {"source"},  # every section and top-level key
     )
     corpus_raw = reader.table(top.get("corpus", {}), "corpus", {f.name for f in dataclasses.fields(CorpusConfig)})
     sitemaps = []
@@ -266,6 +263,11 @@ def _build(raw: dict, base: Path, source: Path | None, where: str, warn) -> Conf
             RedactionConfig,
             reader.table(top.get("redaction", {}), "redaction", {f.name for f in dataclasses.fields(RedactionConfig)}),
             "redaction",
+        ),
+        cluster=reader.fill(
+            ClusterConfig,
+            reader.table(top.get("cluster", {}), "cluster", {f.name for f in dataclasses.fields(ClusterConfig)}),
+            "cluster",
         ),
     )
     if config.redaction.phone_region not in phonenumbers.SUPPORTED_REGIONS:

@@ -163,6 +163,22 @@ def test_corpus_stats_merge():
     assert merged.df.tolist() == [0, 1, 3, 0, 0, 1]
 
 
+def test_shard_scores_equal_the_whole_corpus_index():
+    # A shard built with the corpus-wide statistics scores its passages as the index of the whole
+    # corpus does, also for a question term that occurs only in the other shard (its contribution
+    # is 0: BM25 sums over the terms a passage holds, Robertson & Zaragoza 2009, eq. 3.15).
+    docs = [[1, 2, 2], [2, 3], [4, 1], [3, 3, 5]]
+    whole = count_terms([np.array(d) for d in docs])
+    first, second = count_terms([np.array(d) for d in docs[:2]]), count_terms([np.array(d) for d in docs[2:]])
+    stats = CorpusStats.of(first).merge(CorpusStats.of(second))
+    index = SparseIndex.build(whole, Params())
+    shard = SparseIndex.build(second, Params(), stats)
+    assert shard.contributions([1, 5], np.array([0, 1])).tolist() == index.contributions([1, 5], np.array([2, 3])).tolist()
+    ordinals, scores, parts = shard.top_k([1, 2], 2)  # term 2 is only in the first shard
+    assert ordinals.tolist() == [0] and parts[1].tolist() == [0.0]
+    assert scores.tolist() == index.scores([1, 2])[[2]].tolist()
+
+
 def test_count_terms_counts_and_tf_dtype():
     counts = count_terms([np.array([4, 4, 1]), np.array([], dtype=np.int32), np.array([2] * 70000)], chunk=2)
     assert counts.indptr.tolist() == [0, 2, 2, 3]

@@ -93,8 +93,11 @@ class IngestSummary:
         )
 
 
-def ingest_corpus(store, config, *, paths=None, jobs=None, progress=False) -> IngestSummary:
+def ingest_corpus(store, config, *, paths=None, jobs=None, progress=False, runner=run_tasks) -> IngestSummary:
     """Bring the store up to date with the corpus at `paths` (default config.corpus.paths).
+
+    `runner` parses the files: the local process pool, or one with its contract (a cluster's,
+    auditor/cluster/ingest.py).
 
     Never raises for a bad document (it is recorded in ingest_errors and the summary); raises
     InputError for a missing corpus path or an unreadable sitemap, before anything is written.
@@ -108,12 +111,12 @@ def ingest_corpus(store, config, *, paths=None, jobs=None, progress=False) -> In
     previous = store.db.execute("PRAGMA synchronous").fetchone()[0]
     store.db.execute("PRAGMA synchronous = NORMAL")
     try:
-        return _ingest(store, config, given, jobs, progress)
+        return _ingest(store, config, given, jobs, progress, runner)
     finally:
         store.db.execute(f"PRAGMA synchronous = {int(previous)}")
 
 
-def _ingest(store, config, given: list, jobs, progress) -> IngestSummary:
+def _ingest(store, config, given: list, jobs, progress, runner) -> IngestSummary:
     started = time.monotonic()
     corpus = config.corpus
     files, skipped = discover(given, corpus)
@@ -208,9 +211,7 @@ def _ingest(store, config, given: list, jobs, progress) -> IngestSummary:
     tasks.sort(key=lambda t: -by_path[t["doc_path"]].size)
     vocabulary = Vocabulary(store)
     bar = _Progress(len(tasks)) if progress and sys.stderr.isatty() else None
-    for task, status, value in run_tasks(
-        tasks, parse_file, settings, jobs=jobs, timeout=corpus.timeout_s, init=warm_up
-    ):
+    for task, status, value in runner(tasks, parse_file, settings, jobs=jobs, timeout=corpus.timeout_s, init=warm_up):
         f = by_path[task["doc_path"]]
         summary.parsed += 1
         if status == "ok":

@@ -455,7 +455,9 @@ class SparseIndex:
         pos = np.stack([np.searchsorted(self.indices[a:b], needles) for a, b in zip(lo.tolist(), hi.tolist())])
         pos += lo[:, None]
         np.minimum(pos, (hi - 1)[:, None], out=pos)
-        found = self.indices[pos] == docs[None, :]
+        # A term of the corpus may have no postings in this shard (hi == lo): pos then points into
+        # the previous term's list, which must not count.
+        found = (self.indices[pos] == docs[None, :]) & (hi > lo)[:, None]
         p = self.params
         part = self.idf[terms][:, None] * p.scorer.tf(
             self.tf[pos], self.doc_len[docs][None, :], self.avgdl, p.k1, p.b, p.delta
