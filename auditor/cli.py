@@ -120,10 +120,13 @@ def cli():
 @click.option("--out", type=click.Path(file_okay=False), help="Report folder (default: reports/<as-of>/).")
 @wait_option
 @click.option("--jobs", type=click.IntRange(min=1), help="Parser processes (default: one per core).")
+@click.option("--cluster", help="Dask scheduler to run on: tcp://host:port, local or local:N (docs/scale.md).")
 @quiet_option
-def scan(config_path, as_of, out, wait, jobs, quiet):
+def scan(config_path, as_of, out, wait, jobs, cluster, quiet):
     """The main job: ingest, audit, compare with the last run, gate, report."""
     config = _config(config_path, as_of=as_of, out=out)
+    if cluster:
+        config = config.replace(cluster=dataclasses.replace(config.cluster, scheduler=cluster))
     outcome = run_scan(config, wait=wait, jobs=jobs, progress=_progress(quiet))
     for line in outcome.question_lines:
         click.echo(line, err=True)

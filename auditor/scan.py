@@ -5,10 +5,12 @@ The CLI commands are thin wrappers over these; each stage function can also be c
 
 from __future__ import annotations
 
+import contextlib
 from dataclasses import dataclass
 from datetime import date
 from pathlib import Path
 
+from auditor.cluster import open_scan  # imports no cluster package itself (auditor/cluster/__init__.py)
 from auditor.config import Config
 from auditor.errors import InputError
 from auditor.history.diff import diff_runs
@@ -16,7 +18,7 @@ from auditor.history.gate import evaluate_gate
 from auditor.history.lock import ScanLock
 from auditor.history.runs import apply_retention, load_run, previous_run, record_gate, update_latest
 from auditor.ingest.pipeline import ingest_corpus
-from auditor.judgement.audit import run_audit
+from auditor.judgement.audit import Backend, run_audit
 from auditor.models import Question
 from auditor.questions.querylog import QueryLogSummary, store_redaction_counts
 from auditor.questions.sets import read_question_file, store_questions
@@ -86,10 +88,11 @@ def audit_and_report(
     horizon_days: int | None = None,
     out_dir: Path | None = None,
     gate: bool = True,
+    backend: Backend | None = None,
 ) -> tuple[Run, Path]:
     """Audit, attach the diff against the previous run and the gate outcome, write the report."""
     questions = store_question_sets(store, sets)
-    run = run_audit(store, config, questions, as_of=as_of, horizon_days=horizon_days)
+    run = run_audit(store, config, questions, as_of=as_of, horizon_days=horizon_days, backend=backend)
     run_id = run.info.id
     assert run_id is not None  # run_audit stored it
     base_id = previous_run(store, run_id)
@@ -114,13 +117,16 @@ def scan(
     progress: bool = False,
     jobs: int | None = None,
 ) -> ScanOutcome:
-    """The whole job under the scan lock: ingest, audit, diff, gate, report."""
+    """The whole job under the scan lock: ingest, audit, diff, gate, report; on the Dask cluster of
+    `[cluster] scheduler` when one is set (docs/scale.md)."""
     as_of = as_of or config.audit_date()
     sets = load_question_files(config)  # fail on a bad question file before any work
     with ScanLock(config.database, wait=wait):
-        with Store(config.database) as store:
-            summary = ingest_corpus(store, config, jobs=jobs, progress=progress)
-            run, out_dir = audit_and_report(store, config, sets, as_of=as_of, out_dir=out_dir)
+        cluster = open_scan(config) if config.cluster.scheduler else contextlib.nullcontext()
+        with Store(config.database) as store, cluster as backend:
+            runner = backend.runner if backend is not None else None
+            summary = ingest_corpus(store, config, jobs=jobs, progress=progress, runner=runner)
+            run, out_dir = audit_and_report(store, config, sets, as_of=as_of, out_dir=out_dir, backend=backend)
     return ScanOutcome(
         run=run, out_dir=out_dir, ingest_line=summary.line(), gate=run.gate, question_lines=question_lines(sets)
     )

@@ -93,11 +93,11 @@ class IngestSummary:
         )
 
 
-def ingest_corpus(store, config, *, paths=None, jobs=None, progress=False, runner=run_tasks) -> IngestSummary:
+def ingest_corpus(store, config, *, paths=None, jobs=None, progress=False, runner=None) -> IngestSummary:
     """Bring the store up to date with the corpus at `paths` (default config.corpus.paths).
 
-    `runner` parses the files: the local process pool, or one with its contract (a cluster's,
-    auditor/cluster/ingest.py).
+    `runner` parses the files: by default the local process pool (auditor/ingest/pool.py), else one
+    with its contract (a cluster's, auditor/cluster/ingest.py).
 
     Never raises for a bad document (it is recorded in ingest_errors and the summary); raises
     InputError for a missing corpus path or an unreadable sitemap, before anything is written.
@@ -111,7 +111,7 @@ def ingest_corpus(store, config, *, paths=None, jobs=None, progress=False, runne
     previous = store.db.execute("PRAGMA synchronous").fetchone()[0]
     store.db.execute("PRAGMA synchronous = NORMAL")
     try:
-        return _ingest(store, config, given, jobs, progress, runner)
+        return _ingest(store, config, given, jobs, progress, runner or run_tasks)
     finally:
         store.db.execute(f"PRAGMA synchronous = {int(previous)}")
 

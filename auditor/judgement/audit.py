@@ -17,9 +17,10 @@ import json
 from collections import defaultdict
 from collections.abc import Callable
 from datetime import date
+from typing import Protocol
 
 from auditor.clock import utc_now
-from auditor.config import Config, FreshnessConfig, SupportConfig
+from auditor.config import Config, FreshnessConfig, RetrievalConfig, SupportConfig
 from auditor.history.runs import history, save_run
 from auditor.ingest.owners import owner_from_config
 from auditor.judgement import freshness
@@ -70,18 +71,23 @@ def run_audit(
     *,
     as_of: date,
     horizon_days: int | None = None,
+    backend: Backend | None = None,
 ) -> Run:
     """Audit `questions` against the searched passages in `store` at audit date `as_of`; store the run.
 
     `horizon_days` replaces the configured default horizon (path and topic rules and per-question
     overrides still apply). Returns the stored run, with its id and its history; the diff and the
-    gate are the caller's (`scan.audit_and_report`).
+    gate are the caller's (`scan.audit_and_report`). With `backend` (auditor/cluster/session.py),
+    retrieval and judging run on a cluster; the answers are the same.
     """
     started = utc_now()
     fresh_config = config.freshness
     if horizon_days is not None:
         fresh_config = dataclasses.replace(fresh_config, horizon_days=horizon_days)
-    index = PassageIndex.load_or_build(store, config.retrieval)
+    if backend is not None:
+        index = backend.passage_index(store, config.retrieval)
+    else:
+        index = PassageIndex.load_or_build(store, config.retrieval)
     thresholds = Thresholds(**resolve_thresholds(store, config, index))
     tokenizer = index.tokenizer  # the index's own, so that question and passage terms match
     k = config.retrieval.top_k
@@ -91,18 +97,17 @@ def run_audit(
     diversify(found, {pid: p["path"] for pid, p in passages.items()}, k)
     hit_ids = sorted({h.passage_id for result in found for h in result.hits})
     statements = _load_statements(store, hit_ids)
-    freshness_cache: dict[tuple[int, int], Freshness] = {}
-
-    def passage_fresh(pid: int, horizon: int) -> Freshness:
-        key = (pid, horizon)
-        if key not in freshness_cache:
-            freshness_cache[key] = _freshness(passages[pid], statements.get(pid, []), as_of, horizon)
-        return freshness_cache[key]
-
-    results = [
-        _judge_question(question, result, passages, statements, passage_fresh, fresh_config, thresholds, tokenizer)
-        for question, result in zip(questions, found)
-    ]
+    judge_all = backend.judge(judge_questions) if backend is not None else judge_questions
+    results = judge_all(
+        questions,
+        found,
+        passages,
+        statements,
+        tokenizer=tokenizer,
+        as_of=as_of,
+        fresh_config=fresh_config,
+        thresholds=thresholds,
+    )
     corpus, documents = _corpus_and_documents(store, config, fresh_config, as_of)
     run = Run(
         info=RunInfo(
@@ -133,7 +138,44 @@ def run_audit(
     return run
 
 
-# --- judging one question -------------------------------------------------------------------------
+# --- judging -------------------------------------------------------------------------------------
+
+
+def judge_questions(
+    questions: list[Question],
+    found: list[SearchResult],
+    passages: dict[int, dict],
+    statements: dict[int, list[TemporalExpression]],
+    *,
+    tokenizer: Tokenizer,
+    as_of: date,
+    fresh_config: FreshnessConfig,
+    thresholds: Thresholds,
+) -> list[QuestionResult]:
+    """Each question's result from its search result and the retrieved passages and statements.
+
+    Pure work over plain data, so a cluster can run it on its workers (auditor/cluster/judge.py).
+    """
+    freshness_cache: dict[tuple[int, int], Freshness] = {}
+
+    def passage_fresh(pid: int, horizon: int) -> Freshness:
+        key = (pid, horizon)
+        if key not in freshness_cache:
+            freshness_cache[key] = _freshness(passages[pid], statements.get(pid, []), as_of, horizon)
+        return freshness_cache[key]
+
+    return [
+        _judge_question(question, result, passages, statements, passage_fresh, fresh_config, thresholds, tokenizer)
+        for question, result in zip(questions, found)
+    ]
+
+
+class Backend(Protocol):
+    """Where retrieval and judging run when not in this process (auditor/cluster/session.py)."""
+
+    def passage_index(self, store: Store, retrieval: RetrievalConfig) -> PassageIndex: ...
+
+    def judge(self, judge: Callable[..., list[QuestionResult]]) -> Callable[..., list[QuestionResult]]: ...
 
 
 def _judge_question(
