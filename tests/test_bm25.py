@@ -173,7 +173,9 @@ def test_shard_scores_equal_the_whole_corpus_index():
     stats = CorpusStats.of(first).merge(CorpusStats.of(second))
     index = SparseIndex.build(whole, Params())
     shard = SparseIndex.build(second, Params(), stats)
-    assert shard.contributions([1, 5], np.array([0, 1])).tolist() == index.contributions([1, 5], np.array([2, 3])).tolist()
+    assert (
+        shard.contributions([1, 5], np.array([0, 1])).tolist() == index.contributions([1, 5], np.array([2, 3])).tolist()
+    )
     ordinals, scores, parts = shard.top_k([1, 2], 2)  # term 2 is only in the first shard
     assert ordinals.tolist() == [0] and parts[1].tolist() == [0.0]
     assert scores.tolist() == index.scores([1, 2])[[2]].tolist()

@@ -57,9 +57,10 @@ class Cluster:
         try:
             return future.result()
         except KilledWorker as exc:
-            limit = dask.config.get("distributed.scheduler.allowed-failures")
+            # The scheduler's limit, which may differ from this process's dask config.
+            limit = getattr(exc, "allowed_failures", dask.config.get("distributed.scheduler.allowed-failures"))
             raise ClusterError(
-                f"{self.address!r}: Dask workers died {limit + 1} times running {what} "
+                f"{self.address!r}: Dask gave up {what} after {limit + 1} worker deaths "
                 f"(distributed.scheduler.allowed-failures = {limit}); the scan stopped, what was stored stays"
             ) from exc
         except (CommClosedError, OSError) as exc:

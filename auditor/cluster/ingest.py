@@ -156,7 +156,9 @@ def parse_shard(tasks: list[dict], target: Callable, settings, init: Callable | 
     pq.write_table(pa.table(documents, schema=_DOCUMENT), work / "documents.parquet")
     pq.write_table(pa.table(passages, schema=_PASSAGE), work / "passages.parquet")
     pq.write_table(pa.table(statements, schema=_STATEMENT), work / "statements.parquet")
-    pq.write_table(pa.table({"term": list(vocabulary)}, schema=pa.schema([("term", pa.string())])), work / "terms.parquet")
+    pq.write_table(
+        pa.table({"term": list(vocabulary)}, schema=pa.schema([("term", pa.string())])), work / "terms.parquet"
+    )
     shutil.rmtree(target_dir, ignore_errors=True)
     os.replace(work, target_dir)
     return out

@@ -63,7 +63,7 @@ def shard_index(counts: TermCounts, params: Params, stats: CorpusStats) -> Spars
     return SparseIndex.build(counts, params, stats)
 
 
-def shard_top_k(index: SparseIndex, queries: list[list[int]], k: int, offset: int) -> list[tuple]:
+def shard_top_k(index: SparseIndex, queries: list[list[int | None]], k: int, offset: int) -> list[tuple]:
     """Exact top k of the shard for each query, ordinals shifted to the corpus-wide ones."""
     return [(ordinals + offset, scores, parts) for ordinals, scores, parts in index.top_k_many(queries, k)]
 
@@ -83,11 +83,14 @@ class ShardedIndex:
         self.shards = shards
         self.offsets = offsets
         self.keys = keys  # passage id of each corpus-wide ordinal
-        empty = TermCounts(np.zeros(1, np.int64), np.zeros(0, np.int32), np.zeros(0, np.uint16), np.zeros(0, np.int32), 0)
+        empty = TermCounts(
+            np.zeros(1, np.int64), np.zeros(0, np.int32), np.zeros(0, np.uint16), np.zeros(0, np.int32), 0
+        )
         self.corpus = SparseIndex.build(empty, params, stats, meta=meta)
         self.params, self.meta = params, self.corpus.meta
         self.n_docs = stats.n_docs
-        self.n_terms, self.df = self.corpus.n_terms, self.corpus.df
+        self.n_terms = self.corpus.n_terms
+        self.df: np.ndarray = self.corpus.df  # type: ignore[attr-defined]  # SparseIndex sets its arrays by name
         self._hits: dict[tuple[tuple[int, ...], int], tuple] = {}
 
     def term_idf(self, term_ids) -> list[float]:
@@ -143,7 +146,9 @@ class ClusterPassageIndex(PassageIndex):
 
 def build(cluster: Cluster, store: Store, retrieval: RetrievalConfig) -> ClusterPassageIndex:
     """Export the active passages, reduce the corpus statistics and build the shards' indexes."""
-    params = Params(variant=retrieval.variant, k1=float(retrieval.k1), b=float(retrieval.b), delta=float(retrieval.delta))
+    params = Params(
+        variant=retrieval.variant, k1=float(retrieval.k1), b=float(retrieval.b), delta=float(retrieval.delta)
+    )
     tokenizer = Tokenizer(retrieval.language, retrieval.stopwords)
     stored = store.get_meta("tokenizer")
     if stored and stored != tokenizer.fingerprint():
@@ -179,7 +184,8 @@ def export_shards(store: Store, folder: Path, threads: int) -> tuple[list[Path],
     shards = max(threads, math.ceil(n / MAX_SHARD_PASSAGES))
     size = math.ceil(n / shards)
     keys = np.empty(n, np.int64)
-    paths, offsets = [], []
+    paths: list[Path] = []
+    offsets: list[int] = []
     rows = store.db.execute(f"SELECT p.id, p.token_ids {_ACTIVE} ORDER BY p.id")
     done = 0
     while done < n:
