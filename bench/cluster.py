@@ -117,7 +117,7 @@ def run_path(name: str, folder: Path, questions, args, memory: TreeMemory, clust
             del index
         run = stage("audit", lambda: run_audit(store, config, questions, as_of=AS_OF, backend=scan))
     stage("report", lambda: write_report(run, work / "report"))
-    figures["summary"] = run["summary"]
+    figures["summary"] = run.summary
     figures["ingest"] = summary.line()
     figures["waits"] = dict(waits.by_stage)
     return figures
@@ -173,7 +173,7 @@ def main(argv=None) -> int:
     print(f"corpus: {files:,} files, {results['cluster']['passages']:,} passages; {len(questions):,} questions")
     for name, figures in results.items():
         s = figures["summary"]
-        print(f"{name}: ingest {figures['ingest']}; {s['covered']} covered, {s['stale']} stale, {s['gap']} gap")
+        print(f"{name}: ingest {figures['ingest']}; {s.covered} covered, {s.stale} stale, {s.gap} gap")
     print(f"\n{'stage':<8}" + "".join(f"{n + ' s':>12}{n + ' GB':>12}" for n in results))
     for label in STAGES:
         row = "".join(f"{r['seconds'][label]:12.1f}{r['peak_gb'][label]:12.2f}" for r in results.values())
