@@ -63,9 +63,17 @@ class Cluster:
                 f"{self.address!r}: Dask gave up {what} after {limit + 1} worker deaths "
                 f"(distributed.scheduler.allowed-failures = {limit}); the scan stopped, what was stored stays"
             ) from exc
-        except (CommClosedError, OSError) as exc:
+        except CommClosedError as exc:
             raise ClusterError(
                 f"{self.address!r}: lost the Dask scheduler while {what} ({type(exc).__name__}); "
+                "the scan stopped, what was stored stays"
+            ) from exc
+        except AuditorError:
+            raise
+        except Exception as exc:  # raised by the task on a worker, e.g. the shared folder is not writable there
+            message = " ".join(str(exc).split())[:200]
+            raise ClusterError(
+                f"{self.address!r}: {what} failed on a worker ({type(exc).__name__}: {message}); "
                 "the scan stopped, what was stored stays"
             ) from exc
 
