@@ -21,6 +21,7 @@ index from the files on another worker.
 
 from __future__ import annotations
 
+import itertools
 import math
 from pathlib import Path
 
@@ -33,7 +34,7 @@ from auditor.cluster.backend import Cluster
 from auditor.config import RetrievalConfig
 from auditor.errors import StoreError
 from auditor.retrieval.bm25 import CorpusStats, Params, SparseIndex, TermCounts, count_terms
-from auditor.retrieval.index import PassageIndex, corpus_fingerprint
+from auditor.retrieval.index import HEADING_WEIGHT, PassageIndex, corpus_fingerprint, indexed_tokens
 from auditor.retrieval.tokenize import Tokenizer
 from auditor.store import SEARCHED_STATUSES, Store
 
@@ -156,7 +157,7 @@ def build(cluster: Cluster, store: Store, retrieval: RetrievalConfig) -> Cluster
             f"{str(store.path)!r}: passages were tokenized as {stored!r} but retrieval settings "
             f"give {tokenizer.fingerprint()!r}; run ingest again or restore retrieval.language/stopwords"
         )
-    paths, offsets, keys = export_shards(store, cluster.work / "index", cluster.threads)
+    paths, offsets, keys = export_shards(store, cluster.work / "index", cluster.threads, tokenizer)
     client = cluster.client
     counts = [client.submit(shard_counts, str(p), pure=False) for p in paths]
     stats = [client.submit(CorpusStats.of, c, pure=False) for c in counts]
@@ -170,13 +171,16 @@ def build(cluster: Cluster, store: Store, retrieval: RetrievalConfig) -> Cluster
     shards = [client.submit(shard_index, c, params, stats[0], pure=False) for c in counts]
     cluster.wait_all(shards, "building the shards' indexes")
     del counts, stats  # the counts are released on the workers once every index is built
-    meta = {"corpus": corpus_fingerprint(store), "tokenizer": tokenizer.fingerprint()}
+    meta = {"corpus": corpus_fingerprint(store), "tokenizer": tokenizer.fingerprint(), "heading_weight": HEADING_WEIGHT}
     index = ShardedIndex(cluster, total, params, shards, offsets, keys, meta)
     return ClusterPassageIndex(store, retrieval, index, tokenizer)  # type: ignore[arg-type]
 
 
-def export_shards(store: Store, folder: Path, threads: int) -> tuple[list[Path], list[int], np.ndarray]:
-    """Active passages' token ids as Parquet shards (passage id order): paths, first ordinals, ids."""
+def export_shards(
+    store: Store, folder: Path, threads: int, tokenizer: Tokenizer
+) -> tuple[list[Path], list[int], np.ndarray]:
+    """The term ids the local index builds from (auditor/retrieval/index.py `indexed_tokens`: body and
+    heading field) as Parquet shards, passage id order: paths, first ordinals, passage ids."""
     folder.mkdir(parents=True, exist_ok=True)
     n = store.db.execute(f"SELECT count(*) {_ACTIVE}").fetchone()[0]
     if n == 0:
@@ -186,23 +190,15 @@ def export_shards(store: Store, folder: Path, threads: int) -> tuple[list[Path],
     keys = np.empty(n, np.int64)
     paths: list[Path] = []
     offsets: list[int] = []
-    rows = store.db.execute(f"SELECT p.id, p.token_ids {_ACTIVE} ORDER BY p.id")
+    rows = indexed_tokens(store, tokenizer=tokenizer, heading_weight=HEADING_WEIGHT)
     done = 0
     while done < n:
-        chunk = rows.fetchmany(size)
+        chunk = list(itertools.islice(rows, size))
         if not chunk:
             break
-        blobs = []
-        for passage_id, blob in chunk:
-            if len(blob) % 4:
-                raise StoreError(
-                    f"{str(store.path)!r}: passage {passage_id} has a damaged token_ids "
-                    "array (length not a multiple of 4); run ingest again"
-                )
-            blobs.append(blob)
-        keys[done : done + len(chunk)] = [row[0] for row in chunk]
-        lengths = np.fromiter((len(b) // 4 for b in blobs), np.int32, len(blobs))
-        values = np.frombuffer(b"".join(blobs), dtype="<i4")
+        keys[done : done + len(chunk)] = [passage_id for passage_id, _ in chunk]
+        lengths = np.fromiter((len(tokens) for _, tokens in chunk), np.int64, len(chunk))
+        values = np.concatenate([tokens for _, tokens in chunk]).astype(np.int32)
         tokens = pa.ListArray.from_arrays(pa.array(np.concatenate(([0], np.cumsum(lengths))).astype(np.int32)), values)
         path = folder / f"{len(paths):06d}.parquet"
         pq.write_table(pa.table({"tokens": tokens}), path)

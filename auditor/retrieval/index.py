@@ -18,6 +18,7 @@ from __future__ import annotations
 
 import hashlib
 import json
+from collections.abc import Iterator
 from dataclasses import dataclass, field
 from pathlib import Path
 
@@ -202,6 +203,24 @@ def build_index(
     """Index the active passages of `store` from their stored token ids (passage id order), each with
     its heading path and document title as a field of weight `heading_weight` (0: body only)."""
     passage_ids: list[int] = []
+
+    def token_arrays():
+        for passage_id, tokens in indexed_tokens(store, tokenizer=tokenizer, heading_weight=heading_weight):
+            passage_ids.append(passage_id)
+            yield tokens
+
+    counts = count_terms(token_arrays())
+    return SparseIndex.build(
+        counts, params, CorpusStats.of(counts), meta=meta, keys=np.array(passage_ids, dtype=np.int64), consume=True
+    )
+
+
+def indexed_tokens(
+    store: Store, *, tokenizer: Tokenizer | None, heading_weight: int = HEADING_WEIGHT
+) -> Iterator[tuple[int, np.ndarray]]:
+    """(passage id, the term ids it is indexed with) for every active passage, in passage id order:
+    its stored token ids plus its heading path and title field (the sharded index reads these too,
+    auditor/cluster/retrieve.py)."""
     vocabulary = Vocabulary(store)
     fields: dict[str, np.ndarray] = {}  # heading path + title -> its term ids, repeated by the weight
 
@@ -220,24 +239,17 @@ def build_index(
                 fields[key] = np.array(ids * heading_weight, dtype="<i4")
         return fields[key]
 
-    def token_arrays():
-        for passage_id, blob, heading_path, title in store.db.execute(
-            f"SELECT p.id, p.token_ids, p.heading_path, d.title {_ACTIVE} ORDER BY p.id"
-        ):
-            passage_ids.append(passage_id)
-            if len(blob) % 4:
-                raise StoreError(
-                    f"{str(store.path)!r}: passage {passage_id} has a damaged token_ids "
-                    "array (length not a multiple of 4); run ingest again"
-                )
-            body = np.frombuffer(blob, dtype="<i4")
-            extra = field_ids(heading_path, title)
-            yield np.concatenate([body, extra]) if len(extra) else body
-
-    counts = count_terms(token_arrays())
-    return SparseIndex.build(
-        counts, params, CorpusStats.of(counts), meta=meta, keys=np.array(passage_ids, dtype=np.int64), consume=True
-    )
+    for passage_id, blob, heading_path, title in store.db.execute(
+        f"SELECT p.id, p.token_ids, p.heading_path, d.title {_ACTIVE} ORDER BY p.id"
+    ):
+        if len(blob) % 4:
+            raise StoreError(
+                f"{str(store.path)!r}: passage {passage_id} has a damaged token_ids "
+                "array (length not a multiple of 4); run ingest again"
+            )
+        body = np.frombuffer(blob, dtype="<i4")
+        extra = field_ids(heading_path, title)
+        yield passage_id, (np.concatenate([body, extra]) if len(extra) else body)
 
 
 def describe_hits(store: Store, result: SearchResult) -> list[dict]:
