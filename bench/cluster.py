@@ -1,8 +1,8 @@
 """The scan on a 2-worker Dask LocalCluster against the local path, stage by stage, and a projection.
 
-    python bench/cluster.py                      # 1,000,000 passages (100,000 files), 10,000 questions
-    python bench/cluster.py --passages 100000    # a quicker look at the same comparison
-    python bench/cluster.py --skip-local         # the cluster path only
+    python -m bench.cluster                      # 1,000,000 passages (100,000 files), 10,000 questions
+    python -m bench.cluster --passages 100000    # a quicker look at the same comparison
+    python -m bench.cluster --skip-local         # the cluster path only
 
 The corpus is bench/scale.py's (generated, seeded, cached under ~/.cache/corpus-auditor/scale/).
 Both paths start from an empty database and run the stages `auditor scan` runs: ingest, BM25 index
@@ -27,24 +27,20 @@ import time
 from collections import defaultdict
 from pathlib import Path
 
-REPO = Path(__file__).resolve().parent.parent
-sys.path.insert(0, str(REPO))
-sys.path.insert(0, str(REPO / "bench"))
+from dask.utils import key_split
+from distributed import get_task_stream
 
-from dask.utils import key_split  # noqa: E402
-from distributed import get_task_stream  # noqa: E402
-from scale import AS_OF, CACHE, TreeMemory, generate  # noqa: E402
-
-from auditor.cluster import backend as cluster_backend  # noqa: E402
-from auditor.cluster import retrieve  # noqa: E402
-from auditor.cluster.session import ClusterScan  # noqa: E402
-from auditor.config import ClusterConfig, load_config  # noqa: E402
-from auditor.ingest.pipeline import ingest_corpus  # noqa: E402
-from auditor.judgement.audit import run_audit  # noqa: E402
-from auditor.questions.sets import load_questions  # noqa: E402
-from auditor.report import write_report  # noqa: E402
-from auditor.retrieval.index import PassageIndex  # noqa: E402
-from auditor.store import Store  # noqa: E402
+from auditor.cluster import backend as cluster_backend
+from auditor.cluster import retrieve
+from auditor.cluster.session import ClusterScan
+from auditor.config import ClusterConfig, load_config
+from auditor.ingest.pipeline import ingest_corpus
+from auditor.judgement.audit import run_audit
+from auditor.questions.sets import load_questions
+from auditor.report import write_report
+from auditor.retrieval.index import PassageIndex
+from auditor.store import Store
+from bench.scale import AS_OF, CACHE, TreeMemory, generate
 
 STAGES = ("ingest", "index", "audit", "report")
 

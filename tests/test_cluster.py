@@ -33,10 +33,7 @@ from distributed import Client, LocalCluster, WorkerPlugin  # noqa: E402
 
 from auditor.cluster.backend import ClusterError, connect  # noqa: E402
 from auditor.scan import scan  # noqa: E402
-
-REPO = Path(__file__).resolve().parent.parent
-sys.path.insert(0, str(REPO / "bench"))
-from scale import generate  # noqa: E402
+from bench.scale import generate  # noqa: E402
 
 
 def _cluster(**config) -> LocalCluster:
