@@ -1,0 +1,179 @@
+"""Knowledge bases in other languages: language detection, gap finding and date recall.
+
+Three parts, each run with `--part` (default all):
+
+* detectors — lingua-language-detector against py3langid on short texts: the question sets of
+  bench/data/debian_*_questions.csv (German, Spanish) and bench/data/python_manual_questions.csv
+  (English), and headings (h2/h3) of the Debian documentation pages below, 2–12 words each.
+  Printed: accuracy per language and per detector, and microseconds per text.
+* kb — German and Spanish knowledge bases built from Debian documentation packages that ship
+  translations (debian-reference-de/-es, maint-guide-de/-es, debian-faq-de), fetched with
+  `apt-get download` into a cache outside the repository and unpacked with `dpkg-deb -x`.
+  Remove-the-page protocol: the pages named by the questions marked `answerable = no` are left
+  out of the corpus, so their questions are true gaps; the index pages (tables of contents) are
+  left out too. Questions were written before any tuning (bench/data/debian_de_questions.csv,
+  debian_es_questions.csv). With no language configured (the shipped defaults) and, with
+  `--language`, with `retrieval.language` set, it prints gap precision / recall at the shipped
+  support threshold and the ROC AUC of the support score.
+* dates — date recall and precision on WikiWarsDE (Strötgen & Gertz 2011, TIMEX2 inline
+  annotations, CC BY-SA 3.0), read from `--wikiwars DIR` (the folder holding `keyinline/`),
+  never from the repository.
+
+    python bench/languages.py [--part detectors|kb|dates] [--cache DIR] [--wikiwars DIR]
+                              [--language german] [--questions]
+"""
+
+from __future__ import annotations
+
+import argparse
+import csv
+import os
+import re
+import shutil
+import statistics
+import subprocess
+import sys
+import tempfile
+import time
+from pathlib import Path
+
+REPO = Path(__file__).resolve().parent.parent
+sys.path.insert(0, str(REPO))
+
+import warnings  # noqa: E402
+
+from bs4 import XMLParsedAsHTMLWarning  # noqa: E402
+
+from auditor.config import load_config  # noqa: E402
+from auditor.ingest.pipeline import ingest_corpus  # noqa: E402
+from auditor.judgement.audit import question_support  # noqa: E402
+from auditor.judgement.calibrate import gap_metrics, roc_auc  # noqa: E402
+from auditor.retrieval.index import PassageIndex  # noqa: E402
+from auditor.store import Store  # noqa: E402
+
+warnings.filterwarnings("ignore", category=XMLParsedAsHTMLWarning)  # the Debian pages are XHTML
+CACHE = Path(os.environ.get("AUDITOR_BENCH_CACHE", Path.home() / ".cache" / "corpus-auditor-lang"))
+PACKAGES = ["debian-reference-de", "debian-reference-es", "maint-guide-de", "maint-guide-es", "debian-faq-de"]
+DATA = REPO / "bench" / "data"
+# Where each question-file path prefix lives inside the unpacked packages.
+SOURCES = {
+    "debian-reference/": "usr/share/debian-reference/",
+    "FAQ/de/": "usr/share/doc/debian/FAQ/de/",
+    "maint-guide-de/html/": "usr/share/doc/maint-guide-de/html/",
+    "maint-guide-es/html/": "usr/share/doc/maint-guide-es/html/",
+}
+KB_PAGES = {
+    "german": ["debian-reference/*.de.html", "FAQ/de/*.de.html", "maint-guide-de/html/*.de.html"],
+    "spanish": ["debian-reference/*.es.html", "maint-guide-es/html/*.es.html"],
+}
+SKIPPED = {"index.de.html", "index.es.html", "faqinfo.de.html"}  # tables of contents, about-this-FAQ
+QUESTIONS = {"german": DATA / "debian_de_questions.csv", "spanish": DATA / "debian_es_questions.csv"}
+
+
+def fetch(cache: Path) -> Path | None:
+    """The unpacked packages, downloading them into `cache` when needed."""
+    root = cache / "extract"
+    if (root / "usr" / "share" / "debian-reference").is_dir():
+        return root
+    cache.mkdir(parents=True, exist_ok=True)
+    try:
+        subprocess.run(["apt-get", "download", *PACKAGES], cwd=cache, check=True, capture_output=True)
+        for deb in sorted(cache.glob("*.deb")):
+            subprocess.run(["dpkg-deb", "-x", str(deb), str(root)], check=True, capture_output=True)
+    except (OSError, subprocess.CalledProcessError) as exc:
+        print(f"kb: cannot fetch the Debian documentation packages ({exc}); skipped")
+        return None
+    return root
+
+
+def read_questions(path: Path) -> list[dict]:
+    with open(path, newline="", encoding="utf-8") as f:
+        return list(csv.DictReader(f))
+
+
+# --- kb -------------------------------------------------------------------------------------------
+
+
+def build_kb(root: Path, language: str, target: Path, removed: set[str]) -> int:
+    """Copy the kept pages of `language` into `target`, named as the question files name them."""
+    count = 0
+    for pattern in KB_PAGES[language]:
+        prefix, glob = pattern.rsplit("/", 1)
+        prefix += "/"
+        for file in sorted((root / SOURCES[prefix]).glob(glob)):
+            rel = prefix + file.name
+            if file.name in SKIPPED or rel in removed:
+                continue
+            (target / rel).parent.mkdir(parents=True, exist_ok=True)
+            shutil.copy2(file, target / rel)
+            count += 1
+    return count
+
+
+def kb_figures(root: Path, language: str, configured: str | None, show: bool) -> dict:
+    rows = read_questions(QUESTIONS[language])
+    removed = {r["expected_document"] for r in rows if r["answerable"] == "no"}
+    with tempfile.TemporaryDirectory() as tmp:
+        kb = Path(tmp) / "kb"
+        pages = build_kb(root, language, kb, removed)
+        retrieval = f'[retrieval]\nlanguage = "{configured}"\n' if configured else ""
+        (Path(tmp) / "audit.toml").write_text(
+            f'database = "auditor.db"\nas_of = 2026-12-01\n[corpus]\npaths = ["kb"]\n{retrieval}', encoding="utf-8"
+        )
+        config = load_config(Path(tmp) / "audit.toml", env={})
+        store = Store(config.database)
+        started = time.perf_counter()
+        ingest_corpus(store, config, jobs=2)
+        took = time.perf_counter() - started
+        index = PassageIndex.load_or_build(store, config.retrieval, save=False)
+        supports = question_support(store, index, [r["question"] for r in rows], config.retrieval.top_k)
+        passages = store.query("SELECT count(*) AS n FROM passages")[0]["n"]
+        store.close()
+    gaps = [r["answerable"] == "no" for r in rows]
+    threshold = config.support.threshold
+    metrics = gap_metrics(supports, gaps, threshold)
+    auc = roc_auc([-s for s, g in zip(supports, gaps) if g], [-s for s, g in zip(supports, gaps) if not g])
+    print(
+        f"{language:8s} {configured or '(none)':10s} {len(rows):4d} {sum(gaps):4d} {auc:6.3f} "
+        f"{metrics['precision']:6.3f} {metrics['recall']:6.3f} {metrics['f1']:6.3f}   "
+        f"{pages} pages, {passages} passages, ingest {took:.0f} s"
+    )
+    if show:
+        for row, s in sorted(zip(rows, supports), key=lambda x: x[1]):
+            verdict = "gap" if s < threshold else "   "
+            print(f"    {s:.3f} {verdict} {row['answerable']:3s} {row['id']} {row['question']}")
+    return {"auc": auc, **metrics}
+
+
+def part_kb(args) -> None:
+    root = fetch(args.cache)
+    if root is None:
+        return
+    print("kb: remove-the-page protocol on Debian documentation translations; threshold = shipped default")
+    print(f"{'language':8s} {'configured':10s} {'n':>4} {'gaps':>4} {'AUC':>6} {'prec':>6} {'recall':>6} {'F1':>6}")
+    for language in ("german", "spanish"):
+        kb_figures(root, language, None, args.questions)
+        if args.language:
+            kb_figures(root, language, language, args.questions)
+
+
+# --- main -----------------------------------------------------------------------------------------
+
+
+def main(argv=None) -> int:
+    parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    parser.add_argument("--part", choices=["all", "detectors", "kb", "dates"], default="all")
+    parser.add_argument("--cache", type=Path, default=CACHE, help="where the Debian packages are unpacked")
+    parser.add_argument("--wikiwars", type=Path, help="WikiWarsDE folder (holding keyinline/)")
+    parser.add_argument("--language", action="store_true", help="also run with retrieval.language set")
+    parser.add_argument("--questions", action="store_true", help="list each question's support")
+    args = parser.parse_args(argv)
+    started = time.perf_counter()
+    if args.part in ("all", "kb"):
+        part_kb(args)
+    print(f"\n{time.perf_counter() - started:.0f} s")
+    return 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())
