@@ -29,9 +29,6 @@ _LINGUA_NAMES = {"norwegian": "BOKMAL"}
 # practice (detectors disagree most below a few words); no single source.
 MIN_LETTERS = 8
 
-# Below this confidence (lingua's relative confidence of the best candidate) the fallback wins.
-MIN_CONFIDENCE = 0.5
-
 
 def known(name: str) -> bool:
     """True when `name` is both a Snowball stemmer and a language lingua can detect."""
@@ -64,22 +61,30 @@ def from_tag(tag: str | None) -> str | None:
     return name if name in Stemmer.algorithms() else None
 
 
+# From this length on, lingua's low-accuracy mode (trigram models only) is as reliable as the full
+# one (lingua's README, accuracy tables by text length) and loads a fraction of the models: a
+# document is detected that way, a question with all n-gram models.
+LONG_TEXT = 120
+
+
 @functools.lru_cache(maxsize=16)
-def _detector(candidates: tuple[str, ...]):
+def _detector(candidates: tuple[str, ...], low_accuracy: bool):
     languages = [lang for lang in (_lingua(c) for c in candidates) if lang is not None]
-    return LanguageDetectorBuilder.from_languages(*languages).with_preloaded_language_models().build()
+    builder = LanguageDetectorBuilder.from_languages(*languages)
+    return (builder.with_low_accuracy_mode() if low_accuracy else builder).build()
 
 
 @functools.lru_cache(maxsize=8192)
 def detect(text: str, candidates: tuple[str, ...] = DEFAULT_CANDIDATES) -> str | None:
-    """The most likely of `candidates` for `text`, or None when the text is too short or the
-    detector is not confident enough (the caller's fallback then applies)."""
+    """The most likely of `candidates` for `text`, or None when the text is too short to tell
+    (the caller's fallback then applies). No confidence floor: on the short texts of
+    bench/languages.py a floor of 0.5 sent more headings to the fallback wrongly than it saved."""
     if len(candidates) == 1:
         return candidates[0]
     if sum(ch.isalpha() for ch in text[:4000]) < MIN_LETTERS:
         return None
-    values = _detector(candidates).compute_language_confidence_values(text[:4000])
-    if not values or values[0].value < MIN_CONFIDENCE:
+    values = _detector(candidates, len(text) >= LONG_TEXT).compute_language_confidence_values(text[:4000])
+    if not values or values[0].value == 0.0:
         return None
     return _snowball(values[0].language)
 

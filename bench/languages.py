@@ -157,6 +157,69 @@ def part_kb(args) -> None:
             kb_figures(root, language, language, args.questions)
 
 
+# --- detectors ------------------------------------------------------------------------------------
+
+
+def short_texts(root: Path | None) -> list[tuple[str, str]]:
+    """(language, text): the question sets, and headings of the Debian pages when they are there."""
+    texts = [("german", r["question"]) for r in read_questions(QUESTIONS["german"])]
+    texts += [("spanish", r["question"]) for r in read_questions(QUESTIONS["spanish"])]
+    texts += [("english", r["question"]) for r in read_questions(DATA / "python_manual_questions.csv")]
+    if root is None:
+        return texts
+    from bs4 import BeautifulSoup
+
+    pages = {"german": "usr/share/doc/maint-guide-de/html/*.html", "spanish": "usr/share/doc/maint-guide-es/html/*.html"}
+    for language, glob in pages.items():
+        for file in sorted(root.glob(glob)):
+            soup = BeautifulSoup(file.read_text(encoding="utf-8"), "lxml")
+            for h in soup.find_all(["h2", "h3"]):
+                text = re.sub(r"^[\dA-Z.]+\s+", "", h.get_text(" ", strip=True))  # drop "7.4." numbering
+                if 2 <= len(text.split()) <= 12:
+                    texts.append((language, text))
+    return texts
+
+
+def part_detectors(args) -> None:
+    import py3langid
+    from lingua import Language, LanguageDetectorBuilder
+
+    from auditor import language as ours
+
+    root = fetch(args.cache) if not args.offline else None
+    texts = short_texts(root)
+    codes = {"en": "english", "de": "german", "es": "spanish"}
+    py3langid.set_languages(list(codes))  # the same three candidates for both
+    three = [Language.ENGLISH, Language.GERMAN, Language.SPANISH]
+    lingua_high = LanguageDetectorBuilder.from_languages(*three).build()
+    lingua_low = LanguageDetectorBuilder.from_languages(*three).with_low_accuracy_mode().build()
+    detectors = {
+        "lingua (all n-grams)": lambda t: (lingua_high.detect_language_of(t) or Language.ENGLISH).name.lower(),
+        "lingua (low accuracy)": lambda t: (lingua_low.detect_language_of(t) or Language.ENGLISH).name.lower(),
+        "py3langid": lambda t: codes[py3langid.classify(t)[0]],
+        "auditor.language.detect": lambda t: ours.detect_or(t, ours.DEFAULT_CANDIDATES, "english"),
+    }
+    print(f"detectors: {len(texts)} short texts (questions and headings), 3 candidate languages")
+    print(f"{'detector':26s} " + " ".join(f"{lang:>8s}" for lang in ("english", "german", "spanish")) + "      all  µs/text")
+    for name, detect in detectors.items():
+        detect(texts[0][1])  # load its models outside the timing
+        started = time.perf_counter()
+        right: dict[str, list[bool]] = {}
+        wrong = []
+        for language, text in texts:
+            found = detect(text)
+            right.setdefault(language, []).append(found == language)
+            if found != language:
+                wrong.append(f"{language}->{found}: {text}")
+        took = (time.perf_counter() - started) / len(texts) * 1e6
+        shares = " ".join(f"{statistics.mean(right[lang]):8.3f}" for lang in ("english", "german", "spanish"))
+        total = statistics.mean([x for v in right.values() for x in v])
+        print(f"{name:26s} {shares} {total:8.3f} {took:8.0f}")
+        if args.questions:
+            for line in wrong:
+                print(f"    {line}")
+
+
 # --- main -----------------------------------------------------------------------------------------
 
 
@@ -166,9 +229,12 @@ def main(argv=None) -> int:
     parser.add_argument("--cache", type=Path, default=CACHE, help="where the Debian packages are unpacked")
     parser.add_argument("--wikiwars", type=Path, help="WikiWarsDE folder (holding keyinline/)")
     parser.add_argument("--language", action="store_true", help="also run with retrieval.language set")
-    parser.add_argument("--questions", action="store_true", help="list each question's support")
+    parser.add_argument("--questions", action="store_true", help="list each question's support / each miss")
+    parser.add_argument("--offline", action="store_true", help="detectors: the question sets only")
     args = parser.parse_args(argv)
     started = time.perf_counter()
+    if args.part in ("all", "detectors"):
+        part_detectors(args)
     if args.part in ("all", "kb"):
         part_kb(args)
     print(f"\n{time.perf_counter() - started:.0f} s")

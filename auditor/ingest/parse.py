@@ -45,7 +45,10 @@ def warm_up(settings: Settings) -> None:
     not count against the per-file timeout."""
     try:
         key = (settings.language, settings.stopwords, settings.detect)
-        _TOKENIZERS.setdefault(key, Tokenizer(*key)).tokenize("warm up the stemmer and the language detector")
+        _TOKENIZERS.setdefault(key, Tokenizer(*key)).tokenize(
+            "Warm up the stemmer and the language detector on a text long enough for the document mode, "
+            "which loads the small models only."
+        )
         temporal.extract(
             "Updated 1 March 2024, effective next month.",
             reference_date=None,
