@@ -220,6 +220,75 @@ def part_detectors(args) -> None:
                 print(f"    {line}")
 
 
+# --- dates ----------------------------------------------------------------------------------------
+
+_TAG = re.compile(r"<TIMEX2([^>]*)>|</TIMEX2>")
+_VAL = re.compile(r'val="([^"]*)"')
+
+
+def read_timex2(path: Path) -> tuple[str, list[tuple[int, int, str]], str]:
+    """(TEXT of the document, gold spans (start, end, val) in it, creation date) from an inline
+    TIMEX2 file (ACE TERN format); nested tags keep the outer and the inner span."""
+    raw = path.read_text(encoding="utf-8")
+    dct = re.search(r"<DATETIME>.*?(\d{4}-\d{2}-\d{2})", raw, re.S)
+    body = raw[raw.index("<TEXT>") + len("<TEXT>") : raw.index("</TEXT>")]
+    out, spans, stack, pos = [], [], [], 0
+    for m in _TAG.finditer(body):
+        out.append(body[pos : m.start()])
+        pos = m.end()
+        offset = sum(len(x) for x in out)
+        if m.group(0).startswith("</"):
+            start, val = stack.pop()
+            spans.append((start, offset, val))
+        else:
+            v = _VAL.search(m.group(1) or "")
+            stack.append((offset, v.group(1) if v else ""))
+    out.append(body[pos:])
+    return "".join(out), spans, dct.group(1) if dct else ""
+
+
+def part_dates(args) -> None:
+    from datetime import date
+
+    from auditor.temporal.extract import extract
+
+    folder = args.wikiwars
+    if folder is None or not (folder / "keyinline").is_dir():
+        print("dates: give --wikiwars DIR (the WikiWarsDE folder holding keyinline/); skipped")
+        return
+    gold_all = gold_dated = hit_all = hit_dated = 0
+    predicted = correct = 0
+    missed: list[str] = []
+    false: list[str] = []
+    for file in sorted((folder / "keyinline").glob("*.xml")):
+        text, spans, dct = read_timex2(file)
+        reference = date.fromisoformat(dct) if dct else None
+        found = extract(text, reference_date=reference, language="german")
+        pred = [(e.char_start, e.char_end) for e in found]
+        for start, end, val in spans:
+            hit = any(a < end and start < b for a, b in pred)
+            gold_all += 1
+            hit_all += hit
+            if re.match(r"\d", val):  # a calendar value: year, month, day, decade, century
+                gold_dated += 1
+                hit_dated += hit
+                if not hit and len(missed) < 40:
+                    missed.append(f"{text[start:end]!r} ({val})")
+        for a, b in pred:
+            predicted += 1
+            ok = any(a < end and start < b for start, end, _ in spans)
+            correct += ok
+            if not ok and len(false) < 40:
+                false.append(repr(text[max(0, a - 25) : b + 10].replace("\n", " ")))
+    print("dates: WikiWarsDE (TIMEX2, lenient extent match: a span overlapping a gold span)")
+    print(f"  gold TIMEX2 with a calendar value: {gold_dated}, found {hit_dated}: recall {hit_dated / gold_dated:.3f}")
+    print(f"  all gold TIMEX2 (durations, sets, vague references too): {gold_all}, recall {hit_all / gold_all:.3f}")
+    print(f"  our expressions: {predicted}, overlapping a gold TIMEX2: {correct}: precision {correct / predicted:.3f}")
+    if args.questions:
+        print("  missed (first 40):", "; ".join(missed))
+        print("  not in the gold set (first 40):", "; ".join(false))
+
+
 # --- main -----------------------------------------------------------------------------------------
 
 
@@ -235,6 +304,8 @@ def main(argv=None) -> int:
     started = time.perf_counter()
     if args.part in ("all", "detectors"):
         part_detectors(args)
+    if args.part in ("all", "dates"):
+        part_dates(args)
     if args.part in ("all", "kb"):
         part_kb(args)
     print(f"\n{time.perf_counter() - started:.0f} s")

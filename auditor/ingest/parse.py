@@ -113,6 +113,7 @@ def _parse_file(task: dict, settings: Settings) -> dict:
             day_first=settings.day_first,
             fiscal_year_start=settings.fiscal_year_start,
             hemisphere=settings.hemisphere,
+            language=language,
         )
         passages.append((p, tokenizer.tokenize(p.text, language), statements))
     return {

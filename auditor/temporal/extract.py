@@ -41,6 +41,8 @@ from auditor.temporal.patterns import (
     narrow,
     parse_candidate,
 )
+from auditor.temporal.locales import locale_for
+from auditor.temporal.localized import extract_localized
 from auditor.temporal.roles import role_for
 
 __all__ = ["extract", "timex3"]
@@ -206,8 +208,12 @@ def extract(
     day_first: bool = False,
     fiscal_year_start: int = 1,
     hemisphere: str = "north",
+    language: str = "english",
 ) -> list[TemporalExpression]:
     """Every temporal expression in `text`, normalized, in text order.
+
+    `language` (a Snowball name) other than English with a language file in
+    auditor/temporal/languages/ is read with that language's words (auditor/temporal/localized.py).
 
     `reference_date` (the document date) anchors relative and yearless expressions and tells
     planned events from past ones; `day_first` reads 03/04/2025 as 3 April; `fiscal_year_start`
@@ -218,6 +224,8 @@ def extract(
         raise ValueError(f"hemisphere must be 'north' or 'south', not {hemisphere!r}")
     if not (isinstance(fiscal_year_start, int) and 1 <= fiscal_year_start <= 12):
         raise ValueError(f"fiscal_year_start must be a month number 1-12, not {fiscal_year_start!r}")
+    if language != "english" and (words := locale_for(language)) is not None:
+        return extract_localized(text, words, reference_date)
     ctx = {
         "text": text,
         "reference": reference_date,

@@ -1,0 +1,340 @@
+"""Temporal expressions in languages other than English (docs/languages.md).
+
+The patterns are built from a language's `DateLocale` (auditor/temporal/locales.py: CLDR names and
+orders through Babel, our cue words from auditor/temporal/languages/<code>.toml), so a new language
+needs a data file and no code here. Conventions follow auditor/temporal/extract.py and docs/dates.md:
+every expression is an interval [start, end] with a granularity; quarters and halves are calendar
+ones; seasons are meteorological; early/mid/late (Anfang/Mitte/Ende, a principios/mediados/finales
+de) narrow to the first, middle and last third; relative and yearless expressions need a reference
+date and are dropped without one.
+
+Roles, decided per expression in its sentence, first rule that applies:
+1. the nearest cue phrase of the language file (`[cues]`) that ends at most two words before the
+   expression (after any earlier expression of the sentence): as_of, effective, expires, planned;
+2. `planned` when the sentence speaks of the future (`future_words`), the expression points
+   forward ("in zwei Wochen", "el próximo mes"), or it starts after the reference date in a
+   sentence with no past tense (`past_words`);
+3. `event` otherwise.
+"""
+
+from __future__ import annotations
+
+import calendar
+import re
+from dataclasses import dataclass
+from datetime import date, timedelta
+
+from auditor.models import TemporalExpression
+from auditor.temporal.locales import DateLocale
+
+_WINDOW = 60  # characters of the sentence before an expression searched for a cue
+_THIRDS = {"early": 0, "mid": 1, "late": 2}
+
+
+@dataclass
+class _Atom:
+    start: int
+    end: int
+    first: date
+    last: date
+    granularity: str
+    future: bool = False  # points forward from the reference date
+
+
+def _alternation(words) -> str:
+    """A regex alternation of `words`, longest first, spaces matching any whitespace."""
+    return "|".join(re.escape(w).replace(r"\ ", r"\s+") for w in sorted(set(words), key=len, reverse=True) if w)
+
+
+def _cached(build):
+    """Cache a pattern builder per locale (a DateLocale holds dicts, so it is not hashable)."""
+    cache: dict[str, re.Pattern] = {}
+
+    def get(loc: DateLocale) -> re.Pattern:
+        if loc.code not in cache:
+            cache[loc.code] = build(loc)
+        return cache[loc.code]
+
+    return get
+
+
+@_cached
+def _compiled(loc: DateLocale) -> re.Pattern:
+    month = _alternation(loc.months)
+    dm = rf"\s+{re.escape(loc.day_month_joiner)}\s+" if loc.day_month_joiner else r"\s*"
+    my = rf"(?:\s+{re.escape(loc.month_year_joiner)})?\s+" if loc.month_year_joiner else r",?\s+"
+    day_suffix = r"(?:\.|\.?º|\.?ª|\.?er|°)?" if not loc.day_suffix else r"\.?"
+    dm_joined = rf"(?:{dm}|\s+{re.escape(loc.day_month_joiner)}\s+)" if loc.day_month_joiner else dm
+    sep = f"[{re.escape(loc.separators)}]"
+    mod = _alternation(loc.modifiers)
+    def mod_prefix(name: str) -> str:
+        return rf"(?:(?P<{name}>{mod})\s+(?:(?:des|del|de)\s+)?)?" if mod else ""
+
+    number = _alternation(list(loc.numbers) + [])
+    count = rf"(?P<n>\d{{1,3}}|{number})" if number else r"(?P<n>\d{1,3})"
+    unit = _alternation(loc.units)
+    ago_before = _alternation(loc.ago_before)
+    ago_after = _alternation(loc.ago_after)
+    ahead = _alternation(loc.ahead_before)
+    ordinal = _alternation(loc.ordinals)
+    quarter = _alternation(loc.quarter_words)
+    half = _alternation(loc.half_words)
+    season = _alternation(loc.seasons)
+    century = _alternation(loc.century_words)
+    deictic = _alternation(loc.today + loc.yesterday + loc.tomorrow)
+    nxt, last = _alternation(loc.next_words), _alternation(loc.last_words)
+    article = r"(?:(?:im|am|in\s+der|in\s+den|el|la|los|las|en\s+el|en\s+la)\s+)?"
+    the_year = r"(?:\s+(?:des\s+jahres|del\s+año|de))?"
+    parts = [
+        rf"(?P<iso>(?P<iy>\d{{4}})-(?P<im>\d{{1,2}})-(?P<id>\d{{1,2}}))",
+        rf"(?P<num>(?P<n1>\d{{1,2}}){sep}(?P<n2>\d{{1,2}}){sep}(?P<n3>\d{{4}}|\d{{2}}))(?![\d{re.escape(loc.separators)}]\d)",
+        rf"(?P<dmy>(?P<d>\d{{1,2}}){day_suffix}{dm_joined}(?P<m>{month})\.?(?:{my}(?P<y>\d{{4}}))?)",
+        rf"(?P<my>{mod_prefix('mod')}(?P<m2>{month})\.?{my}(?P<y2>\d{{4}}))",
+    ]
+    if quarter:
+        q_num = rf"(?P<qn>{ordinal}|[1-4]\.(?:er|º|°)?|[1-4]\.?)" if ordinal else r"(?P<qn>[1-4]\.?)"
+        parts.append(rf"(?P<q>(?:{q_num}\s+(?P<qw>{quarter})|[qQ](?P<qd>[1-4])){the_year}[\s/]+(?P<qy>\d{{4}}))")
+    if half:
+        h_num = rf"(?P<hn>{ordinal}|[12]\.(?:er|º|°)?|[12]\.?)" if ordinal else r"(?P<hn>[12]\.?)"
+        parts.append(rf"(?P<h>{h_num}\s+(?:{half}){the_year}\s+(?P<hy>\d{{4}}))")
+    if season:
+        parts.append(rf"(?P<s>{mod_prefix('smod')}(?P<sw>{season})\s+(?:de\s+)?(?P<sy>\d{{4}}))")
+    if century:
+        parts.append(rf"(?P<c>(?P<cn>\d{{1,2}})\.\s*(?:{century})|(?:{century})\s+(?P<cr>[IVXL]+|\d{{1,2}})\b)")
+    decade = _alternation(loc.decade_suffixes)
+    if decade:
+        parts.append(rf"(?P<dec>(?P<dn>\d{{2}}|1\d{{3}}|20\d{{2}})(?:{decade})(?:\s*jahren?)?)")
+    parts.append(r"(?P<dec2>(?:década\s+de\s+|años\s+)(?P<dn2>1\d{3}|20\d{2}|[2-9]0)\b)")
+    if ago_before and unit:
+        parts.append(rf"(?P<ago>(?:{ago_before})\s+{count}\s+(?P<u>{unit}))")
+    if ago_after and unit:
+        parts.append(rf"(?P<ago2>{count.replace('<n>', '<n2a>')}\s+(?P<u2>{unit})\s+(?:{ago_after}))")
+    if ahead and unit:
+        parts.append(rf"(?P<ahead>(?:{ahead})\s+{count.replace('<n>', '<n3a>')}\s+(?P<u3>{unit}))")
+    if unit and (nxt or last):
+        parts.append(rf"(?P<rel>{article}(?:(?P<rw>{nxt}|{last})\s+(?P<u4>{unit})|(?P<u5>{unit})\s+(?P<rw2>{nxt}|{last})))")
+    if deictic:
+        parts.append(rf"(?P<deictic>{deictic})")
+    parts.append(rf"(?P<year>{mod_prefix('ymod')}(?P<yy>1\d{{3}}|20\d{{2}}))(?![.,]\d)")
+    return re.compile(rf"(?<![\w.])(?:{'|'.join(parts)})(?![\w])", re.IGNORECASE)
+
+
+def _month_end(year: int, month: int) -> date:
+    return date(year, month, calendar.monthrange(year, month)[1])
+
+
+def _span(year: int, month: int, months: int) -> tuple[date, date]:
+    last_month = month + months - 1
+    end_year, end_month = year + (last_month - 1) // 12, (last_month - 1) % 12 + 1
+    return date(year, month, 1), _month_end(end_year, end_month)
+
+
+def _narrow(first: date, last: date, modifier: str | None) -> tuple[date, date]:
+    if not modifier:
+        return first, last
+    third = _THIRDS[modifier]
+    days = (last - first).days + 1
+    a = first + timedelta(days=days * third // 3)
+    b = first + timedelta(days=days * (third + 1) // 3 - 1)
+    return a, b
+
+
+def _roman(text: str) -> int:
+    values = {"I": 1, "V": 5, "X": 10, "L": 50}
+    total = 0
+    for i, ch in enumerate(text):
+        v = values[ch]
+        total += -v if i + 1 < len(text) and values[text[i + 1]] > v else v
+    return total
+
+
+def _shift(reference: date, unit: str, n: int) -> tuple[date, date]:
+    """The calendar day/week/month/year `n` units from `reference` (negative: back)."""
+    if unit == "day":
+        point = reference + timedelta(days=n)
+        return point, point
+    if unit == "week":
+        point = reference + timedelta(weeks=n)
+        monday = point - timedelta(days=point.weekday())
+        return monday, monday + timedelta(days=6)
+    if unit == "month":
+        index = reference.year * 12 + reference.month - 1 + n
+        return _span(index // 12, index % 12 + 1, 1)
+    return date(reference.year + n, 1, 1), date(reference.year + n, 12, 31)
+
+
+def _atom(m: re.Match, loc: DateLocale, reference: date | None, day_first: bool) -> _Atom | None:
+    g = m.groupdict()
+    s, e = m.start(), m.end()
+    text = m.group(0)
+    if g["iso"]:
+        point = date(int(g["iy"]), int(g["im"]), int(g["id"]))
+        return _Atom(s, e, point, point, "day")
+    if g["num"]:
+        a, b, y = int(g["n1"]), int(g["n2"]), int(g["n3"])
+        year = y if y >= 100 else 2000 + y
+        day, month = (a, b) if loc.order.startswith("D") or day_first else (b, a)
+        point = date(year, month, day)
+        return _Atom(s, e, point, point, "day")
+    if g["dmy"]:
+        month_word = g["m"].casefold()
+        if g["y"] is None and reference is None:
+            return None
+        year = int(g["y"]) if g["y"] else reference.year  # type: ignore[union-attr]
+        point = date(year, loc.months[month_word], int(g["d"]))
+        return _Atom(s, e, point, point, "day")
+    if g["my"]:
+        first, last = _span(int(g["y2"]), loc.months[g["m2"].casefold()], 1)
+        first, last = _narrow(first, last, loc.modifiers.get(" ".join((g["mod"] or "").casefold().split())))
+        return _Atom(s, e, first, last, "month")
+    if g.get("q"):
+        n = int(g["qd"]) if g.get("qd") else loc.ordinals.get(g["qn"].casefold()) or int(g["qn"][0])
+        first, last = _span(int(g["qy"]), 3 * n - 2, 3)
+        return _Atom(s, e, first, last, "quarter")
+    if g.get("h"):
+        n = loc.ordinals.get(g["hn"].casefold()) or int(g["hn"][0])
+        if n not in (1, 2):
+            return None
+        first, last = _span(int(g["hy"]), 6 * n - 5, 6)
+        return _Atom(s, e, first, last, "half")
+    if g.get("s"):
+        start_month = loc.seasons[g["sw"].casefold()]
+        first, last = _span(int(g["sy"]), start_month, 3)
+        first, last = _narrow(first, last, loc.modifiers.get(" ".join((g["smod"] or "").casefold().split())))
+        return _Atom(s, e, first, last, "season")
+    if g.get("c"):
+        n = int(g["cn"]) if g.get("cn") else (_roman(g["cr"].upper()) if not g["cr"].isdigit() else int(g["cr"]))
+        if not 1 <= n <= 21:
+            return None
+        return _Atom(s, e, date((n - 1) * 100 + 1, 1, 1), date(n * 100, 12, 31), "decade")
+    if g.get("dec") or g.get("dec2"):
+        n = int(g.get("dn") or g.get("dn2"))
+        year = n if n >= 1000 else 1900 + n
+        if year % 10:
+            return None
+        return _Atom(s, e, date(year, 1, 1), date(year + 9, 12, 31), "decade")
+    if g.get("year"):
+        year = int(g["yy"])
+        first, last = _narrow(date(year, 1, 1), date(year, 12, 31), loc.modifiers.get(" ".join((g["ymod"] or "").casefold().split())))
+        return _Atom(s, e, first, last, "year")
+    if reference is None:
+        return None  # relative expressions below need an anchor
+    if g.get("ago") or g.get("ago2") or g.get("ahead"):
+        raw = g.get("n") or g.get("n2a") or g.get("n3a")
+        n = int(raw) if raw.isdigit() else loc.numbers[raw.casefold()]
+        unit = loc.units[(g.get("u") or g.get("u2") or g.get("u3")).casefold()]
+        sign = 1 if g.get("ahead") else -1
+        first, last = _shift(reference, unit, sign * n)
+        return _Atom(s, e, first, last, unit, future=sign > 0)
+    if g.get("rel"):
+        word = (g.get("rw") or g.get("rw2")).casefold()
+        unit = loc.units[(g.get("u4") or g.get("u5")).casefold()]
+        sign = 1 if " ".join(word.split()) in loc.next_words else -1
+        first, last = _shift(reference, unit, sign)
+        return _Atom(s, e, first, last, unit, future=sign > 0)
+    if g.get("deictic"):
+        word = text.casefold()
+        if loc.language == "german" and word in loc.tomorrow and text[0].isupper():
+            return None  # "Morgen" is the morning; only lower-case "morgen" is tomorrow
+        n = 0 if word in loc.today else (-1 if word in loc.yesterday else 1)
+        point = reference + timedelta(days=n)
+        return _Atom(s, e, point, point, "day", future=n > 0)
+    return None
+
+
+def _bare_year_ok(text: str, m: re.Match, loc: DateLocale) -> bool:
+    """A bare 4-digit number is a year after a year word ("im", "seit", "en", "desde" ...), a
+    modifier, or before punctuation; "1500 Soldaten" is a count."""
+    if m.group("ymod"):
+        return True
+    before = re.search(r"([\w.:]+)\W*$", text[max(0, m.start() - 30) : m.start()])
+    if before and before.group(1).casefold().rstrip(".:") in loc.year_before:
+        return True
+    after = text[m.end() : m.end() + 2]
+    return not after or after[0] in ".,;:)–-" or text[max(0, m.start() - 1) : m.start()] in ("(", "–", "-")
+
+
+_SENTENCE_END = re.compile(r"(?<!\d)(?<!\b[A-Za-zÄÖÜäöü])[.!?]+[\"')\]»”]*\s+(?=[\"'(\[«“¿¡]?[A-ZÄÖÜÁÉÍÓÚÑ0-9])|\n[ \t]*\n")
+
+
+def _sentences(text: str) -> list[tuple[int, int]]:
+    spans, start = [], 0
+    for m in _SENTENCE_END.finditer(text):
+        spans.append((start, m.end()))
+        start = m.end()
+    if start < len(text):
+        spans.append((start, len(text)))
+    return spans
+
+
+@_cached
+def _cue_patterns(loc: DateLocale) -> re.Pattern:
+    cues = sorted(((role, phrase) for role, phrases in loc.cues.items() for phrase in phrases), key=lambda c: -len(c[1]))
+    alternation = "|".join(f"(?P<{role}_{i}>{_alternation([phrase])})" for i, (role, phrase) in enumerate(cues))
+    return re.compile(rf"(?<!\w)(?:{alternation})(?=\W*(?:\w+\W+){{0,2}}$)", re.IGNORECASE)
+
+
+def _role(loc: DateLocale, left: str, sentence: str, atom: _Atom, reference: date | None) -> str:
+    found = None
+    for m in _cue_patterns(loc).finditer(left[-_WINDOW:]):
+        found = next(name for name, value in m.groupdict().items() if value is not None).rsplit("_", 1)[0]
+    if found:
+        return found
+    words = f" {' '.join(sentence.casefold().split())} "
+    future = any(f" {w} " in words for w in loc.future_words)
+    past = any(f" {w} " in words for w in loc.past_words)
+    if atom.future or (future and not past):
+        return "planned"
+    if reference is not None and atom.first > reference and not past:
+        return "planned"
+    return "event"
+
+
+def _merge(text: str, atoms: list[_Atom], loc: DateLocale) -> list[_Atom]:
+    """Join "1914–1918", "von 1939 bis 1945", "entre 2020 y 2022" into one range."""
+    merged: list[_Atom] = []
+    for atom in atoms:
+        prev = merged[-1] if merged else None
+        if prev is not None and atom.start - prev.end <= 20:
+            joiner = " ".join(text[prev.end : atom.start].split()).casefold()
+            opener = re.search(r"(\w+)\s*$", text[max(0, prev.start - 15) : prev.start])
+            opened = bool(opener) and opener.group(1).casefold() in loc.range_openers  # type: ignore[union-attr]
+            if joiner in loc.range_joiners and prev.first <= atom.last and (joiner not in ("und", "y") or opened):
+                order = ("day", "week", "month", "season", "quarter", "half", "year", "decade")
+                granularity = min(prev.granularity, atom.granularity, key=order.index)
+                merged[-1] = _Atom(prev.start, atom.end, prev.first, atom.last, granularity)
+                continue
+        merged.append(atom)
+    return merged
+
+
+def extract_localized(
+    text: str, loc: DateLocale, reference_date: date | None = None, *, day_first: bool = True
+) -> list[TemporalExpression]:
+    """Every temporal expression of `text` in the language of `loc`, normalized, in text order."""
+    atoms = []
+    for m in _compiled(loc).finditer(text):
+        if m.group("year") and not _bare_year_ok(text, m, loc):
+            continue
+        try:
+            atom = _atom(m, loc, reference_date, day_first)
+        except (ValueError, KeyError, OverflowError):  # 31.02.2024, an unknown word: not a date
+            atom = None
+        if atom is not None:
+            atoms.append(atom)
+    atoms = _merge(text, atoms, loc)
+    sentences = _sentences(text)
+    found, previous_end = [], {}
+    for atom in atoms:
+        index = next(i for i, (a, b) in enumerate(sentences) if a <= atom.start < b or i == len(sentences) - 1)
+        s_start, s_end = sentences[index]
+        left = text[max(s_start, previous_end.get(index, s_start)) : atom.start]
+        sentence = " ".join(text[s_start:s_end].split())
+        role = _role(loc, left, sentence, atom, reference_date)
+        previous_end[index] = atom.end
+        found.append(
+            TemporalExpression(
+                sentence, text[atom.start : atom.end], atom.first, atom.last, atom.granularity, role, atom.start, atom.end
+            )
+        )
+    return found
