@@ -40,6 +40,9 @@ class DateLocale:
     language: str  # Snowball name, e.g. "german"
     code: str  # CLDR locale, e.g. "de"
     months: dict[str, int]  # casefolded name or abbreviation (without its dot) -> 1..12
+    full_months: tuple[tuple[str, int], ...]  # the wide names only: safe without a day or year
+    month_before: tuple[str, ...]  # words after which a month name alone is a month ("im Mai")
+    capitalized_nouns: bool  # German: a capitalized word after a number is the thing counted
     weekdays: frozenset[str]  # casefolded
     order: str  # "DMY", "MDY" or "YMD": the numeric date order of the locale's short pattern
     separators: str  # characters that separate the parts of a numeric date
@@ -58,6 +61,9 @@ class DateLocale:
     yesterday: tuple[str, ...]
     tomorrow: tuple[str, ...]
     next_words: tuple[str, ...]
+    later_after: tuple[str, ...]  # "zwei Tage später": counted from the expression before
+    same: tuple[str, ...]  # "am selben Tag"
+    following: tuple[str, ...]  # "am folgenden Tag", "al día siguiente"
     last_words: tuple[str, ...]
     seasons: dict[str, int]  # casefolded season word -> first month (northern hemisphere)
     modifiers: dict[str, str]  # casefolded phrase -> early | mid | late
@@ -123,6 +129,7 @@ def load(source: Path) -> DateLocale:
         for context in ("format", "stand-alone"):
             for number, name in get_month_names(width, context, cldr).items():
                 months[name.casefold().rstrip(".")] = number
+    full = tuple((name.casefold(), number) for number, name in get_month_names("wide", "format", cldr).items())
     for name, number in _mapping(raw, "extra_months", source).items():
         months[name] = int(number)
     weekdays = frozenset(
@@ -140,6 +147,9 @@ def load(source: Path) -> DateLocale:
         language=language,
         code=code,
         months=months,
+        full_months=full,
+        month_before=_words(raw, "month_before", source),
+        capitalized_nouns=bool(raw.get("capitalized_nouns", False)),
         weekdays=weekdays,
         order=order,
         separators=separators,
@@ -158,6 +168,9 @@ def load(source: Path) -> DateLocale:
         yesterday=_words(raw, "yesterday", source),
         tomorrow=_words(raw, "tomorrow", source),
         next_words=_words(raw, "next", source),
+        later_after=_words(raw, "later_after", source),
+        same=_words(raw, "same", source),
+        following=_words(raw, "following", source),
         last_words=_words(raw, "last", source),
         seasons={k: int(v) for k, v in _mapping(raw, "seasons", source).items()},
         modifiers={k: str(v) for k, v in _mapping(raw, "modifiers", source).items()},

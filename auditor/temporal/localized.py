@@ -91,6 +91,24 @@ def _compiled(loc: DateLocale) -> re.Pattern:
         rf"(?P<dmy>(?P<d>\d{{1,2}}){day_suffix}{dm_joined}(?P<m>{month})\.?(?:{my}(?P<y>\d{{4}}))?)",
         rf"(?P<my>{mod_prefix('mod')}(?P<m2>{month})\.?{my}(?P<y2>\d{{4}}))",
     ]
+    month_full = _alternation([name for name, _ in loc.full_months])
+    before_month = _alternation(loc.month_before)
+    if before_month:
+        # A month without a year after a preposition ("im Mai", "Anfang März", "en mayo"): the
+        # reference date's year, as auditor/temporal/extract.py does for a yearless day.
+        parts.append(rf"(?P<mo>(?:{before_month})\s+(?P<m3>{month_full}))(?!\s*\d|{my}\d)")
+        if season:
+            parts.append(rf"(?P<so>(?:{before_month})\s+(?P<sw2>{season}))(?!\s*\d|\s+de\s+\d)")
+    # "Mai/Juni 1940", "August und Oktober 1914", "de mayo a junio de 2020": two months, one year.
+    parts.insert(
+        2,
+        rf"(?P<mm>(?P<m4>{month_full})\s*(?:/|–|-|und|bis|y|a)\s*(?P<m5>{month_full}){my}(?P<y4>\d{{4}}))",
+    )
+    parts.insert(
+        2,
+        rf"(?P<dr>(?P<d0>\d{{1,2}}){day_suffix}\s*(?:–|-|/|bis(?:\s+zum)?|und|al|y)\s*(?P<d1>\d{{1,2}}){day_suffix}"
+        rf"{dm_joined}(?P<mr>{month})\.?(?:{my}(?P<yr>\d{{4}}))?)",
+    )
     if quarter:
         q_num = rf"(?P<qn>{ordinal}|[1-4]\.(?:er|º|°)?|[1-4]\.?)" if ordinal else r"(?P<qn>[1-4]\.?)"
         parts.append(rf"(?P<q>(?:{q_num}\s+(?P<qw>{quarter})|[qQ](?P<qd>[1-4])){the_year}[\s/]+(?P<qy>\d{{4}}))")
@@ -113,6 +131,13 @@ def _compiled(loc: DateLocale) -> re.Pattern:
         parts.append(rf"(?P<ahead>(?:{ahead})\s+{count.replace('<n>', '<n3a>')}\s+(?P<u3>{unit}))")
     if unit and (nxt or last):
         parts.append(rf"(?P<rel>{article}(?:(?P<rw>{nxt}|{last})\s+(?P<u4>{unit})|(?P<u5>{unit})\s+(?P<rw2>{nxt}|{last})))")
+    later, same, following = _alternation(loc.later_after), _alternation(loc.same), _alternation(loc.following)
+    if later and unit:
+        parts.append(rf"(?P<later>{count.replace('<n>', '<n4>')}\s+(?P<u6>{unit})\s+(?:{later}))")
+    if same and unit:
+        parts.append(rf"(?P<same>{article}(?:{same})\s+(?P<u7>{unit}))")
+    if following and unit:
+        parts.append(rf"(?P<foll>{article}(?:(?:{following})\s+(?P<u8>{unit})|(?P<u9>{unit})\s+(?:{following})))")
     if deictic:
         parts.append(rf"(?P<deictic>{deictic})")
     parts.append(rf"(?P<year>{mod_prefix('ymod')}(?P<yy>1\d{{3}}|20\d{{2}}))(?![.,]\d)")
@@ -163,7 +188,9 @@ def _shift(reference: date, unit: str, n: int) -> tuple[date, date]:
     return date(reference.year + n, 1, 1), date(reference.year + n, 12, 31)
 
 
-def _atom(m: re.Match, loc: DateLocale, reference: date | None, day_first: bool) -> _Atom | None:
+def _atom(m: re.Match, loc: DateLocale, reference: date | None, day_first: bool, anchor: date | None) -> _Atom | None:
+    """The interval of one match; `anchor` is the start of the expression before it in the text,
+    which "zwei Tage später" / "am selben Tag" count from (the reference date when there is none)."""
     g = m.groupdict()
     s, e = m.start(), m.end()
     text = m.group(0)
@@ -176,6 +203,26 @@ def _atom(m: re.Match, loc: DateLocale, reference: date | None, day_first: bool)
         day, month = (a, b) if loc.order.startswith("D") or day_first else (b, a)
         point = date(year, month, day)
         return _Atom(s, e, point, point, "day")
+    if g["dr"]:
+        if g["yr"] is None and reference is None:
+            return None
+        year = int(g["yr"]) if g["yr"] else reference.year  # type: ignore[union-attr]
+        month = loc.months[g["mr"].casefold()]
+        return _Atom(s, e, date(year, month, int(g["d0"])), date(year, month, int(g["d1"])), "day")
+    if g.get("mm"):
+        year = int(g["y4"])
+        first, last = _span(year, loc.months[g["m4"].casefold()], 1)[0], _span(year, loc.months[g["m5"].casefold()], 1)[1]
+        return _Atom(s, e, first, last, "month") if first <= last else None
+    if g.get("so"):
+        if reference is None:
+            return None
+        first, last = _span(reference.year, loc.seasons[g["sw2"].casefold()], 3)
+        return _Atom(m.start("sw2"), e, first, last, "season")
+    if g.get("mo"):
+        if reference is None:
+            return None
+        first, last = _span(reference.year, loc.months[g["m3"].casefold()], 1)
+        return _Atom(m.start("m3"), e, first, last, "month")  # the preposition is not part of it
     if g["dmy"]:
         month_word = g["m"].casefold()
         if g["y"] is None and reference is None:
@@ -217,6 +264,13 @@ def _atom(m: re.Match, loc: DateLocale, reference: date | None, day_first: bool)
         year = int(g["yy"])
         first, last = _narrow(date(year, 1, 1), date(year, 12, 31), loc.modifiers.get(" ".join((g["ymod"] or "").casefold().split())))
         return _Atom(s, e, first, last, "year")
+    anchor = anchor or reference
+    if anchor is not None and (g.get("later") or g.get("same") or g.get("foll")):
+        unit = loc.units[(g.get("u6") or g.get("u7") or g.get("u8") or g.get("u9")).casefold()]
+        raw = g.get("n4")
+        n = 0 if g.get("same") else 1 if g.get("foll") else int(raw) if raw.isdigit() else loc.numbers[raw.casefold()]
+        first, last = _shift(anchor, unit, n)
+        return _Atom(s, e, first, last, unit)
     if reference is None:
         return None  # relative expressions below need an anchor
     if g.get("ago") or g.get("ago2") or g.get("ahead"):
@@ -244,14 +298,18 @@ def _atom(m: re.Match, loc: DateLocale, reference: date | None, day_first: bool)
 
 def _bare_year_ok(text: str, m: re.Match, loc: DateLocale) -> bool:
     """A bare 4-digit number is a year after a year word ("im", "seit", "en", "desde" ...), a
-    modifier, or before punctuation; "1500 Soldaten" is a count."""
+    modifier, or before punctuation; in a language whose nouns are capitalized (German), also
+    before any word that is not a noun: "1939 begann" is a year, "1500 Soldaten" a count."""
     if m.group("ymod"):
         return True
     before = re.search(r"([\w.:]+)\W*$", text[max(0, m.start() - 30) : m.start()])
     if before and before.group(1).casefold().rstrip(".:") in loc.year_before:
         return True
     after = text[m.end() : m.end() + 2]
-    return not after or after[0] in ".,;:)–-" or text[max(0, m.start() - 1) : m.start()] in ("(", "–", "-")
+    if not after or after[0] in ".,;:)–-/\n" or text[max(0, m.start() - 1) : m.start()] in ("(", "–", "-", "/"):
+        return True
+    following = re.match(r"\s+(\w+)", text[m.end() : m.end() + 40])
+    return loc.capitalized_nouns and following is not None and following.group(1)[0].islower()
 
 
 _SENTENCE_END = re.compile(r"(?<!\d)(?<!\b[A-Za-zÄÖÜäöü])[.!?]+[\"')\]»”]*\s+(?=[\"'(\[«“¿¡]?[A-ZÄÖÜÁÉÍÓÚÑ0-9])|\n[ \t]*\n")
@@ -312,12 +370,12 @@ def extract_localized(
     text: str, loc: DateLocale, reference_date: date | None = None, *, day_first: bool = True
 ) -> list[TemporalExpression]:
     """Every temporal expression of `text` in the language of `loc`, normalized, in text order."""
-    atoms = []
+    atoms: list[_Atom] = []
     for m in _compiled(loc).finditer(text):
         if m.group("year") and not _bare_year_ok(text, m, loc):
             continue
         try:
-            atom = _atom(m, loc, reference_date, day_first)
+            atom = _atom(m, loc, reference_date, day_first, atoms[-1].first if atoms else None)
         except (ValueError, KeyError, OverflowError):  # 31.02.2024, an unknown word: not a date
             atom = None
         if atom is not None:
