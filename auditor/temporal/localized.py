@@ -312,7 +312,8 @@ def _bare_year_ok(text: str, m: re.Match, loc: DateLocale) -> bool:
     return loc.capitalized_nouns and following is not None and following.group(1)[0].islower()
 
 
-_SENTENCE_END = re.compile(r"(?<!\d)(?<!\b[A-Za-zÄÖÜäöü])[.!?]+[\"')\]»”]*\s+(?=[\"'(\[«“¿¡]?[A-ZÄÖÜÁÉÍÓÚÑ0-9])|\n[ \t]*\n")
+# A full stop after a 1-2 digit number is an ordinal ("1. März"), after a single letter an initial.
+_SENTENCE_END = re.compile(r"(?<!\b\d)(?<!\b\d\d)(?<!\b[A-Za-zÄÖÜäöü])[.!?]+[\"')\]»”]*\s+(?=[\"'(\[«“¿¡]?[A-ZÄÖÜÁÉÍÓÚÑ0-9])|\n[ \t]*\n")
 
 
 def _sentences(text: str) -> list[tuple[int, int]]:
