@@ -92,7 +92,8 @@ def test_dates_prints_json_lines_from_stdin(runner):
     assert rows[0]["expression"] == "March 1, 2025"
     assert (rows[0]["start"], rows[0]["end"], rows[0]["granularity"]) == ("2025-03-01", "2025-03-01", "day")
     assert rows[0]["role"] == "effective"
-    assert set(rows[0]) == {"text", "expression", "start", "end", "granularity", "role"}
+    assert set(rows[0]) == {"text", "expression", "start", "end", "granularity", "role", "language"}
+    assert rows[0]["language"] == "english"  # detected: no --language given
 
 
 def test_dates_unreadable_file_exits_1(runner, tmp_path):

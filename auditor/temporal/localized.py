@@ -155,13 +155,19 @@ def _span(year: int, month: int, months: int) -> tuple[date, date]:
 
 
 def _narrow(first: date, last: date, modifier: str | None) -> tuple[date, date]:
+    """Early/mid/late as auditor/temporal/extract.py reads them: a third of the months of a
+    year or season (a year: Jan-Apr, May-Aug, Sep-Dec), days 1-10, 11-20, 21-end of a month."""
     if not modifier:
         return first, last
     third = _THIRDS[modifier]
-    days = (last - first).days + 1
-    a = first + timedelta(days=days * third // 3)
-    b = first + timedelta(days=days * (third + 1) // 3 - 1)
-    return a, b
+    if first.year == last.year and first.month == last.month:
+        days = ((1, 10), (11, 20), (21, last.day))[third]
+        return first.replace(day=days[0]), first.replace(day=days[1])
+    months = (last.year - first.year) * 12 + last.month - first.month + 1
+    size = max(1, months // 3)
+    start = first.year * 12 + first.month - 1 + size * third
+    count = months - 2 * size if third == 2 else size
+    return _span(start // 12, start % 12 + 1, count)
 
 
 def _roman(text: str) -> int:
@@ -330,7 +336,7 @@ def _sentences(text: str) -> list[tuple[int, int]]:
 def _cue_patterns(loc: DateLocale) -> re.Pattern:
     cues = sorted(((role, phrase) for role, phrases in loc.cues.items() for phrase in phrases), key=lambda c: -len(c[1]))
     alternation = "|".join(f"(?P<{role}_{i}>{_alternation([phrase])})" for i, (role, phrase) in enumerate(cues))
-    return re.compile(rf"(?<!\w)(?:{alternation})(?=\W*(?:\w+\W+){{0,2}}$)", re.IGNORECASE)
+    return re.compile(rf"(?<!\w)(?:{alternation})(?!\w)(?=\W*(?:\w+\W+){{0,2}}$)", re.IGNORECASE)
 
 
 def _role(loc: DateLocale, left: str, sentence: str, atom: _Atom, reference: date | None) -> str:
