@@ -128,7 +128,7 @@ def _ingest(store, config, given: list, jobs, progress) -> IngestSummary:
     failed_before = json.loads(store.get_meta("ingest:failed", "{}"))
     known = {
         row["path"]: row
-        for row in store.query("SELECT id, path, sha256, status, meta_dates, owner, owner_source FROM documents")
+        for row in store.query("SELECT id, path, sha256, status, meta_dates, owner, owner_source, language, language_source FROM documents")
     }
     now = utc_now()
     seen: set[str] = set()
