@@ -169,7 +169,10 @@ def short_texts(root: Path | None) -> list[tuple[str, str]]:
         return texts
     from bs4 import BeautifulSoup
 
-    pages = {"german": "usr/share/doc/maint-guide-de/html/*.html", "spanish": "usr/share/doc/maint-guide-es/html/*.html"}
+    pages = {
+        "german": "usr/share/doc/maint-guide-de/html/*.html",
+        "spanish": "usr/share/doc/maint-guide-es/html/*.html",
+    }
     for language, glob in pages.items():
         for file in sorted(root.glob(glob)):
             soup = BeautifulSoup(file.read_text(encoding="utf-8"), "lxml")
@@ -200,7 +203,11 @@ def part_detectors(args) -> None:
         "auditor.language.detect": lambda t: ours.detect_or(t, ours.DEFAULT_CANDIDATES, "english"),
     }
     print(f"detectors: {len(texts)} short texts (questions and headings), 3 candidate languages")
-    print(f"{'detector':26s} " + " ".join(f"{lang:>8s}" for lang in ("english", "german", "spanish")) + "      all  µs/text")
+    print(
+        f"{'detector':26s} "
+        + " ".join(f"{lang:>8s}" for lang in ("english", "german", "spanish"))
+        + "      all  µs/text"
+    )
     for name, detect in detectors.items():
         detect(texts[0][1])  # load its models outside the timing
         started = time.perf_counter()

@@ -62,7 +62,9 @@ def test_auto_tokenizes_each_text_in_its_language():
     assert tokenizer.tokenize("Wie ändere ich meine Abschlagszahlungen?") == german.stemWords(
         ["ändere", "abschlagszahlungen"]
     )
-    assert tokenizer.tokenize("¿Cómo cambio mis pagos mensuales?") == spanish.stemWords(["cambio", "pagos", "mensuales"])
+    assert tokenizer.tokenize("¿Cómo cambio mis pagos mensuales?") == spanish.stemWords(
+        ["cambio", "pagos", "mensuales"]
+    )
     # A document's language given by the ingest wins over detection on a short passage.
     assert tokenizer.tokenize("Zähler", "german") == german.stemWords(["zähler"])
     # A fixed language ignores the hint.
@@ -90,7 +92,8 @@ def test_documents_say_their_language():
     page = parse_html(b"<html lang='es-MX'><body><main><p>Hola.</p></main></body></html>", "a.html")
     assert page.language == "spanish"
     meta = parse_html(
-        b"<html><head><meta http-equiv='Content-Language' content='de'></head><body><p>Hallo.</p></body></html>", "b.html"
+        b"<html><head><meta http-equiv='Content-Language' content='de'></head><body><p>Hallo.</p></body></html>",
+        "b.html",
     )
     assert meta.language == "german"
     assert parse_markdown(b"---\nlang: de\n---\n# Titel\n\nText.\n", "c.md").language == "german"
@@ -110,8 +113,12 @@ def _corpus(tmp_path, languages: str = "") -> object:
         "# Pagar la factura\n\nPuede pagar la factura del agua con domiciliación bancaria o en nuestras oficinas.\n",
         encoding="utf-8",
     )
-    (kb / "es" / "etiqueta.md").write_text("---\nlang: de\n---\n# Hinweis\n\nDieser Text ist deutsch.\n", encoding="utf-8")
-    (tmp_path / "audit.toml").write_text(f'database = "audit.db"\n[corpus]\npaths = ["kb"]\n{languages}', encoding="utf-8")
+    (kb / "es" / "etiqueta.md").write_text(
+        "---\nlang: de\n---\n# Hinweis\n\nDieser Text ist deutsch.\n", encoding="utf-8"
+    )
+    (tmp_path / "audit.toml").write_text(
+        f'database = "audit.db"\n[corpus]\npaths = ["kb"]\n{languages}', encoding="utf-8"
+    )
     return load_config(tmp_path / "audit.toml", env={})
 
 
@@ -128,7 +135,10 @@ def test_ingest_stores_each_documents_language(tmp_path):
         # Questions in either language find their passage in the one index.
         index = PassageIndex.load_or_build(store, config.retrieval, save=False)
         german, spanish = index.search_many(["Wie melde ich meinen Zählerstand?", "¿Cómo pago la factura?"])
-        paths = {p["id"]: p["path"] for p in store.query("SELECT p.id, d.path FROM passages p JOIN documents d ON d.id = p.document_id")}
+        paths = {
+            p["id"]: p["path"]
+            for p in store.query("SELECT p.id, d.path FROM passages p JOIN documents d ON d.id = p.document_id")
+        }
         assert paths[german.hits[0].passage_id] == "de/zaehler.md" and german.missing_terms == []
         assert paths[spanish.hits[0].passage_id] == "es/factura.md" and spanish.missing_terms == []
 
@@ -149,7 +159,9 @@ def test_config_globs_win_and_a_changed_rule_reparses(tmp_path):
 def test_schema_1_database_is_migrated_and_retokenized(tmp_path):
     # A database of schema 1: no language columns, passages tokenized as English.
     path = tmp_path / "old.db"
-    old = SCHEMA.replace("    language        TEXT,                   -- Snowball name, e.g. 'german' (docs/languages.md)\n", "")
+    old = SCHEMA.replace(
+        "    language        TEXT,                   -- Snowball name, e.g. 'german' (docs/languages.md)\n", ""
+    )
     old = old.replace("    language_source TEXT,                   -- config | document | detected | fallback\n", "")
     assert "language" not in old.split("CREATE TABLE IF NOT EXISTS passages")[0].split("documents (")[1]
     conn = sqlite3.connect(path)
@@ -180,11 +192,15 @@ def test_schema_1_database_is_migrated_and_retokenized(tmp_path):
 
 def test_dates_command_takes_a_language(tmp_path):
     runner = CliRunner()
-    result = runner.invoke(cli, ["dates", "--reference-date", "2026-03-15", "--language", "de", "-"], input="Stand: 1. März 2026\n")
+    result = runner.invoke(
+        cli, ["dates", "--reference-date", "2026-03-15", "--language", "de", "-"], input="Stand: 1. März 2026\n"
+    )
     assert result.exit_code == 0, result.output
     row = json.loads(result.output.splitlines()[0])
     assert (row["expression"], row["role"], row["language"]) == ("1. März 2026", "as_of", "german")
-    detected = runner.invoke(cli, ["dates", "--reference-date", "2026-03-15", "-"], input="Válida hasta el 31 de diciembre de 2024.\n")
+    detected = runner.invoke(
+        cli, ["dates", "--reference-date", "2026-03-15", "-"], input="Válida hasta el 31 de diciembre de 2024.\n"
+    )
     assert json.loads(detected.output.splitlines()[0])["language"] == "spanish"
     bad = runner.invoke(cli, ["dates", "--language", "klingon", "-"], input="x\n")
     assert bad.exit_code != 0 and "unknown language 'klingon'" in bad.output

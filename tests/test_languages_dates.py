@@ -26,29 +26,134 @@ REFERENCE = date(2026, 3, 15)  # a Sunday
 
 GERMAN = [
     ("Stand: 1. März 2026", "1. März 2026", date(2026, 3, 1), date(2026, 3, 1), "day", "as_of"),
-    ("Der neue Grundpreis gilt ab dem 1. Januar 2027.", "1. Januar 2027", date(2027, 1, 1), date(2027, 1, 1), "day", "effective"),
-    ("Seit Oktober 2025 ist das Kundenportal umgestellt.", "Oktober 2025", date(2025, 10, 1), date(2025, 10, 31), "month", "effective"),
-    ("Die Zählerumstellung erfolgte im dritten Quartal 2025.", "dritten Quartal 2025", date(2025, 7, 1), date(2025, 9, 30), "quarter", "event"),
+    (
+        "Der neue Grundpreis gilt ab dem 1. Januar 2027.",
+        "1. Januar 2027",
+        date(2027, 1, 1),
+        date(2027, 1, 1),
+        "day",
+        "effective",
+    ),
+    (
+        "Seit Oktober 2025 ist das Kundenportal umgestellt.",
+        "Oktober 2025",
+        date(2025, 10, 1),
+        date(2025, 10, 31),
+        "month",
+        "effective",
+    ),
+    (
+        "Die Zählerumstellung erfolgte im dritten Quartal 2025.",
+        "dritten Quartal 2025",
+        date(2025, 7, 1),
+        date(2025, 9, 30),
+        "quarter",
+        "event",
+    ),
     # ISO weeks: 14 days before Sunday 15 March is Sunday 1 March, in the week of Monday 23 February.
-    ("Wir haben die Tarife vor zwei Wochen angepasst.", "vor zwei Wochen", date(2026, 2, 23), date(2026, 3, 1), "week", "event"),
+    (
+        "Wir haben die Tarife vor zwei Wochen angepasst.",
+        "vor zwei Wochen",
+        date(2026, 2, 23),
+        date(2026, 3, 1),
+        "week",
+        "event",
+    ),
     ("Das Angebot ist gültig bis 31.12.2024.", "31.12.2024", date(2024, 12, 31), date(2024, 12, 31), "day", "expires"),
-    ("Die Ablesung am 15.07.2025 ergab keinen Fehler.", "15.07.2025", date(2025, 7, 15), date(2025, 7, 15), "day", "event"),
-    ("Die Wartung ist für den 2026-04-10 geplant.", "2026-04-10", date(2026, 4, 10), date(2026, 4, 10), "day", "planned"),
-    ("Die Preise werden im zweiten Halbjahr 2026 steigen.", "zweiten Halbjahr 2026", date(2026, 7, 1), date(2026, 12, 31), "half", "planned"),
-    ("Anfang 2025 stellten wir auf Monatsrechnungen um.", "Anfang 2025", date(2025, 1, 1), date(2025, 4, 30), "year", "event"),
+    (
+        "Die Ablesung am 15.07.2025 ergab keinen Fehler.",
+        "15.07.2025",
+        date(2025, 7, 15),
+        date(2025, 7, 15),
+        "day",
+        "event",
+    ),
+    (
+        "Die Wartung ist für den 2026-04-10 geplant.",
+        "2026-04-10",
+        date(2026, 4, 10),
+        date(2026, 4, 10),
+        "day",
+        "planned",
+    ),
+    (
+        "Die Preise werden im zweiten Halbjahr 2026 steigen.",
+        "zweiten Halbjahr 2026",
+        date(2026, 7, 1),
+        date(2026, 12, 31),
+        "half",
+        "planned",
+    ),
+    (
+        "Anfang 2025 stellten wir auf Monatsrechnungen um.",
+        "Anfang 2025",
+        date(2025, 1, 1),
+        date(2025, 4, 30),
+        "year",
+        "event",
+    ),
 ]
 
 SPANISH = [
     ("Actualizado el 3 de marzo de 2026.", "3 de marzo de 2026", date(2026, 3, 3), date(2026, 3, 3), "day", "as_of"),
-    ("La tarifa es válida hasta el 31 de diciembre de 2024.", "31 de diciembre de 2024", date(2024, 12, 31), date(2024, 12, 31), "day", "expires"),
-    ("El cambio de contadores se hizo en el tercer trimestre de 2025.", "tercer trimestre de 2025", date(2025, 7, 1), date(2025, 9, 30), "quarter", "event"),
-    ("Cambiamos la factura hace dos semanas.", "hace dos semanas", date(2026, 2, 23), date(2026, 3, 1), "week", "event"),
-    ("A partir del 1 de enero de 2027 sube la cuota fija.", "1 de enero de 2027", date(2027, 1, 1), date(2027, 1, 1), "day", "effective"),
-    ("Desde octubre de 2025 el portal es nuevo.", "octubre de 2025", date(2025, 10, 1), date(2025, 10, 31), "month", "effective"),
-    ("El próximo mes habrá un corte de agua programado.", "El próximo mes", date(2026, 4, 1), date(2026, 4, 30), "month", "planned"),
+    (
+        "La tarifa es válida hasta el 31 de diciembre de 2024.",
+        "31 de diciembre de 2024",
+        date(2024, 12, 31),
+        date(2024, 12, 31),
+        "day",
+        "expires",
+    ),
+    (
+        "El cambio de contadores se hizo en el tercer trimestre de 2025.",
+        "tercer trimestre de 2025",
+        date(2025, 7, 1),
+        date(2025, 9, 30),
+        "quarter",
+        "event",
+    ),
+    (
+        "Cambiamos la factura hace dos semanas.",
+        "hace dos semanas",
+        date(2026, 2, 23),
+        date(2026, 3, 1),
+        "week",
+        "event",
+    ),
+    (
+        "A partir del 1 de enero de 2027 sube la cuota fija.",
+        "1 de enero de 2027",
+        date(2027, 1, 1),
+        date(2027, 1, 1),
+        "day",
+        "effective",
+    ),
+    (
+        "Desde octubre de 2025 el portal es nuevo.",
+        "octubre de 2025",
+        date(2025, 10, 1),
+        date(2025, 10, 31),
+        "month",
+        "effective",
+    ),
+    (
+        "El próximo mes habrá un corte de agua programado.",
+        "El próximo mes",
+        date(2026, 4, 1),
+        date(2026, 4, 30),
+        "month",
+        "planned",
+    ),
     ("La lectura del 15/07/2025 fue correcta.", "15/07/2025", date(2025, 7, 15), date(2025, 7, 15), "day", "event"),
     ("A finales de 2019 se renovó la red.", "A finales de 2019", date(2019, 9, 1), date(2019, 12, 31), "year", "event"),
-    ("Entre 2020 y 2022 hubo obras en la planta.", "2020 y 2022", date(2020, 1, 1), date(2022, 12, 31), "year", "event"),
+    (
+        "Entre 2020 y 2022 hubo obras en la planta.",
+        "2020 y 2022",
+        date(2020, 1, 1),
+        date(2022, 12, 31),
+        "year",
+        "event",
+    ),
 ]
 
 
@@ -94,7 +199,9 @@ def test_counts_and_anaphora_are_not_dates():
     found = extract("Am Morgen ist die Hotline frei; morgen ist sie geschlossen.", REFERENCE, language="german")
     assert [(e.expression, e.start) for e in found] == [("morgen", date(2026, 3, 16))]
     # "zwei Tage später" counts from the expression before it, not from the reference date.
-    found = extract("Am 3. Mai 2025 fiel die Pumpe aus. Zwei Tage später lief sie wieder.", REFERENCE, language="german")
+    found = extract(
+        "Am 3. Mai 2025 fiel die Pumpe aus. Zwei Tage später lief sie wieder.", REFERENCE, language="german"
+    )
     assert [e.start for e in found] == [date(2025, 5, 3), date(2025, 5, 5)]
 
 

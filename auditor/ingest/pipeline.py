@@ -128,7 +128,9 @@ def _ingest(store, config, given: list, jobs, progress) -> IngestSummary:
     failed_before = json.loads(store.get_meta("ingest:failed", "{}"))
     known = {
         row["path"]: row
-        for row in store.query("SELECT id, path, sha256, status, meta_dates, owner, owner_source, language, language_source FROM documents")
+        for row in store.query(
+            "SELECT id, path, sha256, status, meta_dates, owner, owner_source, language, language_source FROM documents"
+        )
     }
     now = utc_now()
     seen: set[str] = set()
@@ -414,7 +416,9 @@ def _retokenize_if_needed(store, tokenizer) -> int:
     for row in rows:
         if row["language"] is None:
             unknown.setdefault(row["document_id"], []).append(Block(row["text"]))
-    languages = {doc_id: document_language(None, None, blocks, tokenizer.candidates)[0] for doc_id, blocks in unknown.items()}
+    languages = {
+        doc_id: document_language(None, None, blocks, tokenizer.candidates)[0] for doc_id, blocks in unknown.items()
+    }
     with store.transaction():
         for doc_id, language in languages.items():
             store.db.execute(

@@ -27,6 +27,8 @@ import re
 from datetime import date
 
 from auditor.models import TemporalExpression
+from auditor.temporal.locales import locale_for
+from auditor.temporal.localized import extract_localized
 from auditor.temporal.patterns import (
     DIGIT_CANDIDATES,
     MODIFIER_BEFORE,
@@ -41,8 +43,6 @@ from auditor.temporal.patterns import (
     narrow,
     parse_candidate,
 )
-from auditor.temporal.locales import locale_for
-from auditor.temporal.localized import extract_localized
 from auditor.temporal.roles import role_for
 
 __all__ = ["extract", "timex3"]

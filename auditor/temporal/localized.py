@@ -23,6 +23,7 @@ import calendar
 import re
 from dataclasses import dataclass
 from datetime import date, timedelta
+from typing import Any
 
 from auditor.models import TemporalExpression
 from auditor.temporal.locales import DateLocale
@@ -67,6 +68,7 @@ def _compiled(loc: DateLocale) -> re.Pattern:
     dm_joined = rf"(?:{dm}|\s+{re.escape(loc.day_month_joiner)}\s+)" if loc.day_month_joiner else dm
     sep = f"[{re.escape(loc.separators)}]"
     mod = _alternation(loc.modifiers)
+
     def mod_prefix(name: str) -> str:
         return rf"(?:(?P<{name}>{mod})\s+(?:(?:des|del|de)\s+)?)?" if mod else ""
 
@@ -86,7 +88,7 @@ def _compiled(loc: DateLocale) -> re.Pattern:
     article = r"(?:(?:im|am|in\s+der|in\s+den|el|la|los|las|en\s+el|en\s+la)\s+)?"
     the_year = r"(?:\s+(?:des\s+jahres|del\s+año|de))?"
     parts = [
-        rf"(?P<iso>(?P<iy>\d{{4}})-(?P<im>\d{{1,2}})-(?P<id>\d{{1,2}}))",
+        r"(?P<iso>(?P<iy>\d{4})-(?P<im>\d{1,2})-(?P<id>\d{1,2}))",
         rf"(?P<num>(?P<n1>\d{{1,2}}){sep}(?P<n2>\d{{1,2}}){sep}(?P<n3>\d{{4}}|\d{{2}}))(?![\d{re.escape(loc.separators)}]\d)",
         rf"(?P<dmy>(?P<d>\d{{1,2}}){day_suffix}{dm_joined}(?P<m>{month})\.?(?:{my}(?P<y>\d{{4}}))?)",
         rf"(?P<my>{mod_prefix('mod')}(?P<m2>{month})\.?{my}(?P<y2>\d{{4}}))",
@@ -130,7 +132,9 @@ def _compiled(loc: DateLocale) -> re.Pattern:
     if ahead and unit:
         parts.append(rf"(?P<ahead>(?:{ahead})\s+{count.replace('<n>', '<n3a>')}\s+(?P<u3>{unit}))")
     if unit and (nxt or last):
-        parts.append(rf"(?P<rel>{article}(?:(?P<rw>{nxt}|{last})\s+(?P<u4>{unit})|(?P<u5>{unit})\s+(?P<rw2>{nxt}|{last})))")
+        parts.append(
+            rf"(?P<rel>{article}(?:(?P<rw>{nxt}|{last})\s+(?P<u4>{unit})|(?P<u5>{unit})\s+(?P<rw2>{nxt}|{last})))"
+        )
     later, same, following = _alternation(loc.later_after), _alternation(loc.same), _alternation(loc.following)
     if later and unit:
         parts.append(rf"(?P<later>{count.replace('<n>', '<n4>')}\s+(?P<u6>{unit})\s+(?:{later}))")
@@ -194,10 +198,19 @@ def _shift(reference: date, unit: str, n: int) -> tuple[date, date]:
     return date(reference.year + n, 1, 1), date(reference.year + n, 12, 31)
 
 
+def _first(g: dict[str, Any], *names: str) -> str:
+    """The first of the named groups that took part in the match."""
+    return next(g[name] for name in names if g.get(name))
+
+
+def _count(raw: str, loc: DateLocale) -> int:
+    return int(raw) if raw.isdigit() else loc.numbers[raw.casefold()]
+
+
 def _atom(m: re.Match, loc: DateLocale, reference: date | None, day_first: bool, anchor: date | None) -> _Atom | None:
     """The interval of one match; `anchor` is the start of the expression before it in the text,
     which "zwei Tage später" / "am selben Tag" count from (the reference date when there is none)."""
-    g = m.groupdict()
+    g: dict[str, Any] = m.groupdict()  # a group that did not take part is None
     s, e = m.start(), m.end()
     text = m.group(0)
     if g["iso"]:
@@ -217,7 +230,10 @@ def _atom(m: re.Match, loc: DateLocale, reference: date | None, day_first: bool,
         return _Atom(s, e, date(year, month, int(g["d0"])), date(year, month, int(g["d1"])), "day")
     if g.get("mm"):
         year = int(g["y4"])
-        first, last = _span(year, loc.months[g["m4"].casefold()], 1)[0], _span(year, loc.months[g["m5"].casefold()], 1)[1]
+        first, last = (
+            _span(year, loc.months[g["m4"].casefold()], 1)[0],
+            _span(year, loc.months[g["m5"].casefold()], 1)[1],
+        )
         return _Atom(s, e, first, last, "month") if first <= last else None
     if g.get("so"):
         if reference is None:
@@ -261,34 +277,34 @@ def _atom(m: re.Match, loc: DateLocale, reference: date | None, day_first: bool,
             return None
         return _Atom(s, e, date((n - 1) * 100 + 1, 1, 1), date(n * 100, 12, 31), "decade")
     if g.get("dec") or g.get("dec2"):
-        n = int(g.get("dn") or g.get("dn2"))
+        n = int(_first(g, "dn", "dn2"))
         year = n if n >= 1000 else 1900 + n
         if year % 10:
             return None
         return _Atom(s, e, date(year, 1, 1), date(year + 9, 12, 31), "decade")
     if g.get("year"):
         year = int(g["yy"])
-        first, last = _narrow(date(year, 1, 1), date(year, 12, 31), loc.modifiers.get(" ".join((g["ymod"] or "").casefold().split())))
+        first, last = _narrow(
+            date(year, 1, 1), date(year, 12, 31), loc.modifiers.get(" ".join((g["ymod"] or "").casefold().split()))
+        )
         return _Atom(s, e, first, last, "year")
     anchor = anchor or reference
     if anchor is not None and (g.get("later") or g.get("same") or g.get("foll")):
-        unit = loc.units[(g.get("u6") or g.get("u7") or g.get("u8") or g.get("u9")).casefold()]
-        raw = g.get("n4")
-        n = 0 if g.get("same") else 1 if g.get("foll") else int(raw) if raw.isdigit() else loc.numbers[raw.casefold()]
+        unit = loc.units[_first(g, "u6", "u7", "u8", "u9").casefold()]
+        n = 0 if g.get("same") else 1 if g.get("foll") else _count(_first(g, "n4"), loc)
         first, last = _shift(anchor, unit, n)
         return _Atom(s, e, first, last, unit)
     if reference is None:
         return None  # relative expressions below need an anchor
     if g.get("ago") or g.get("ago2") or g.get("ahead"):
-        raw = g.get("n") or g.get("n2a") or g.get("n3a")
-        n = int(raw) if raw.isdigit() else loc.numbers[raw.casefold()]
-        unit = loc.units[(g.get("u") or g.get("u2") or g.get("u3")).casefold()]
+        n = _count(_first(g, "n", "n2a", "n3a"), loc)
+        unit = loc.units[_first(g, "u", "u2", "u3").casefold()]
         sign = 1 if g.get("ahead") else -1
         first, last = _shift(reference, unit, sign * n)
         return _Atom(s, e, first, last, unit, future=sign > 0)
     if g.get("rel"):
-        word = (g.get("rw") or g.get("rw2")).casefold()
-        unit = loc.units[(g.get("u4") or g.get("u5")).casefold()]
+        word = _first(g, "rw", "rw2").casefold()
+        unit = loc.units[_first(g, "u4", "u5").casefold()]
         sign = 1 if " ".join(word.split()) in loc.next_words else -1
         first, last = _shift(reference, unit, sign)
         return _Atom(s, e, first, last, unit, future=sign > 0)
@@ -319,7 +335,9 @@ def _bare_year_ok(text: str, m: re.Match, loc: DateLocale) -> bool:
 
 
 # A full stop after a 1-2 digit number is an ordinal ("1. März"), after a single letter an initial.
-_SENTENCE_END = re.compile(r"(?<!\b\d)(?<!\b\d\d)(?<!\b[A-Za-zÄÖÜäöü])[.!?]+[\"')\]»”]*\s+(?=[\"'(\[«“¿¡]?[A-ZÄÖÜÁÉÍÓÚÑ0-9])|\n[ \t]*\n")
+_SENTENCE_END = re.compile(
+    r"(?<!\b\d)(?<!\b\d\d)(?<!\b[A-Za-zÄÖÜäöü])[.!?]+[\"')\]»”]*\s+(?=[\"'(\[«“¿¡]?[A-ZÄÖÜÁÉÍÓÚÑ0-9])|\n[ \t]*\n"
+)
 
 
 def _sentences(text: str) -> list[tuple[int, int]]:
@@ -334,7 +352,9 @@ def _sentences(text: str) -> list[tuple[int, int]]:
 
 @_cached
 def _cue_patterns(loc: DateLocale) -> re.Pattern:
-    cues = sorted(((role, phrase) for role, phrases in loc.cues.items() for phrase in phrases), key=lambda c: -len(c[1]))
+    cues = sorted(
+        ((role, phrase) for role, phrases in loc.cues.items() for phrase in phrases), key=lambda c: -len(c[1])
+    )
     alternation = "|".join(f"(?P<{role}_{i}>{_alternation([phrase])})" for i, (role, phrase) in enumerate(cues))
     return re.compile(rf"(?<!\w)(?:{alternation})(?!\w)(?=\W*(?:\w+\W+){{0,2}}$)", re.IGNORECASE)
 
@@ -389,7 +409,8 @@ def extract_localized(
             atoms.append(atom)
     atoms = _merge(text, atoms, loc)
     sentences = _sentences(text)
-    found, previous_end = [], {}
+    found: list[TemporalExpression] = []
+    previous_end: dict[int, int] = {}
     for atom in atoms:
         index = next(i for i, (a, b) in enumerate(sentences) if a <= atom.start < b or i == len(sentences) - 1)
         s_start, s_end = sentences[index]
@@ -399,7 +420,14 @@ def extract_localized(
         previous_end[index] = atom.end
         found.append(
             TemporalExpression(
-                sentence, text[atom.start : atom.end], atom.first, atom.last, atom.granularity, role, atom.start, atom.end
+                sentence,
+                text[atom.start : atom.end],
+                atom.first,
+                atom.last,
+                atom.granularity,
+                role,
+                atom.start,
+                atom.end,
             )
         )
     return found
