@@ -15,6 +15,7 @@ from datetime import date
 
 import pytest
 from babel.dates import get_date_format, get_month_names
+from cpu_budget import cpu_seconds
 
 from auditor.errors import ConfigError
 from auditor.judgement.freshness import passage_freshness
@@ -252,3 +253,33 @@ def test_adding_a_language_is_one_file(tmp_path):
     words = locales.load(french)
     found = extract_localized("Mis à jour le 3 mars 2026.", words, REFERENCE)
     assert [(e.expression, e.start, e.role) for e in found] == [("3 mars 2026", date(2026, 3, 3), "as_of")]
+
+
+@pytest.mark.parametrize("language", ["german", "spanish"])
+@pytest.mark.parametrize(
+    "unit",
+    [
+        "Stand: 1. März 2026. ",
+        "el 3 de marzo de 2026 ",
+        "vor zwei Wochen hace dos semanas ",
+        "1.1.",
+        "27./28. ",
+        "de de de ",
+        "...",
+        "!!!",
+        "2024 ",
+        "Anfang Mitte Ende a finales de ",
+        "im Mai im ",
+        "\n\n",
+        "99999999 ",
+    ],
+)
+def test_adversarial_100_kb_inputs_finish_in_time(language, unit):
+    # Common practice for backtracking regex engines (see tests/test_regex_budget.py): repeated
+    # units of the patterns' own words must stay linear. CPU time, so a busy machine is no flake.
+    text = (unit * (100_000 // len(unit) + 1))[:100_000]
+    found = []
+    seconds = cpu_seconds(lambda: found.extend(extract(text, REFERENCE, language=language)), 5.0)
+    assert seconds < 5.0
+    for e in found[:50]:
+        assert e.start <= e.end and text[e.char_start : e.char_end] == e.expression

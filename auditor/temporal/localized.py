@@ -19,6 +19,7 @@ Roles, decided per expression in its sentence, first rule that applies:
 
 from __future__ import annotations
 
+import bisect
 import calendar
 import re
 from dataclasses import dataclass
@@ -335,8 +336,9 @@ def _bare_year_ok(text: str, m: re.Match, loc: DateLocale) -> bool:
 
 
 # A full stop after a 1-2 digit number is an ordinal ("1. März"), after a single letter an initial.
+# A run of marks is tried once, at its first mark (the lookbehind), so "...." stays linear.
 _SENTENCE_END = re.compile(
-    r"(?<!\b\d)(?<!\b\d\d)(?<!\b[A-Za-zÄÖÜäöü])[.!?]+[\"')\]»”]*\s+(?=[\"'(\[«“¿¡]?[A-ZÄÖÜÁÉÍÓÚÑ0-9])|\n[ \t]*\n"
+    r"(?<![.!?])(?<!\b\d)(?<!\b\d\d)(?<!\b[A-Za-zÄÖÜäöü])[.!?]+[\"')\]»”]*\s+(?=[\"'(\[«“¿¡]?[A-ZÄÖÜÁÉÍÓÚÑ0-9])|\n[ \t]*\n"
 )
 
 
@@ -359,15 +361,19 @@ def _cue_patterns(loc: DateLocale) -> re.Pattern:
     return re.compile(rf"(?<!\w)(?:{alternation})(?!\w)(?=\W*(?:\w+\W+){{0,2}}$)", re.IGNORECASE)
 
 
-def _role(loc: DateLocale, left: str, sentence: str, atom: _Atom, reference: date | None) -> str:
+def _tense(loc: DateLocale, sentence: str) -> tuple[bool, bool]:
+    """(speaks of the future, speaks of the past) for a whitespace-normalized sentence."""
+    words = f" {sentence.casefold()} "
+    return any(f" {w} " in words for w in loc.future_words), any(f" {w} " in words for w in loc.past_words)
+
+
+def _role(loc: DateLocale, left: str, tense: tuple[bool, bool], atom: _Atom, reference: date | None) -> str:
     found = None
-    for m in _cue_patterns(loc).finditer(left[-_WINDOW:]):
+    for m in _cue_patterns(loc).finditer(left):
         found = next(name for name, value in m.groupdict().items() if value is not None).rsplit("_", 1)[0]
     if found:
         return found
-    words = f" {' '.join(sentence.casefold().split())} "
-    future = any(f" {w} " in words for w in loc.future_words)
-    past = any(f" {w} " in words for w in loc.past_words)
+    future, past = tense
     if atom.future or (future and not past):
         return "planned"
     if reference is not None and atom.first > reference and not past:
@@ -409,14 +415,19 @@ def extract_localized(
             atoms.append(atom)
     atoms = _merge(text, atoms, loc)
     sentences = _sentences(text)
+    starts = [a for a, _ in sentences]
     found: list[TemporalExpression] = []
     previous_end: dict[int, int] = {}
+    normalized: dict[int, tuple[str, tuple[bool, bool]]] = {}  # once per sentence: per atom is quadratic
     for atom in atoms:
-        index = next(i for i, (a, b) in enumerate(sentences) if a <= atom.start < b or i == len(sentences) - 1)
+        index = max(0, bisect.bisect_right(starts, atom.start) - 1)
         s_start, s_end = sentences[index]
-        left = text[max(s_start, previous_end.get(index, s_start)) : atom.start]
-        sentence = " ".join(text[s_start:s_end].split())
-        role = _role(loc, left, sentence, atom, reference_date)
+        left = text[max(s_start, previous_end.get(index, s_start), atom.start - _WINDOW) : atom.start]
+        if index not in normalized:
+            sentence = " ".join(text[s_start:s_end].split())
+            normalized[index] = sentence, _tense(loc, sentence)
+        sentence, tense = normalized[index]
+        role = _role(loc, left, tense, atom, reference_date)
         previous_end[index] = atom.end
         found.append(
             TemporalExpression(
