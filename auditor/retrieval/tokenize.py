@@ -141,6 +141,8 @@ class Tokenizer:
         """The language `tokenize` uses for `text` when the caller does not give one."""
         if self.language != "auto":
             return self.language
+        if len(text.split()) < 2:  # one word tells no language reliably (the report's highlighter asks word by word)
+            return self.fallback
         return languages.detect_or(text, self.candidates, self.fallback)
 
     def tokenize(self, text: str, language: str | None = None) -> list[str]:
