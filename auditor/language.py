@@ -75,15 +75,19 @@ def _detector(candidates: tuple[str, ...], low_accuracy: bool):
 
 
 @functools.lru_cache(maxsize=8192)
-def detect(text: str, candidates: tuple[str, ...] = DEFAULT_CANDIDATES) -> str | None:
+def detect(text: str, candidates: tuple[str, ...] = DEFAULT_CANDIDATES, *, document: bool = False) -> str | None:
     """The most likely of `candidates` for `text`, or None when the text is too short to tell
     (the caller's fallback then applies). No confidence floor: on the short texts of
-    bench/languages.py a floor of 0.5 sent more headings to the fallback wrongly than it saved."""
+    bench/languages.py a floor of 0.5 sent more headings to the fallback wrongly than it saved.
+
+    `document`: always the low-accuracy mode, so that an ingest worker never loads the large
+    models (2 s) for a short file, which would eat its per-file timeout."""
     if len(candidates) == 1:
         return candidates[0]
     if sum(ch.isalpha() for ch in text[:4000]) < MIN_LETTERS:
         return None
-    values = _detector(candidates, len(text) >= LONG_TEXT).compute_language_confidence_values(text[:4000])
+    low = document or len(text) >= LONG_TEXT
+    values = _detector(candidates, low).compute_language_confidence_values(text[:4000])
     if not values or values[0].value == 0.0:
         return None
     return _snowball(values[0].language)

@@ -45,5 +45,5 @@ def document_language(
         return configured, "config"
     if stated:
         return stated, "document"
-    found = detect(sample(blocks), candidates)
+    found = detect(sample(blocks), candidates, document=True)
     return (found, "detected") if found else (candidates[0], "fallback")

@@ -115,11 +115,13 @@ class Tokenizer:
         self.fallback = self.candidates[0]
         self._stemmers: dict[str, Stemmer.Stemmer | None] = {}
         # The single-language view kept for callers that read it (the report's highlighter).
-        self.stopwords = self._stopwords_for(self.fallback if language in ("auto", "none") else language)
+        self.stopwords = self._stopwords_for(self.fallback if language == "auto" else language)
 
     def _stopwords_for(self, language: str) -> frozenset[str]:
         if self.stopwords_name != "auto":
             return STOPWORD_LISTS[self.stopwords_name]
+        if language == "none":  # no stemming, but the fallback language's stopwords
+            language = self.fallback
         return LANGUAGE_STOPWORDS.get(language, frozenset())
 
     def _stemmer(self, language: str) -> Stemmer.Stemmer | None:
@@ -159,7 +161,7 @@ class Tokenizer:
             lang = language
         else:
             lang = self.language_of(text)
-        stop = self._stopwords_for(lang) if self.language != "none" else self.stopwords
+        stop = self._stopwords_for(lang)
         words = [w for w in _WORD.findall(unicodedata.normalize("NFKC", text).casefold()) if w not in stop]
         stemmer = self._stemmer(lang)
         return stemmer.stemWords(words) if stemmer else words
