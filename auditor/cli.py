@@ -22,9 +22,9 @@ from auditor.history.diff import diff_runs, format_diff
 from auditor.history.lock import ScanLock
 from auditor.history.runs import format_runs, list_runs, load_run, previous_run
 from auditor.ingest.pipeline import ingest_corpus
-from auditor.language import detect_or, from_tag
 from auditor.judgement.calibrate import calibrate as run_calibrate
 from auditor.judgement.calibrate import format_calibration
+from auditor.language import detect_or, from_tag
 from auditor.report import write_report
 from auditor.results import Run
 from auditor.retrieval.index import PassageIndex, describe_hits

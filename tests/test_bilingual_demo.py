@@ -11,6 +11,7 @@ import pytest
 from conftest import REPO
 
 from auditor.config import load_config
+from auditor.report import write_report
 from auditor.scan import scan
 from auditor.store import Store
 
@@ -62,7 +63,23 @@ def test_verdicts_match_expected(bilingual):
     run, _, _ = bilingual
     with open(BILINGUAL / "expected.csv", newline="", encoding="utf-8") as f:
         expected = {row["id"]: row["verdict"] for row in csv.DictReader(f)}
-    got = {q["id"]: q["verdict"] for q in run["questions"]}
+    got = {q.id: q.verdict for q in run.questions}
     assert got == expected
-    stale = next(q for q in run["questions"] if q["id"] == "g03")
-    assert "expired" in stale["reasons"]
+    stale = next(q for q in run.questions if q.id == "g03")
+    assert "expired" in stale.reasons
+
+
+def test_figures_per_language_in_the_run_and_the_report(bilingual):
+    run, _, _ = bilingual
+    figures = {s.language: (s.questions, s.covered, s.stale, s.gap) for s in run.languages}
+    # fixtures/bilingual/expected.csv: e01-e03 English (2 covered, 1 gap), g01-g05 German.
+    assert figures == {"english": (3, 2, 0, 1), "german": (5, 3, 1, 1)}
+    assert {q.id: q.language for q in run.questions}["g03"] == "german"
+
+
+def test_report_shows_the_languages(bilingual, tmp_path):
+    run, _, _ = bilingual
+    write_report(run, tmp_path / "report")
+    page = (tmp_path / "report" / "index.html").read_text(encoding="utf-8")
+    table = page[page.index('id="languages"') : page.index("</table>", page.index('id="languages"'))]
+    assert '<td>English</td><td class="n">3</td>' in table and '<td>German</td><td class="n">5</td>' in table
