@@ -3,7 +3,7 @@
 What a language's dates look like comes from two places:
 
 * CLDR, the Unicode Common Locale Data Repository, through Babel: month names (wide and
-  abbreviated, format and stand-alone forms), weekday names, the order of day, month and year in a
+  abbreviated, format and stand-alone forms), the order of day, month and year in a
   numeric date and its separator (the locale's short date pattern, e.g. de "dd.MM.yy", es
   "d/M/yy"), the words that join day, month and year in a written date (the long pattern: de
   "d. MMMM y", es "d 'de' MMMM 'de' y") and the quarter names ("3. Quartal", "3.er trimestre");
@@ -25,7 +25,7 @@ from dataclasses import dataclass
 from pathlib import Path
 
 from babel import Locale as CldrLocale
-from babel.dates import get_date_format, get_day_names, get_month_names, get_quarter_names
+from babel.dates import get_date_format, get_month_names, get_quarter_names
 
 from auditor.errors import ConfigError
 
@@ -43,7 +43,6 @@ class DateLocale:
     full_months: tuple[tuple[str, int], ...]  # the wide names only: safe without a day or year
     month_before: tuple[str, ...]  # words after which a month name alone is a month ("im Mai")
     capitalized_nouns: bool  # German: a capitalized word after a number is the thing counted
-    weekdays: frozenset[str]  # casefolded
     order: str  # "DMY", "MDY" or "YMD": the numeric date order of the locale's short pattern
     separators: str  # characters that separate the parts of a numeric date
     day_suffix: str  # what follows the day in a written date: "." in German, "" in Spanish
@@ -132,11 +131,6 @@ def load(source: Path) -> DateLocale:
     full = tuple((name.casefold(), number) for number, name in get_month_names("wide", "format", cldr).items())
     for name, number in _mapping(raw, "extra_months", source).items():
         months[name] = int(number)
-    weekdays = frozenset(
-        name.casefold().rstrip(".")
-        for width in ("wide", "abbreviated")
-        for name in get_day_names(width, "format", cldr).values()
-    )
     order, separators = _order(get_date_format("short", cldr).pattern)
     day_suffix, day_month, month_year = _joiners(get_date_format("long", cldr).pattern)
     # The quarter noun is the word of CLDR's wide quarter name that is not the number ("3. Quartal").
@@ -150,7 +144,6 @@ def load(source: Path) -> DateLocale:
         full_months=full,
         month_before=_words(raw, "month_before", source),
         capitalized_nouns=bool(raw.get("capitalized_nouns", False)),
-        weekdays=weekdays,
         order=order,
         separators=separators,
         day_suffix=day_suffix,
