@@ -4,6 +4,7 @@ tokenizing, the config's `[languages]` globs, the stored language and its migrat
 from __future__ import annotations
 
 import json
+import re
 import sqlite3
 
 import pytest
@@ -159,10 +160,7 @@ def test_config_globs_win_and_a_changed_rule_reparses(tmp_path):
 def test_schema_1_database_is_migrated_and_retokenized(tmp_path):
     # A database of schema 1: no language columns, passages tokenized as English.
     path = tmp_path / "old.db"
-    old = SCHEMA.replace(
-        "    language        TEXT,                   -- Snowball name, e.g. 'german' (docs/languages.md)\n", ""
-    )
-    old = old.replace("    language_source TEXT,                   -- config | document | detected | fallback\n", "")
+    old = re.sub(r"    language(?:_source)? +TEXT,[^\n]*\n", "", SCHEMA)
     assert "language" not in old.split("CREATE TABLE IF NOT EXISTS passages")[0].split("documents (")[1]
     conn = sqlite3.connect(path)
     conn.executescript(old)
@@ -183,7 +181,7 @@ def test_schema_1_database_is_migrated_and_retokenized(tmp_path):
     (tmp_path / "audit.toml").write_text('database = "old.db"\n[corpus]\npaths = ["kb"]\n', encoding="utf-8")
     config = load_config(tmp_path / "audit.toml", env={})
     with Store(path) as store:
-        assert store.get_meta("schema_version") == "2"
+        assert store.get_meta("schema_version") == "3"
         summary = ingest_corpus(store, config, jobs=1)
         assert summary.retokenized == 1
         row = store.query("SELECT language, language_source FROM documents")[0]

@@ -402,7 +402,7 @@ def _same_language_rule(config, rel: str, row) -> bool:
 def _retokenize_if_needed(store, tokenizer) -> int:
     """Re-tokenize every stored passage when the tokenizer fingerprint changed; returns how many.
 
-    A document stored before languages were recorded (schema 1) gets its language detected from
+    A document stored before languages were recorded (schema 1 or 2) gets its language detected from
     its passages first."""
     fingerprint = tokenizer.fingerprint()
     stored = store.get_meta("tokenizer")
