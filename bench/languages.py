@@ -19,7 +19,7 @@ Three parts, each run with `--part` (default all):
   annotations, CC BY-SA 3.0), read from `--wikiwars DIR` (the folder holding `keyinline/`),
   never from the repository.
 
-    python bench/languages.py [--part detectors|kb|dates] [--cache DIR] [--wikiwars DIR]
+    python -m bench.languages [--part detectors|kb|dates] [--cache DIR] [--wikiwars DIR]
                               [--language german] [--questions]
 """
 
@@ -35,22 +35,19 @@ import subprocess
 import sys
 import tempfile
 import time
+import warnings
 from pathlib import Path
 
+from bs4 import XMLParsedAsHTMLWarning
+
+from auditor.config import load_config
+from auditor.ingest.pipeline import ingest_corpus
+from auditor.judgement.audit import question_support
+from auditor.judgement.calibrate import gap_metrics, roc_auc
+from auditor.retrieval.index import PassageIndex
+from auditor.store import Store
+
 REPO = Path(__file__).resolve().parent.parent
-sys.path.insert(0, str(REPO))
-
-import warnings  # noqa: E402
-
-from bs4 import XMLParsedAsHTMLWarning  # noqa: E402
-
-from auditor.config import load_config  # noqa: E402
-from auditor.ingest.pipeline import ingest_corpus  # noqa: E402
-from auditor.judgement.audit import question_support  # noqa: E402
-from auditor.judgement.calibrate import gap_metrics, roc_auc  # noqa: E402
-from auditor.retrieval.index import PassageIndex  # noqa: E402
-from auditor.store import Store  # noqa: E402
-
 warnings.filterwarnings("ignore", category=XMLParsedAsHTMLWarning)  # the Debian pages are XHTML
 CACHE = Path(os.environ.get("AUDITOR_BENCH_CACHE", Path.home() / ".cache" / "corpus-auditor-lang"))
 PACKAGES = ["debian-reference-de", "debian-reference-es", "maint-guide-de", "maint-guide-es", "debian-faq-de"]

@@ -8,12 +8,12 @@ import csv
 import shutil
 
 import pytest
-from conftest import REPO
 
 from auditor.config import load_config
 from auditor.report import write_report
 from auditor.scan import scan
 from auditor.store import Store
+from tests.conftest import REPO
 
 BILINGUAL = REPO / "fixtures" / "bilingual"
 

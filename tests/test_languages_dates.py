@@ -15,13 +15,13 @@ from datetime import date
 
 import pytest
 from babel.dates import get_date_format, get_month_names
-from cpu_budget import cpu_seconds
 
 from auditor.errors import ConfigError
 from auditor.judgement.freshness import passage_freshness
 from auditor.temporal import locales
 from auditor.temporal.extract import extract
 from auditor.temporal.localized import extract_localized
+from tests.cpu_budget import cpu_seconds
 
 REFERENCE = date(2026, 3, 15)  # a Sunday
 
