@@ -24,6 +24,7 @@ from auditor.history.runs import format_runs, list_runs, load_run, previous_run
 from auditor.ingest.pipeline import ingest_corpus
 from auditor.judgement.calibrate import calibrate as run_calibrate
 from auditor.judgement.calibrate import format_calibration
+from auditor.language import detect_or, from_tag
 from auditor.report import write_report
 from auditor.results import Run
 from auditor.retrieval.index import PassageIndex, describe_hits
@@ -233,11 +234,21 @@ def diff(base, head, config_path, db):
     "--fiscal-year-start", type=click.IntRange(1, 12), help="Month the fiscal year starts (default: the config's)."
 )
 @click.option("--hemisphere", type=click.Choice(["north", "south"]), help="For seasons (default: the config's).")
-def dates(files, config_path, reference_date, day_first, fiscal_year_start, hemisphere):
-    """Temporal expressions in FILE... (or standard input) as JSON lines."""
-    corpus = _config(config_path).corpus
+@click.option(
+    "--language",
+    default="auto",
+    show_default=True,
+    help="Language of the text: a name (german) or code (de); auto detects it per file.",
+)
+def dates(files, config_path, reference_date, day_first, fiscal_year_start, hemisphere, language):
+    """Temporal expressions in FILE... (or standard input) as JSON lines, each naming the language used."""
+    config = _config(config_path)
+    corpus = config.corpus
     if day_first is None:
         day_first = corpus.day_first
+    chosen = None if language == "auto" else from_tag(language)
+    if language != "auto" and chosen is None:
+        raise click.BadParameter(f"unknown language {language!r}; give e.g. 'german', 'de' or 'auto'")
     for name in files or ("-",):
         if name == "-":
             text = sys.stdin.read()
@@ -246,14 +257,16 @@ def dates(files, config_path, reference_date, day_first, fiscal_year_start, hemi
                 text = Path(name).read_text(encoding="utf-8", errors="replace")
             except OSError as exc:
                 raise InputError(f"{name!r}: cannot read ({exc.strerror})") from None
+        used = chosen or detect_or(text, config.retrieval.detect, config.retrieval.detect[0])
         for expression in extract(
             text,
             reference_date or date.today(),
             day_first=day_first,
             fiscal_year_start=fiscal_year_start or corpus.fiscal_year_start,
             hemisphere=hemisphere or corpus.hemisphere,
+            language=used,
         ):
-            click.echo(json.dumps(expression.as_json(), ensure_ascii=False))
+            click.echo(json.dumps({**expression.as_json(), "language": used}, ensure_ascii=False))
 
 
 @cli.command()

@@ -20,6 +20,7 @@ from typing import Any
 import phonenumbers
 
 from auditor.errors import ConfigError
+from auditor.language import DEFAULT_CANDIDATES, from_tag
 from auditor.retrieval.bm25 import Params
 from auditor.retrieval.tokenize import Tokenizer
 
@@ -66,8 +67,9 @@ class RetrievalConfig:
     b: float = 0.75
     delta: float = 0.5  # BM25+ / BM25L
     top_k: int = 5
-    language: str = "english"  # Snowball stemmer; "none" disables stemming
-    stopwords: str = "english"  # built-in list name, or "none"
+    language: str = "auto"  # "auto": each text's own language (docs/languages.md); a Snowball stemmer; "none"
+    stopwords: str = "auto"  # "auto": the language's own list; a built-in list name; "none"
+    detect: tuple[str, ...] = DEFAULT_CANDIDATES  # the languages "auto" chooses among, first = fallback
 
 
 @dataclass(frozen=True)
@@ -134,6 +136,7 @@ class Config:
     as_of: date | None = None  # audit date; None = today
     questions: tuple[Path, ...] = ()
     owners: tuple[tuple[str, str], ...] = ()  # (glob, owner), first match wins
+    languages: tuple[tuple[str, str], ...] = ()  # (glob, language) of documents, first match wins
     corpus: CorpusConfig = field(default_factory=CorpusConfig)
     freshness: FreshnessConfig = field(default_factory=FreshnessConfig)
     retrieval: RetrievalConfig = field(default_factory=RetrievalConfig)
@@ -230,6 +233,14 @@ def _build(raw: dict, base: Path, source: Path | None, where: str, warn) -> Conf
     owners_raw = reader.table(top.get("owners", {}), "owners", None)
     owners = tuple((str(glob), reader.string(owner, f"owners.{glob!r}")) for glob, owner in owners_raw.items())
 
+    languages_raw = reader.table(top.get("languages", {}), "languages", None)
+    languages = []
+    for glob, name in languages_raw.items():
+        language = from_tag(reader.string(name, f"languages.{glob!r}"))
+        if language is None:
+            raise ConfigError(f"{where}: languages.{glob!r}: unknown language {name!r}; give e.g. 'german' or 'de'")
+        languages.append((str(glob), language))
+
     questions = tuple(reader.path(p, "questions") for p in reader.array(top.get("questions", []), "questions"))
     config = Config(
         source=source,
@@ -237,6 +248,7 @@ def _build(raw: dict, base: Path, source: Path | None, where: str, warn) -> Conf
         as_of=reader.date(top.get("as_of"), "as_of"),
         questions=questions,
         owners=owners,
+        languages=tuple(languages),
         corpus=corpus,
         freshness=freshness,
         retrieval=reader.fill(
@@ -299,7 +311,7 @@ def _check_retrieval(retrieval: RetrievalConfig, where: str) -> None:
     """Let the BM25 and tokenizer registries judge their settings now, so the message names the file."""
     try:
         Params(retrieval.variant, retrieval.k1, retrieval.b, retrieval.delta)
-        Tokenizer(retrieval.language, retrieval.stopwords)
+        Tokenizer(retrieval.language, retrieval.stopwords, retrieval.detect)
     except ConfigError as exc:
         raise ConfigError(f"{where}: {exc}") from None
 

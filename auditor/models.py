@@ -53,6 +53,7 @@ class ParsedDocument:
     dates: list[MetaDate] = field(default_factory=list)  # most specific first
     owner: str | None = None  # front matter `owner:`, wins over the config's owner map
     tags: tuple[str, ...] = ()
+    language: str | None = None  # what the file says: front matter `lang:` or HTML `lang` (docs/languages.md)
 
 
 @dataclass(frozen=True)

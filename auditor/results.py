@@ -151,6 +151,7 @@ class QuestionResult(Record):
     horizon_days: int | None = None
     missing_terms: list[str]
     terms: list[str] = field(default_factory=list)
+    language: str | None = None  # the question's language as the tokenizer read it (docs/languages.md)
     evidence: list[Evidence]
     # What the fact-level checks found (auditor/judgement/verdicts.fact_check, docs/judgement.md).
     missing_constraint: dict | None = None
@@ -198,6 +199,26 @@ class Summary(Record):
 
     @classmethod
     def from_json(cls, data: Mapping[str, Any]) -> Summary:
+        return cls(**_plain_fields(cls, data))
+
+
+@dataclass(kw_only=True)
+class LanguageSummary(Summary):
+    """The summary of the questions of one language (docs/languages.md)."""
+
+    language: str
+
+    @classmethod
+    def by_language(cls, results: Sequence[QuestionResult]) -> list[LanguageSummary]:
+        """One summary per question language, by language name; questions without one are left out."""
+        languages = sorted({q.language for q in results if q.language})
+        return [
+            cls(language=lang, **dataclasses.asdict(Summary.of([q for q in results if q.language == lang])))
+            for lang in languages
+        ]
+
+    @classmethod
+    def from_json(cls, data: Mapping[str, Any]) -> LanguageSummary:
         return cls(**_plain_fields(cls, data))
 
 
@@ -442,6 +463,7 @@ class Run(Record):
 
     info: RunInfo = field(metadata={"json": "run"})
     summary: Summary
+    languages: list[LanguageSummary] = field(default_factory=list)
     questions: list[QuestionResult]
     ingest_errors: list[IngestError]
     documents: list[DocumentEntry] = field(default_factory=list)
@@ -469,6 +491,7 @@ def _read_format1(data: Mapping[str, Any]) -> Run:
     return Run(
         info=RunInfo.from_json(data["run"]),
         summary=Summary.from_json(data["summary"]),
+        languages=_each(LanguageSummary.from_json, data.get("languages")),
         questions=_each(QuestionResult.from_json, data["questions"]),
         ingest_errors=_each(IngestError.from_json, data["ingest_errors"]),
         documents=_each(DocumentEntry.from_json, data.get("documents")),

@@ -18,7 +18,7 @@ import sqlite_utils
 
 from auditor.errors import StoreError
 
-SCHEMA_VERSION = 3
+SCHEMA_VERSION = 4
 
 SCHEMA = """
 -- Key/value facts about the database itself: schema_version, tokenizer fingerprint, ...
@@ -46,6 +46,8 @@ CREATE TABLE IF NOT EXISTS documents (
     expires         TEXT,                   -- ISO date from metadata (front matter, schema.org, OG)
     meta_dates      TEXT NOT NULL DEFAULT '[]',  -- JSON list of every MetaDate found
     tags            TEXT NOT NULL DEFAULT '[]',
+    language        TEXT,                   -- Snowball name, e.g. 'german' (docs/languages.md)
+    language_source TEXT,                   -- config | document | detected | fallback
     status          TEXT NOT NULL DEFAULT 'active',  -- active | removed | failed
     first_seen      TEXT NOT NULL,
     last_seen       TEXT NOT NULL,
@@ -193,6 +195,11 @@ CREATE TABLE IF NOT EXISTS redaction_counts (
     3: """
 ALTER TABLE statements ADD COLUMN timex_type TEXT NOT NULL DEFAULT 'DATE';
 ALTER TABLE statements ADD COLUMN timex_value TEXT;
+""",
+    # The language of each document (NULL until the ingest re-tokenizes or re-parses it).
+    4: """
+ALTER TABLE documents ADD COLUMN language TEXT;
+ALTER TABLE documents ADD COLUMN language_source TEXT;
 """,
 }
 

@@ -92,9 +92,21 @@ def test_dates_prints_json_lines_from_stdin(runner):
     assert rows[0]["expression"] == "March 1, 2025"
     assert (rows[0]["start"], rows[0]["end"], rows[0]["granularity"]) == ("2025-03-01", "2025-03-01", "day")
     assert rows[0]["role"] == "effective"
-    # the format is extended, not renamed: the original keys, then TIMEX3 type, value and offsets
-    assert set(rows[0]) == {"text", "expression", "start", "end", "granularity", "role", "type", "value", "offsets"}
+    # the format is extended, not renamed: the original keys, then TIMEX3 type, value and offsets, and the language
+    assert set(rows[0]) == {
+        "text",
+        "expression",
+        "start",
+        "end",
+        "granularity",
+        "role",
+        "type",
+        "value",
+        "offsets",
+        "language",
+    }
     assert (rows[0]["type"], rows[0]["value"], rows[0]["offsets"]) == ("DATE", "2025-03-01", {"begin": 20, "end": 33})
+    assert rows[0]["language"] == "english"  # detected: no --language given
 
 
 def test_dates_unreadable_file_exits_1(runner, tmp_path):

@@ -68,7 +68,7 @@ def test_new_tokenizer_fingerprint_retokenizes_every_passage(tmp_path):
         summary = ingest_corpus(store, unstemmed)
         passages = store.query("SELECT text, token_ids, token_count FROM passages")
         assert summary.retokenized == len(passages) == 2 and summary.parsed == 0
-        tokenizer = Tokenizer("none", "english")
+        tokenizer = Tokenizer("none")  # the config's default stopwords: the fallback language's (English) list
         assert store.get_meta("tokenizer") == tokenizer.fingerprint() != Tokenizer().fingerprint()
         vocabulary = Vocabulary(store)
         for p in passages:

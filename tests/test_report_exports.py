@@ -46,6 +46,7 @@ def test_results_json_is_the_run_with_format1_keys_first(out):
         "format",
         "run",
         "summary",
+        "languages",
         "questions",
         "ingest_errors",
         "documents",

@@ -51,6 +51,7 @@ def question(qid: str, verdict: str, reasons=None, weight=None) -> dict:
         "support": 0.0 if verdict == "gap" else 0.7,
         "missing_terms": [],
         "terms": [],
+        "language": "english",
         "evidence": [],
         "flags": [],
         "action": {"gap": "write", "stale": "refresh"}.get(verdict),

@@ -2,10 +2,12 @@
 
 from __future__ import annotations
 
+import hashlib
+
 import pytest
 
 from auditor.errors import ConfigError
-from auditor.retrieval.tokenize import LUCENE_ENGLISH, Tokenizer
+from auditor.retrieval.tokenize import ENGLISH, LUCENE_ENGLISH, Tokenizer
 
 
 def test_snowball_english_examples():
@@ -52,11 +54,17 @@ def test_fingerprint_names_the_settings():
         Tokenizer(language="german").fingerprint(),
     }
     assert len(prints) == 4
-    assert Tokenizer().fingerprint() == Tokenizer("english", "english").fingerprint()
+    # A store tokenized before languages existed keeps its fingerprint when its settings are given
+    # explicitly: the rules version, stemmer, list name and a digest of the sorted list.
+    digest = hashlib.sha256(" ".join(sorted(ENGLISH)).encode()).hexdigest()[:12]
+    assert Tokenizer("english", "english").fingerprint() == f"tok2:english:english:{digest}"
+    assert Tokenizer().fingerprint() != Tokenizer("english", "english").fingerprint()
 
 
 def test_unknown_settings_are_config_errors():
     with pytest.raises(ConfigError, match="unknown stemmer 'klingon'.*english"):
         Tokenizer(language="klingon")
-    with pytest.raises(ConfigError, match="unknown stopword list 'french'; choose one of english, lucene, none"):
-        Tokenizer(stopwords="french")
+    with pytest.raises(ConfigError, match="unknown stopword list 'klingon'; choose one of auto, english, .*german"):
+        Tokenizer(stopwords="klingon")
+    with pytest.raises(ConfigError, match="retrieval.detect: 'klingon' cannot be detected"):
+        Tokenizer(candidates=("english", "klingon"))

@@ -26,6 +26,7 @@ from auditor.results import (
     GateResult,
     HistoryEntry,
     IngestError,
+    LanguageSummary,
     QuestionResult,
     Run,
     RunInfo,
@@ -200,17 +201,19 @@ def _run_object(store: Store, row: dict) -> Run:
         "corpus_fingerprint": row["corpus_fingerprint"],
     }
     results = store.query("SELECT position, result FROM results WHERE run_id = ? ORDER BY position", [run_id])
+    questions = [
+        part(
+            f"results[{r['position']}]",
+            QuestionResult.from_json,
+            _json(store, run_id, f"results[{r['position']}]", r["result"], None),
+        )
+        for r in results
+    ]
     return Run(
         info=part("run", RunInfo.from_json, head),
         summary=part("summary", Summary.from_json, column("summary", {})),
-        questions=[
-            part(
-                f"results[{r['position']}]",
-                QuestionResult.from_json,
-                _json(store, run_id, f"results[{r['position']}]", r["result"], None),
-            )
-            for r in results
-        ],
+        languages=LanguageSummary.by_language(questions),  # recomputed from the stored questions
+        questions=questions,
         ingest_errors=part(
             "ingest_errors", lambda d: [IngestError.from_json(e) for e in d], column("ingest_errors", [])
         ),

@@ -24,6 +24,7 @@ from bs4 import BeautifulSoup, Comment, Doctype, NavigableString, ProcessingInst
 from auditor.ingest.dates import parse_http_date, parse_time_element, parse_w3c_datetime
 from auditor.ingest.failures import IngestFailure
 from auditor.ingest.text import decode_text, sniff_bom
+from auditor.language import from_tag
 from auditor.models import Block, MetaDate, ParsedDocument
 
 # Chromium's HTML parser stops nesting at 512 levels (kMaximumHTMLParserDOMTreeDepth, from
@@ -147,7 +148,19 @@ def parse_html(data: bytes, path: str) -> ParsedDocument:
         raise IngestFailure("empty", path, "no text in the page's main content")
     if title is None:
         title = next((b.text for b in blocks if b.heading_path and b.text == b.heading_path[-1]), None)
-    return ParsedDocument(blocks=blocks, title=title, dates=dates)
+    return ParsedDocument(blocks=blocks, title=title, dates=dates, language=_language(soup))
+
+
+def _language(soup) -> str | None:
+    """The page's language: `lang` / `xml:lang` on <html> (HTML Living Standard, "The lang and
+    xml:lang attributes"), else a Content-Language <meta>."""
+    html = soup.find("html")
+    if html is not None:
+        for attribute in ("lang", "xml:lang"):
+            if language := from_tag(html.get(attribute)):
+                return language
+    meta = soup.find("meta", attrs={"http-equiv": lambda v: isinstance(v, str) and v.lower() == "content-language"})
+    return from_tag(meta.get("content")) if meta is not None else None
 
 
 class _Scan:

@@ -15,6 +15,7 @@ import yaml
 from auditor.ingest.dates import parse_meta_value
 from auditor.ingest.failures import IngestFailure
 from auditor.ingest.text import decode_text
+from auditor.language import from_tag
 from auditor.models import Block, MetaDate, ParsedDocument
 
 _FRONT_MATTER = re.compile(r"\A---[ \t]*\n(.*?\n)?(?:---|\.\.\.)[ \t]*(?:\n|\Z)", re.S)
@@ -164,6 +165,7 @@ def parse_markdown(data: bytes, path: str) -> ParsedDocument:
     if isinstance(tags, str):
         tags = [t.strip() for t in tags.split(",")]
     owner = meta.get("owner")
+    stated = meta.get("lang", meta.get("language"))
     doc_title = meta.get("title") or first_h1
     return ParsedDocument(
         blocks=blocks,
@@ -171,4 +173,5 @@ def parse_markdown(data: bytes, path: str) -> ParsedDocument:
         dates=dates,
         owner=str(owner).strip() if owner not in (None, "") else None,
         tags=tuple(str(t) for t in tags if str(t).strip()) if isinstance(tags, (list, tuple)) else (),
+        language=from_tag(stated) if isinstance(stated, str) else None,
     )

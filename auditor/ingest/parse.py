@@ -13,11 +13,13 @@ from pathlib import Path
 from auditor.ingest.dates import file_time_date
 from auditor.ingest.failures import IngestFailure
 from auditor.ingest.html import parse_html
+from auditor.ingest.languages import document_language
 from auditor.ingest.markdown import parse_markdown
 from auditor.ingest.pdf import parse_pdf
 from auditor.ingest.segment import segment
 from auditor.ingest.text import parse_text
 from auditor.ingest.walk import detect_kind, read_file, sha256
+from auditor.language import DEFAULT_CANDIDATES
 from auditor.models import MetaDate
 from auditor.retrieval.tokenize import Tokenizer
 from auditor.temporal import extract as temporal
@@ -32,6 +34,7 @@ class Settings:
     day_first: bool
     fiscal_year_start: int
     hemisphere: str
+    detect: tuple[str, ...] = DEFAULT_CANDIDATES  # the languages a document's language is chosen among
 
 
 _TOKENIZERS: dict = {}
@@ -41,8 +44,11 @@ def warm_up(settings: Settings) -> None:
     """Import the parsers and run each costly first call once, so that a worker's start-up does
     not count against the per-file timeout."""
     try:
-        key = (settings.language, settings.stopwords)
-        _TOKENIZERS.setdefault(key, Tokenizer(*key)).tokenize("warm up the stemmer")
+        key = (settings.language, settings.stopwords, settings.detect)
+        _TOKENIZERS.setdefault(key, Tokenizer(*key)).tokenize(
+            "Warm up the stemmer and the language detector on a text long enough for the document mode, "
+            "which loads the small models only."
+        )
         temporal.extract(
             "Updated 1 March 2024, effective next month.",
             reference_date=None,
@@ -96,8 +102,9 @@ def _parse_file(task: dict, settings: Settings) -> dict:
     else:
         doc_date, doc_date_source = file_time_date(task["mtime"]), "file:mtime"
     expires = next((d.value for d in dates if d.kind == "expires"), None)
-    key = (settings.language, settings.stopwords)
+    key = (settings.language, settings.stopwords, settings.detect)
     tokenizer = _TOKENIZERS.get(key) or _TOKENIZERS.setdefault(key, Tokenizer(*key))
+    language, language_source = document_language(task.get("language"), parsed.language, parsed.blocks, settings.detect)
     passages = []
     for p in segment(parsed.blocks):
         statements = temporal.extract(
@@ -106,8 +113,9 @@ def _parse_file(task: dict, settings: Settings) -> dict:
             day_first=settings.day_first,
             fiscal_year_start=settings.fiscal_year_start,
             hemisphere=settings.hemisphere,
+            language=language,
         )
-        passages.append((p, tokenizer.tokenize(p.text), statements))
+        passages.append((p, tokenizer.tokenize(p.text, language), statements))
     return {
         "ok": True,
         "kind": kind,
@@ -116,6 +124,8 @@ def _parse_file(task: dict, settings: Settings) -> dict:
         "title": parsed.title,
         "owner": parsed.owner,
         "tags": list(parsed.tags),
+        "language": language,
+        "language_source": language_source,
         "dates": dates,
         "doc_date": doc_date,
         "doc_date_source": doc_date_source,

@@ -36,11 +36,13 @@ from typing import Any
 from auditor.clock import utc_now
 from auditor.errors import InputError
 from auditor.ingest.failures import IngestFailure
+from auditor.ingest.languages import document_language, language_from_config
 from auditor.ingest.owners import owner_from_config
 from auditor.ingest.parse import Settings, parse_file, warm_up
 from auditor.ingest.pool import run_tasks
 from auditor.ingest.sitemap import lastmod_dates
 from auditor.ingest.walk import SourceFile, discover, read_file, resolve_roots, sha256, storable
+from auditor.models import Block
 from auditor.retrieval.tokenize import Tokenizer
 from auditor.retrieval.vocabulary import Vocabulary
 
@@ -122,14 +124,16 @@ def _ingest(store, config, given: list, jobs, progress, runner) -> IngestSummary
     files, skipped = discover(given, corpus)
     sitemap = lastmod_dates(corpus.sitemaps, [r for r, _ in resolve_roots(given)]) if corpus.sitemaps else {}
     summary = IngestSummary()
-    tokenizer = Tokenizer(config.retrieval.language, config.retrieval.stopwords)
+    tokenizer = Tokenizer(config.retrieval.language, config.retrieval.stopwords, config.retrieval.detect)
     summary.retokenized = _retokenize_if_needed(store, tokenizer)
     parser = parser_fingerprint()
     parser_changed = store.get_meta("ingest:parser") != parser
     failed_before = json.loads(store.get_meta("ingest:failed", "{}"))
     known = {
         row["path"]: row
-        for row in store.query("SELECT id, path, sha256, status, meta_dates, owner, owner_source FROM documents")
+        for row in store.query(
+            "SELECT id, path, sha256, status, meta_dates, owner, owner_source, language, language_source FROM documents"
+        )
     }
     now = utc_now()
     seen: set[str] = set()
@@ -177,6 +181,7 @@ def _ingest(store, config, given: list, jobs, progress, runner) -> IngestSummary
             and row["sha256"] == sha
             and not parser_changed
             and _sitemap_date(row["meta_dates"]) == (site.value.isoformat() if site else None)
+            and _same_language_rule(config, f.rel, row)
         ):
             unchanged.append((f, row))
             continue
@@ -194,7 +199,16 @@ def _ingest(store, config, given: list, jobs, progress, runner) -> IngestSummary
             store.db.execute("UPDATE documents SET last_seen=? WHERE path=?", [now, f.doc_path])
             continue
         by_path[f.doc_path] = f
-        tasks.append({"file": str(f.file), "doc_path": f.doc_path, "kind": f.kind, "mtime": f.mtime, "sitemap": site})
+        tasks.append(
+            {
+                "file": str(f.file),
+                "doc_path": f.doc_path,
+                "kind": f.kind,
+                "mtime": f.mtime,
+                "sitemap": site,
+                "language": language_from_config(config, f.rel),
+            }
+        )
 
     _touch_unchanged(store, config, unchanged, now)
     summary.unchanged = len(unchanged)
@@ -205,6 +219,7 @@ def _ingest(store, config, given: list, jobs, progress, runner) -> IngestSummary
         corpus.day_first,
         corpus.fiscal_year_start,
         corpus.hemisphere,
+        detect=config.retrieval.detect,
     )
     jobs = jobs or corpus.jobs or os.cpu_count() or 1
     # Largest files first: with a few big files among many small ones, the pool stays busy to the end.
@@ -310,6 +325,8 @@ def _write_document(store, config, vocabulary, f: SourceFile, value: dict, row, 
         "expires": value["expires"].isoformat() if value["expires"] else None,
         "meta_dates": json.dumps(meta_dates),
         "tags": json.dumps(value["tags"]),
+        "language": value["language"],
+        "language_source": value["language_source"],
         "status": "active",
         "last_seen": now,
         "ingested_at": now,
@@ -376,19 +393,45 @@ def _mark_removed(store, known: dict, seen: set[str], now: str) -> int:
     return len(gone)
 
 
+def _same_language_rule(config, rel: str, row) -> bool:
+    """False when the config's `[languages]` globs now decide this file's language differently
+    from when it was stored, so that it is parsed and tokenized again."""
+    mapped = language_from_config(config, rel)
+    if mapped is None:
+        return row["language_source"] != "config"
+    return row["language_source"] == "config" and row["language"] == mapped
+
+
 def _retokenize_if_needed(store, tokenizer) -> int:
-    """Re-tokenize every stored passage when the tokenizer fingerprint changed; returns how many."""
+    """Re-tokenize every stored passage when the tokenizer fingerprint changed; returns how many.
+
+    A document stored before languages were recorded (schema 1 or 2) gets its language detected from
+    its passages first."""
     fingerprint = tokenizer.fingerprint()
     stored = store.get_meta("tokenizer")
     if stored == fingerprint:
         return 0
-    rows = store.query("SELECT id, text FROM passages")
+    rows = store.query(
+        "SELECT p.id, p.text, p.document_id, d.language FROM passages p JOIN documents d ON d.id = p.document_id "
+        "ORDER BY p.document_id, p.ordinal"
+    )
+    unknown: dict[int, list[Block]] = {}
+    for row in rows:
+        if row["language"] is None:
+            unknown.setdefault(row["document_id"], []).append(Block(row["text"]))
+    languages = {
+        doc_id: document_language(None, None, blocks, tokenizer.candidates)[0] for doc_id, blocks in unknown.items()
+    }
     with store.transaction():
+        for doc_id, language in languages.items():
+            store.db.execute(
+                "UPDATE documents SET language=?, language_source='detected' WHERE id=?", [language, doc_id]
+            )
         if rows:
             store.db.execute("DELETE FROM terms")
             vocabulary = Vocabulary(store)
             for row in rows:
-                tokens = tokenizer.tokenize(row["text"])
+                tokens = tokenizer.tokenize(row["text"], row["language"] or languages[row["document_id"]])
                 store.db.execute(
                     "UPDATE passages SET token_ids=?, token_count=? WHERE id=?",
                     [vocabulary.ids(tokens).tobytes(), len(tokens), row["id"]],

@@ -34,6 +34,7 @@ from auditor.results import (
     DocumentEntry,
     Evidence,
     IngestError,
+    LanguageSummary,
     QuestionResult,
     Run,
     RunInfo,
@@ -125,6 +126,7 @@ def run_audit(
             corpus_fingerprint=_corpus_fingerprint(store),
         ),
         summary=Summary.of(results),
+        languages=LanguageSummary.by_language(results),
         questions=results,
         ingest_errors=[
             IngestError(document=r["path"], error=r["error"])
@@ -265,6 +267,7 @@ def _judge_question(
         horizon_days=freshness.horizon_for(fresh_config, topic=question.topic, override=question.horizon_days),
         missing_terms=list(result.missing_terms),
         terms=list(result.terms),
+        language=tokenizer.language_of(question.question),
         evidence=evidence,
         **check.as_json(),
     )

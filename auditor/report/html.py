@@ -543,6 +543,7 @@ def build_view(
         "run": info,
         "corpus": info.corpus,
         "summary": summary,
+        "languages": run.languages if owner is None and len(run.languages) > 1 else [],
         "thresholds": info.thresholds,
         "figures": _figures(summary, info.corpus),
         "charts": {"owner": chart_owner, "age": chart_age, "trend": chart_trend},

@@ -101,7 +101,7 @@ class PassageIndex:
         self.store = store
         self.retrieval = retrieval
         self.index = index
-        self.tokenizer = tokenizer or Tokenizer(retrieval.language, retrieval.stopwords)
+        self.tokenizer = tokenizer or Tokenizer(retrieval.language, retrieval.stopwords, retrieval.detect)
         self.vocabulary = Vocabulary(store)
         self.fingerprint = index.meta.get("corpus", "")
         self.rebuilt = False  # set by load_or_build when the saved index could not be used
@@ -116,7 +116,7 @@ class PassageIndex:
         """The saved index when its parameters and corpus still match, else a fresh build (saved
         beside the database when `save`; a folder that cannot be written is not an error)."""
         params = _params(retrieval)
-        tokenizer = Tokenizer(retrieval.language, retrieval.stopwords)
+        tokenizer = Tokenizer(retrieval.language, retrieval.stopwords, retrieval.detect)
         stored = store.get_meta("tokenizer")
         if stored and stored != tokenizer.fingerprint():
             raise StoreError(

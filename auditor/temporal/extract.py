@@ -30,6 +30,8 @@ from datetime import date, timedelta
 
 from auditor.models import TemporalExpression
 from auditor.temporal import kinds
+from auditor.temporal.locales import locale_for
+from auditor.temporal.localized import extract_localized
 from auditor.temporal.patterns import (
     ALTERNATIVES,
     DIGIT_FIRST,
@@ -271,8 +273,12 @@ def extract(
     day_first: bool = False,
     fiscal_year_start: int = 1,
     hemisphere: str = "north",
+    language: str = "english",
 ) -> list[TemporalExpression]:
     """Every temporal expression in `text`, normalized, in text order.
+
+    `language` (a Snowball name) other than English with a language file in
+    auditor/temporal/languages/ is read with that language's words (auditor/temporal/localized.py).
 
     `reference_date` (the document date) anchors relative and yearless expressions and tells
     planned events from past ones; `day_first` reads 03/04/2025 as 3 April; `fiscal_year_start`
@@ -283,6 +289,8 @@ def extract(
         raise ValueError(f"hemisphere must be 'north' or 'south', not {hemisphere!r}")
     if not (isinstance(fiscal_year_start, int) and 1 <= fiscal_year_start <= 12):
         raise ValueError(f"fiscal_year_start must be a month number 1-12, not {fiscal_year_start!r}")
+    if language != "english" and (words := locale_for(language)) is not None:
+        return extract_localized(text, words, reference_date)
     sentences = _sentences(text)
     starts = [s for s, _ in sentences]
     normalized: dict[int, str] = {}  # once per sentence: re-joining it per expression is quadratic
