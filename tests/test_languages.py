@@ -157,14 +157,15 @@ def test_config_globs_win_and_a_changed_rule_reparses(tmp_path):
         assert summary.parsed == 2  # the two files whose rule changed, not the German one
 
 
-def test_schema_1_database_is_migrated_and_retokenized(tmp_path):
-    # A database of schema 1: no language columns, passages tokenized as English.
+def test_schema_3_database_is_migrated_and_retokenized(tmp_path):
+    # A database of schema 3 (the one before document languages): no language columns, passages
+    # tokenized as English.
     path = tmp_path / "old.db"
     old = re.sub(r"    language(?:_source)? +TEXT,[^\n]*\n", "", SCHEMA)
     assert "language" not in old.split("CREATE TABLE IF NOT EXISTS passages")[0].split("documents (")[1]
     conn = sqlite3.connect(path)
     conn.executescript(old)
-    conn.execute("INSERT INTO meta VALUES ('schema_version', '1')")
+    conn.execute("INSERT INTO meta VALUES ('schema_version', '3')")
     conn.execute(
         "INSERT INTO documents(path, source_root, kind, sha256, size, mtime, first_seen, last_seen, ingested_at) "
         "VALUES ('a.md', '/kb', 'markdown', 'x', 1, 't', 't', 't', 't')"
@@ -181,7 +182,7 @@ def test_schema_1_database_is_migrated_and_retokenized(tmp_path):
     (tmp_path / "audit.toml").write_text('database = "old.db"\n[corpus]\npaths = ["kb"]\n', encoding="utf-8")
     config = load_config(tmp_path / "audit.toml", env={})
     with Store(path) as store:
-        assert store.get_meta("schema_version") == "3"
+        assert store.get_meta("schema_version") == "4"
         summary = ingest_corpus(store, config, jobs=1)
         assert summary.retokenized == 1
         row = store.query("SELECT language, language_source FROM documents")[0]
