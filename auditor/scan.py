@@ -5,7 +5,7 @@ The CLI commands are thin wrappers over these; each stage function can also be c
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from datetime import date
 from pathlib import Path
 
@@ -44,6 +44,7 @@ class QuestionSet:
     path: Path
     questions: list[Question]
     log_summary: QueryLogSummary | None  # when the file was a query log
+    notes: list[str] = field(default_factory=list)  # e.g. the columns kept beyond the known ones
 
 
 def load_question_files(config: Config, paths: list[Path] | None = None) -> list[QuestionSet]:
@@ -55,7 +56,8 @@ def load_question_files(config: Config, paths: list[Path] | None = None) -> list
     sets: list[QuestionSet] = []
     seen: dict[str, Path] = {}
     for path in files:
-        questions, log_summary = read_question_file(path, config.redaction)
+        notes: list[str] = []
+        questions, log_summary = read_question_file(path, config.redaction, warn=notes.append)
         for question in questions:
             if question.id in seen:
                 raise InputError(
@@ -63,7 +65,7 @@ def load_question_files(config: Config, paths: list[Path] | None = None) -> list
                     f"{str(seen[question.id])!r}; give the files an `id` column with distinct ids"
                 )
             seen[question.id] = path
-        sets.append(QuestionSet(Path(path), questions, log_summary))
+        sets.append(QuestionSet(Path(path), questions, log_summary, notes))
     return sets
 
 
@@ -86,10 +88,11 @@ def audit_and_report(
     horizon_days: int | None = None,
     out_dir: Path | None = None,
     gate: bool = True,
+    progress: bool = False,
 ) -> tuple[Run, Path]:
     """Audit, attach the diff against the previous run and the gate outcome, write the report."""
     questions = store_question_sets(store, sets)
-    run = run_audit(store, config, questions, as_of=as_of, horizon_days=horizon_days)
+    run = run_audit(store, config, questions, as_of=as_of, horizon_days=horizon_days, progress=progress)
     run_id = run.info.id
     assert run_id is not None  # run_audit stored it
     base_id = previous_run(store, run_id)
@@ -98,7 +101,9 @@ def audit_and_report(
     if run.gate is not None:
         record_gate(store, run_id, run.gate)
     out_dir = out_dir or default_out_dir(config, as_of)
-    write_report(run, out_dir)
+    write_report(
+        run, out_dir, outputs=config.report.outputs, stale_in_junit=config.report.stale_in_junit, progress=progress
+    )
     update_latest(out_dir)
     if config.report.keep_runs:
         apply_retention(store, config.report.keep_runs)
@@ -120,15 +125,20 @@ def scan(
     with ScanLock(config.database, wait=wait):
         with Store(config.database) as store:
             summary = ingest_corpus(store, config, jobs=jobs, progress=progress)
-            run, out_dir = audit_and_report(store, config, sets, as_of=as_of, out_dir=out_dir)
+            run, out_dir = audit_and_report(store, config, sets, as_of=as_of, out_dir=out_dir, progress=progress)
     return ScanOutcome(
         run=run, out_dir=out_dir, ingest_line=summary.line(), gate=run.gate, question_lines=question_lines(sets)
     )
 
 
 def question_lines(sets: list[QuestionSet]) -> list[str]:
-    """What a query-log import merged and redacted, one line per log."""
-    return [f"{qset.path.name}: {qset.log_summary.line()}" for qset in sets if qset.log_summary is not None]
+    """What a query-log import merged and redacted, one line per log, and each set's notes."""
+    lines = []
+    for qset in sets:
+        if qset.log_summary is not None:
+            lines.append(f"{qset.path.name}: {qset.log_summary.line()}")
+        lines.extend(f"warning: {note}" for note in qset.notes)
+    return lines
 
 
 def summary_lines(run: Run) -> list[str]:
@@ -138,7 +148,7 @@ def summary_lines(run: Run) -> list[str]:
     lines = [
         f"audit {info.as_of} (run {info.id}, horizon {info.horizon_days} days): "
         f"{corpus.documents} documents, {corpus.passages} passages, {corpus.failed} failed",
-        f"{s.questions} questions: {s.covered} covered, {s.stale} stale, {s.gap} gap",
+        f"{s.questions} questions: {s.supported} supported, {s.stale} stale, {s.gap} gap",
         f"weighted fallback exposure {s.fallback_exposure:.1%}, stale exposure {s.stale_exposure:.1%}",
     ]
     if run.diff:
