@@ -1071,7 +1071,9 @@ EVIDENCE_KEYS = (
 QUESTION_KEYS = (
     "id", "question", "owner", "topic", "weight", "extra", "verdict", "reasons", "flags", "action",
     "support", "horizon", "explanation", "missing_terms", "terms", "evidence",
+    "missing_constraint", "needs_look", "look_reasons", "conflict",
 )  # fmt: skip
+QUESTION_DEFAULTS = {"missing_constraint": None, "needs_look": False, "look_reasons": [], "conflict": None}
 
 
 def format2(data: dict) -> dict:
@@ -1086,7 +1088,7 @@ def format2(data: dict) -> dict:
             item = {**e, "horizon": default}
             items.append({k: item.get(k) for k in EVIDENCE_KEYS})
         new = {**q, "extra": {}, "horizon": default, "explanation": "", "evidence": items}
-        questions.append({k: new[k] for k in QUESTION_KEYS})
+        questions.append({k: new.get(k, QUESTION_DEFAULTS.get(k)) for k in QUESTION_KEYS})
     gate = data["gate"]
     if gate is not None:
         checks = [{**{k: v for k, v in c.items() if k != "passed"}, "within": c["passed"]} for c in gate["checks"]]

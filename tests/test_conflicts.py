@@ -114,7 +114,7 @@ def test_audit_flags_conflicting_fees_in_results_and_report(tmp_path):
     assert q.verdict == "supported" and "conflicting_values" in q.flags
     assert q.conflict is not None and q.conflict["type"] == "amount"
     assert sorted(v["value"] for v in q.conflict["values"]) == ["$45", "$60"]
-    sentence = verdict_sentence(q, run.info.thresholds)
+    sentence = verdict_sentence(q, run.info)
     assert "$45" in sentence and "$60" in sentence and "reconcile" in sentence
     index = write_report(run, tmp_path / "report")
     written = json.loads((index.parent / "results.json").read_text(encoding="utf-8"))

@@ -300,7 +300,7 @@ def test_fact_check_reports_missing_constraint_weak_band_and_conflict():
     assert alone.conflict is None
 
 
-def test_fact_check_weak_band_only_for_covered_questions():
+def test_fact_check_weak_band_only_for_supported_questions():
     question = "How do I put a package on hold with a graphical tool?"
     idf = {t: 1.0 for t in TOKENIZE(question)} | {"hold": 2.0, "graphic": 3.0}
     evidence = [_evidence(1, "pkg.html", "To hold a package, run apt-mark hold with its name.", 0.47)]

@@ -26,10 +26,10 @@ from auditor.history.runs import history, save_run
 from auditor.ingest.owners import owner_from_config
 from auditor.judgement import freshness
 from auditor.judgement.briefs import content_briefs
+from auditor.judgement.explain import deciding_evidence, explain
 from auditor.judgement.support import Judged, judge, ordered_flags, passage_support
 from auditor.judgement.thresholds import resolve_thresholds
 from auditor.judgement.verdicts import CONFLICT_FLAG, EvidencePassage, diversify, fact_check
-from auditor.judgement.explain import deciding_evidence, explain
 from auditor.models import Freshness, Question, TemporalExpression
 from auditor.progress import Progress
 from auditor.results import (
