@@ -12,9 +12,7 @@ import json
 import shutil
 
 import pytest
-from tests import report_samples as samples
 from click.testing import CliRunner
-from tests.conftest import REPO
 from lxml import etree
 from markdown_it import MarkdownIt
 
@@ -22,6 +20,8 @@ from auditor.cli import cli
 from auditor.report import write_report
 from auditor.report.ci import junit_xml, summary_markdown
 from auditor.results import Summary
+from tests import report_samples as samples
+from tests.conftest import REPO
 
 SCHEMA = etree.XMLSchema(etree.parse(str(REPO / "tests" / "data" / "junit-10.xsd")))
 

@@ -22,11 +22,11 @@ import shutil
 
 import pytest
 from click.testing import CliRunner
-from tests.conftest import REPO
 
 from auditor.cli import cli
 from auditor.history.runs import list_runs, load_run
 from auditor.store import Store
+from tests.conftest import REPO
 
 FIXTURE = REPO / "tests" / "data" / "format1.db"
 

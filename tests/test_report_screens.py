@@ -7,10 +7,10 @@ Screenshots go to test-artifacts/ (git-ignored) for a person to look at.
 from __future__ import annotations
 
 import pytest
-from tests import report_samples as samples
-from tests.test_report_browser import ARGS, ARTIFACTS, CHROMIUM, VISIBLE_ROWS, shown_text
 
 from auditor.report import write_report
+from tests import report_samples as samples
+from tests.test_report_browser import ARGS, ARTIFACTS, CHROMIUM, VISIBLE_ROWS, shown_text
 
 sync_api = pytest.importorskip("playwright.sync_api")
 pytestmark = [pytest.mark.browser, pytest.mark.skipif(CHROMIUM is None, reason="headless Chromium is not installed")]

@@ -15,6 +15,7 @@ import sys
 from pathlib import Path
 
 import pytest
+
 from tests.conftest import REPO
 
 TUTORIAL = REPO / "docs" / "tutorial.md"
