@@ -1,7 +1,7 @@
 """Command line: a thin skin over the library. Each command parses flags, calls one function, prints.
 
 Exit codes (docs/cli.md): 0 done; 1 an error the user can fix (one line on stderr, no traceback);
-2 bad usage (click's own); 3 a gate failed.
+2 bad usage (click's own); 3 a release limit breached.
 """
 
 from __future__ import annotations
@@ -16,7 +16,7 @@ from pathlib import Path
 import click
 
 from auditor import __version__
-from auditor.config import Config, load_config
+from auditor.config import REPORT_OUTPUTS, Config, load_config
 from auditor.errors import AuditorError, InputError
 from auditor.history.diff import diff_runs, format_diff
 from auditor.history.lock import ScanLock
@@ -54,6 +54,7 @@ def _config(
     as_of: date | None = None,
     horizon: int | None = None,
     out: str | None = None,
+    outputs: str | None = None,
 ) -> Config:
     """Defaults < file < environment < flags. Without -c, ./audit.toml is used when present."""
     if path is None:
@@ -68,8 +69,20 @@ def _config(
         if horizon < 0:
             raise click.BadParameter("must not be negative", param_hint="--horizon")
         changes["freshness"] = dataclasses.replace(config.freshness, horizon_days=horizon)
+    report = config.report
     if out:
-        changes["report"] = dataclasses.replace(config.report, out=Path(out))
+        report = dataclasses.replace(report, out=Path(out))
+    if outputs is not None:
+        names = tuple(n.strip() for n in outputs.split(",") if n.strip() and n.strip() != "none")
+        unknown = [n for n in names if n not in REPORT_OUTPUTS]
+        if unknown:
+            raise click.BadParameter(
+                f"unknown output {unknown[0]!r}; choose from {', '.join(REPORT_OUTPUTS)} or none",
+                param_hint="--outputs",
+            )
+        report = dataclasses.replace(report, outputs=names)
+    if report != config.report:
+        changes["report"] = report
     return config.replace(**changes) if changes else config
 
 
@@ -106,7 +119,14 @@ wait_option = click.option(
     default=0.0,
     help="Wait this many seconds for another scan's lock (default: refuse at once).",
 )
-quiet_option = click.option("-q", "--quiet", is_flag=True, help="No progress bars.")
+quiet_option = click.option(
+    "-q", "--quiet", is_flag=True, help="No progress bar (one is drawn on stderr only when it is a terminal)."
+)
+outputs_option = click.option(
+    "--outputs",
+    help="Files for CI and chat beside the report, comma-separated: junit (junit.xml), summary (summary.md); "
+    "'none' for neither (default: the config's [report] outputs).",
+)
 
 
 @click.group(cls=AuditorGroup, context_settings={"help_option_names": ["-h", "--help"]})
@@ -122,10 +142,11 @@ def cli():
 @wait_option
 @click.option("--jobs", type=click.IntRange(min=1), help="Parser processes (default: one per core).")
 @click.option("--cluster", help="Dask scheduler to run on: tcp://host:port, local or local:N (docs/scale.md).")
+@outputs_option
 @quiet_option
-def scan(config_path, as_of, out, wait, jobs, cluster, quiet):
-    """The main job: ingest, audit, compare with the last run, gate, report."""
-    config = _config(config_path, as_of=as_of, out=out)
+def scan(config_path, as_of, out, wait, jobs, cluster, outputs, quiet):
+    """The main job: ingest, audit, compare with the last run, check the release limits, report."""
+    config = _config(config_path, as_of=as_of, out=out, outputs=outputs)
     if cluster:
         config = config.replace(cluster=dataclasses.replace(config.cluster, scheduler=cluster))
     outcome = run_scan(config, wait=wait, jobs=jobs, progress=_progress(quiet))
@@ -175,14 +196,16 @@ def ingest(paths, config_path, db, jobs, wait, quiet):
 @click.option("--horizon", type=int, help="Freshness horizon in days (default: the config's, else 365).")
 @click.option("--out", type=click.Path(file_okay=False), help="Report folder (default: reports/<as-of>/).")
 @wait_option
-def audit(question_files, config_path, db, as_of, horizon, out, wait):
+@outputs_option
+@quiet_option
+def audit(question_files, config_path, db, as_of, horizon, out, wait, outputs, quiet):
     """Audit the stored corpus against a question set and write the report."""
-    config = _config(config_path, db=db, as_of=as_of, horizon=horizon, out=out)
+    config = _config(config_path, db=db, as_of=as_of, horizon=horizon, out=out, outputs=outputs)
     sets = load_question_files(config, [Path(p) for p in question_files] or None)
     for line in question_lines(sets):
         click.echo(line, err=True)
     with ScanLock(config.database, wait=wait), Store(config.database) as store:
-        run, out_dir = audit_and_report(store, config, sets, as_of=config.audit_date())
+        run, out_dir = audit_and_report(store, config, sets, as_of=config.audit_date(), progress=_progress(quiet))
     _finish(run, out_dir)
 
 
@@ -191,13 +214,22 @@ def audit(question_files, config_path, db, as_of, horizon, out, wait):
 @db_option
 @click.option("--run", "run_id", type=int, help="Run id (default: the newest).")
 @click.option("--out", type=click.Path(file_okay=False), help="Report folder (default: reports/<as-of>/).")
-def report(config_path, db, run_id, out):
+@outputs_option
+@quiet_option
+def report(config_path, db, run_id, out, outputs, quiet):
     """Write the report of a stored run again, without re-auditing."""
-    config = _config(config_path, db=db, out=out)
+    config = _config(config_path, db=db, out=out, outputs=outputs)
     with Store(config.database) as store:
         run = load_run(store, run_id)
     out_dir = default_out_dir(config, date.fromisoformat(run.info.as_of))
-    click.echo(f"report: {write_report(run, out_dir)}")
+    index = write_report(
+        run,
+        out_dir,
+        outputs=config.report.outputs,
+        stale_in_junit=config.report.stale_in_junit,
+        progress=_progress(quiet),
+    )
+    click.echo(f"report: {index}")
 
 
 @cli.command()
@@ -221,7 +253,11 @@ def diff(base, head, config_path, db):
         if base is None:
             base = previous_run(store, head_run.info.id) if head_run.info.id is not None else None
             if base is None:
-                raise InputError(f"{str(store.path)!r}: only one run stored; nothing to compare with")
+                # The first scan of a schedule is not an error: say so and succeed.
+                click.echo(
+                    f"run {head_run.info.id} ({head_run.info.as_of}) is the first finished run; nothing to compare yet"
+                )
+                return
         click.echo(format_diff(diff_runs(load_run(store, base), head_run)))
 
 
@@ -318,11 +354,14 @@ def search(query, config_path, db, k, as_json):
 @click.option(
     "--holdout", is_flag=True, help="Also hide each question's expected documents and measure the gap verdict."
 )
-def calibrate(labels, config_path, db, target_precision, holdout):
+@quiet_option
+def calibrate(labels, config_path, db, target_precision, holdout, quiet):
     """Choose support thresholds from labelled questions; later audits use them."""
     config = _config(config_path, db=db)
     with Store(config.database) as store:
-        outcome = run_calibrate(store, config, Path(labels), target_precision=target_precision, holdout=holdout)
+        outcome = run_calibrate(
+            store, config, Path(labels), target_precision=target_precision, holdout=holdout, progress=_progress(quiet)
+        )
     click.echo(format_calibration(outcome))
 
 

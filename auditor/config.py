@@ -99,6 +99,13 @@ class ReportConfig:
     out: Path | None = None  # default reports/<as-of>/
     title: str = "Knowledge base audit"
     keep_runs: int = 0  # 0 = keep every run
+    # Files written beside the page, results.json and the CSV files (docs/ci.md): "junit" (junit.xml)
+    # and "summary" (summary.md); `--outputs` on the command line replaces this list.
+    outputs: tuple[str, ...] = ()
+    stale_in_junit: str = "fail"  # a stale question's test case: "fail" or "skip"
+
+
+REPORT_OUTPUTS = ("junit", "summary")
 
 
 @dataclass(frozen=True)
@@ -199,7 +206,8 @@ def _build(raw: dict, base: Path, source: Path | None, where: str, warn) -> Conf
     top = reader.table(
         raw,
         "",
-        {f.name for f in dataclasses.fields(Config)} - {"source"},  # every section and top-level key
+        ({f.name for f in dataclasses.fields(Config)} - {"source"})
+        | {"limits"},  # every section and key; [limits] is read into `gate`
     )
     corpus_raw = reader.table(top.get("corpus", {}), "corpus", {f.name for f in dataclasses.fields(CorpusConfig)})
     sitemaps = []
@@ -242,6 +250,10 @@ def _build(raw: dict, base: Path, source: Path | None, where: str, warn) -> Conf
         languages.append((str(glob), language))
 
     questions = tuple(reader.path(p, "questions") for p in reader.array(top.get("questions", []), "questions"))
+    # The release limits: `[limits]`, or `[gate]` as configs written before the rename call it.
+    if "limits" in top and "gate" in top:
+        raise ConfigError(f"{where}: [limits] and [gate] are the same table; keep one")
+    limits_key = "gate" if "gate" in top else "limits"
     config = Config(
         source=source,
         database=reader.path(top.get("database", "auditor.db"), "database"),
@@ -263,8 +275,8 @@ def _build(raw: dict, base: Path, source: Path | None, where: str, warn) -> Conf
         ),
         gate=reader.fill(
             GateConfig,
-            reader.table(top.get("gate", {}), "gate", {f.name for f in dataclasses.fields(GateConfig)}),
-            "gate",
+            reader.table(top.get(limits_key, {}), limits_key, {f.name for f in dataclasses.fields(GateConfig)}),
+            limits_key,
         ),
         report=reader.fill(
             ReportConfig,
@@ -300,7 +312,16 @@ def _build(raw: dict, base: Path, source: Path | None, where: str, warn) -> Conf
         value = getattr(config.gate, limit.name)
         if value is not None and (value < 0 or (limit.name != "max_new_gaps" and value > 1)):
             bound = "a whole number of at least 0" if limit.name == "max_new_gaps" else "a share between 0 and 1"
-            raise ConfigError(f"{where}: gate.{limit.name} must be {bound}, not {value!r}")
+            raise ConfigError(f"{where}: {limits_key}.{limit.name} must be {bound}, not {value!r}")
+    for name in config.report.outputs:
+        if name not in REPORT_OUTPUTS:
+            raise ConfigError(
+                f"{where}: report.outputs: unknown output {name!r}; choose from {', '.join(REPORT_OUTPUTS)}"
+            )
+    if config.report.stale_in_junit not in ("fail", "skip"):
+        raise ConfigError(
+            f"{where}: report.stale_in_junit must be 'fail' or 'skip', not {config.report.stale_in_junit!r}"
+        )
     _check_retrieval(config.retrieval, where)
     if config.retrieval.top_k < 1:
         raise ConfigError(f"{where}: retrieval.top_k must be at least 1")

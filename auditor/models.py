@@ -13,7 +13,7 @@ from datetime import date
 GRANULARITIES = ("day", "week", "month", "quarter", "half", "season", "year", "decade")
 TIMEX_TYPES = ("DATE", "TIME", "DURATION", "SET")  # TIMEX3 types (ISO 24617-1:2012)
 ROLES = ("as_of", "effective", "expires", "planned", "event", "period", "other")
-VERDICTS = ("covered", "stale", "gap")
+VERDICTS = ("supported", "stale", "gap")
 STALE_REASONS = ("too_old", "expired", "overtaken")
 
 
@@ -132,3 +132,5 @@ class Question:
     topic: str | None = None
     weight: float = 1.0
     horizon_days: int | None = None  # per-question override of the freshness horizon
+    # The question file's other columns, (name, value) in file order: kept and carried to the report.
+    extra: tuple[tuple[str, str], ...] = ()

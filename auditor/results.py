@@ -1,7 +1,7 @@
 """The run model: every part of an audit run as a dataclass, and results.json read and written from them.
 
 A run is what `judgement.audit.run_audit` produces and `history.runs.load_run` rebuilds from the store;
-the report, the exports, the gate, the content briefs and the run history read these types, never
+the report, the exports, the release limits, the passages to write and the run history read these types, never
 dict keys. docs/results-json.md describes every key, its type and its meaning.
 
 JSON, both ways, lives beside the types:
@@ -14,7 +14,11 @@ JSON, both ways, lives beside the types:
   TypeError or KeyError, which the store turns into an error naming the run.
 
 `FORMAT` is the format written; `Run.from_json` dispatches on the file's own `format`, so that a new
-format can be read beside the old ones.
+format can be read beside the old ones. Format 2 keeps each passage once (`Run.passages`, an evidence
+item names it by id, `Evidence.source` holds it in memory); format-1 runs, with the passage inline in
+every evidence item and the names of before (`covered`, `briefs`, `gate`, `passed`), still load:
+`_LEGACY_KEYS` and `LEGACY_VERDICTS` rename them on reading (docs/results-json.md, "What changed
+from format 1").
 
 Dates are kept as the ISO 8601 text the format holds (`as_of`, `expires`, ...), not as `date`, so that
 a run reads back exactly as it was written.
@@ -32,7 +36,14 @@ from typing import Any
 
 from auditor.models import VERDICTS, TemporalExpression
 
-FORMAT = 1  # the results.json format written by this version (docs/results-json.md)
+FORMAT = 2  # the results.json format written by this version (docs/results-json.md)
+
+# Format-1 names read as their format-2 names, wherever they occur (keys, then verdict values).
+_LEGACY_KEYS = {"covered": "supported", "briefs": "to_write", "gate": "limits", "passed": "within"}
+LEGACY_VERDICTS = {"covered": "supported"}
+
+# Where a question's freshness horizon came from (Horizon.source).
+HORIZON_SOURCES = ("default", "path_rule", "topic_rule", "question", "unrecorded")
 
 # The lists of a diff, in the order a reader wants them: what got worse first.
 DIFF_CATEGORIES = ("new_gaps", "newly_stale", "resolved_gaps", "refreshed", "added", "removed")
@@ -59,18 +70,32 @@ class Record:
     """Base of the run model's dataclasses: `to_json` writes every field, in field order."""
 
     def to_json(self) -> JSON:
-        return {json_key(f): _plain(getattr(self, f.name)) for f in dataclasses.fields(self)}  # type: ignore[arg-type]
+        return {
+            key: _plain(getattr(self, f.name))
+            for f in dataclasses.fields(self)  # type: ignore[arg-type]
+            if (key := json_key(f)) is not None  # metadata json None: in memory only
+        }
 
 
 def _plain_fields(cls: type, data: Mapping[str, Any], *nested: str) -> JSON:
     """The keys of `data` that are plain fields of `cls` (less the `nested` ones, which the caller
-    reads itself), lists and maps copied; keys the class does not know are left out."""
-    names = {f.name for f in dataclasses.fields(cls)} - set(nested)
-    return {
-        k: (list(v) if isinstance(v, list) else dict(v) if isinstance(v, dict) else v)
-        for k, v in data.items()
-        if k in names
-    }
+    reads itself), as keyword arguments by field name; lists and maps copied; keys the class does
+    not know are left out. A format-1 key (`_LEGACY_KEYS`) stands for its format-2 key when that
+    one is absent."""
+    by_key = {json_key(f): f.name for f in dataclasses.fields(cls) if f.name not in nested}
+    values: JSON = {}
+    for key, value in data.items():
+        if key not in by_key and _LEGACY_KEYS.get(key) in by_key and _LEGACY_KEYS[key] not in data:
+            key = _LEGACY_KEYS[key]
+        if key in by_key:
+            values[by_key[key]] = (
+                list(value) if isinstance(value, list) else dict(value) if isinstance(value, dict) else value
+            )
+    return values
+
+
+def _verdict(value: Any) -> Any:
+    return LEGACY_VERDICTS.get(value, value)
 
 
 def _each(reader: Callable[[Mapping[str, Any]], Any], items: Iterable[Mapping[str, Any]] | None) -> list:
@@ -102,36 +127,120 @@ class Statement(Record):
 
 
 @dataclass(kw_only=True)
-class Evidence(Record):
-    """One retrieved passage of a question, with its support and freshness."""
+class Horizon(Record):
+    """The freshness horizon a passage was judged with, and where it came from (HORIZON_SOURCES):
+    the configured default, a path rule or a topic rule of `[[freshness.rules]]` (`rule` is its
+    path glob or topic), or the question's own `horizon_days` column."""
 
-    rank: int
+    days: int
+    source: str
+    rule: str | None = None
+
+    @classmethod
+    def from_json(cls, data: Mapping[str, Any] | None) -> Horizon | None:
+        return cls(**_plain_fields(cls, data)) if data else None
+
+    def describe(self) -> str:
+        """ "the 180-day horizon (the path rule `billing/rates-*`)" and the like."""
+        where = {
+            "default": "the default horizon",
+            "path_rule": f"the path rule `{self.rule}`",
+            "topic_rule": f"the topic rule `{self.rule}`",
+            "question": "the question's own horizon_days",
+        }.get(self.source)
+        return f"the {self.days}-day horizon" + (f" ({where})" if where else "")
+
+
+@dataclass(kw_only=True)
+class SourcePassage(Record):
+    """A passage some evidence refers to, stored once per run (results.json `passages`)."""
+
+    id: int
     document: str
     page: int | None
     section: str
-    passage: int | None
     owner: str | None = None
+    as_of: str | None
+    as_of_source: str | None
+    expires: str | None
+    statements: list[Statement] = field(default_factory=list)
+    text: str
+
+    @classmethod
+    def from_json(cls, data: Mapping[str, Any], *, id: int | None = None) -> SourcePassage:
+        """`id` replaces the item's own (format-1 evidence items, which may have none)."""
+        values = _plain_fields(cls, data, "statements")
+        if id is not None:
+            values["id"] = id
+        return cls(**values, statements=_each(Statement.from_json, data.get("statements")))
+
+
+@dataclass(kw_only=True)
+class Evidence(Record):
+    """One retrieved passage of a question, with its support and freshness.
+
+    `passage` is the id of its `SourcePassage` (`source`, not written: results.json names it by
+    id); its passage's attributes (`document`, `section`, `as_of`, `text`, ...) read through it.
+    """
+
+    rank: int
+    passage: int
     score: float
     support: float
     signals: dict[str, float] = field(default_factory=dict)
     answer_type: str | None = None
     answer_type_found: bool | None = None
     supporting: bool
-    as_of: str | None
-    as_of_source: str | None
-    expires: str | None
+    horizon: Horizon | None = None
     fresh: bool
     reasons: list[str]
     terms: dict[str, float] = field(default_factory=dict)
-    statements: list[Statement] = field(default_factory=list)
-    text: str
+    source: SourcePassage = field(metadata={"json": None})
 
     @classmethod
-    def from_json(cls, data: Mapping[str, Any], *, rank: int = 1) -> Evidence:
-        """`rank` is the item's place in its list, for runs stored before items carried it."""
-        values = _plain_fields(cls, data, "statements")
+    def from_json(cls, data: Mapping[str, Any], passages: Passages, *, rank: int = 1) -> Evidence:
+        """An item of format 2 (its passage in `passages`) or of format 1 (the passage inline, added
+        to `passages`). `rank` is the item's place in its list, for runs stored before items carried it."""
+        values = _plain_fields(cls, data, "horizon", "source")
         values.setdefault("rank", rank)
-        return cls(**values, statements=_each(Statement.from_json, data.get("statements")))
+        if "document" in data:  # format 1: the passage is in the item
+            source = passages.add_inline(data)
+        else:
+            source = passages[int(data["passage"])]
+        values["passage"] = source.id
+        return cls(**values, horizon=Horizon.from_json(data.get("horizon")), source=source)
+
+    document = property(lambda self: self.source.document)
+    page = property(lambda self: self.source.page)
+    section = property(lambda self: self.source.section)
+    owner = property(lambda self: self.source.owner)
+    as_of = property(lambda self: self.source.as_of)
+    as_of_source = property(lambda self: self.source.as_of_source)
+    expires = property(lambda self: self.source.expires)
+    statements = property(lambda self: self.source.statements)
+    text = property(lambda self: self.source.text)
+
+
+class Passages(dict):
+    """The passages of one run being read, by id. Format-1 evidence without a store id gets the next
+    negative id, so that every passage of a run has one (docs/results-json.md)."""
+
+    @classmethod
+    def of(cls, items: Iterable[Mapping[str, Any]] | None) -> Passages:
+        out = cls()
+        for item in items or ():
+            passage = SourcePassage.from_json(item)
+            out[passage.id] = passage
+        return out
+
+    def add_inline(self, data: Mapping[str, Any]) -> SourcePassage:
+        pid = data.get("passage")
+        if pid is None:
+            pid = min([0, *self]) - 1
+        pid = int(pid)
+        if pid not in self:
+            self[pid] = SourcePassage.from_json(data, id=pid)
+        return self[pid]
 
 
 @dataclass(kw_only=True)
@@ -143,12 +252,14 @@ class QuestionResult(Record):
     owner: str | None
     topic: str | None
     weight: float
+    extra: dict[str, str] = field(default_factory=dict)
     verdict: str
     reasons: list[str]
     flags: list[str] = field(default_factory=list)
     action: str | None = None
     support: float
-    horizon_days: int | None = None
+    horizon: Horizon | None = None
+    explanation: str = ""
     missing_terms: list[str]
     terms: list[str] = field(default_factory=list)
     language: str | None = None  # the question's language as the tokenizer read it (docs/languages.md)
@@ -160,9 +271,16 @@ class QuestionResult(Record):
     conflict: dict | None = None
 
     @classmethod
-    def from_json(cls, data: Mapping[str, Any]) -> QuestionResult:
-        evidence = [Evidence.from_json(e, rank=i) for i, e in enumerate(data["evidence"] or (), start=1)]
-        return cls(**_plain_fields(cls, data, "evidence"), evidence=evidence)
+    def from_json(cls, data: Mapping[str, Any], passages: Passages | None = None) -> QuestionResult:
+        """`passages`: the run's, by id (format 2); format-1 items bring their own and add them."""
+        passages = Passages() if passages is None else passages
+        evidence = [Evidence.from_json(e, passages, rank=i) for i, e in enumerate(data["evidence"] or (), start=1)]
+        values = _plain_fields(cls, data, "evidence", "horizon")
+        values["verdict"] = _verdict(values["verdict"])
+        horizon = Horizon.from_json(data.get("horizon"))
+        if horizon is None and data.get("horizon_days") is not None:  # format 1: the days, not their source
+            horizon = Horizon(days=int(data["horizon_days"]), source="unrecorded")
+        return cls(**values, horizon=horizon, evidence=evidence)
 
 
 # --- the run's figures ----------------------------------------------------------------------------
@@ -173,7 +291,7 @@ class Summary(Record):
     """Counts per verdict and the weighted exposures of a set of questions (docs/judgement.md)."""
 
     questions: int
-    covered: int
+    supported: int
     stale: int
     gap: int
     weight: float
@@ -329,7 +447,7 @@ class DocumentEntry(Record):
 
 @dataclass(kw_only=True)
 class Brief(Record):
-    """A content brief: gap questions grouped into one passage to write (judgement/briefs.py)."""
+    """A passage to write: gap questions grouped by what they ask (judgement/briefs.py)."""
 
     title: str
     terms: list[str]
@@ -374,7 +492,8 @@ class DiffItem(Record):
 
     @classmethod
     def from_json(cls, data: Mapping[str, Any]) -> DiffItem:
-        return cls(**_plain_fields(cls, data))
+        values = _plain_fields(cls, data)
+        return cls(**{**values, "before": _verdict(values["before"]), "after": _verdict(values["after"])})
 
 
 @dataclass(kw_only=True)
@@ -426,13 +545,13 @@ class Diff(Record):
 
 @dataclass(kw_only=True)
 class GateCheck(Record):
-    """One limit of the release gate: the figure it bounds, its value and whether it passed."""
+    """One release limit (history/gate.py): the figure it bounds, its value and whether it is within."""
 
     limit: str
     figure: str = ""
     max: float
     value: float
-    passed: bool
+    passed: bool = field(metadata={"json": "within"})
 
     @classmethod
     def from_json(cls, data: Mapping[str, Any]) -> GateCheck:
@@ -441,9 +560,10 @@ class GateCheck(Record):
 
 @dataclass(kw_only=True)
 class GateResult(Record):
-    """The release gate's outcome (history/gate.py): passed, each check, and one line for the operator."""
+    """The run held against its release limits (history/gate.py): within all of them or not, each
+    limit, and one line for the operator. results.json `limits`."""
 
-    passed: bool
+    passed: bool = field(metadata={"json": "within"})
     checks: list[GateCheck]
     message: str
 
@@ -459,21 +579,31 @@ class GateResult(Record):
 
 @dataclass(kw_only=True)
 class Run(Record):
-    """One audit run: what results.json holds (docs/results-json.md); `info` is its `run` key."""
+    """One audit run: what results.json holds (docs/results-json.md); `info` is its `run` key.
+
+    `passages` are those the evidence refers to, each once, by id; `to_json` collects them from
+    the evidence, so a run built or changed in memory always writes the passages it uses.
+    """
 
     info: RunInfo = field(metadata={"json": "run"})
     summary: Summary
     languages: list[LanguageSummary] = field(default_factory=list)
     questions: list[QuestionResult]
+    passages: list[SourcePassage] = field(default_factory=list)
     ingest_errors: list[IngestError]
     documents: list[DocumentEntry] = field(default_factory=list)
-    briefs: list[Brief] = field(default_factory=list)
+    briefs: list[Brief] = field(default_factory=list, metadata={"json": "to_write"})
     history: list[HistoryEntry] = field(default_factory=list)
     diff: Diff | None = None
-    gate: GateResult | None = None
+    gate: GateResult | None = field(default=None, metadata={"json": "limits"})
+
+    def __post_init__(self) -> None:
+        if not self.passages:
+            self.passages = used_passages(self.questions)
 
     def to_json(self) -> JSON:
         """results.json: `format` first, then every part in the order of docs/results-json.md."""
+        self.passages = used_passages(self.questions)
         return {"format": FORMAT, **super().to_json()}
 
     @classmethod
@@ -487,19 +617,41 @@ class Run(Record):
         return reader(data)
 
 
-def _read_format1(data: Mapping[str, Any]) -> Run:
+def used_passages(questions: Iterable[QuestionResult]) -> list[SourcePassage]:
+    """Every passage the questions' evidence refers to, once, by id."""
+    found: dict[int, SourcePassage] = {}
+    for q in questions:
+        for e in q.evidence:
+            found.setdefault(e.passage, e.source)
+    return [found[k] for k in sorted(found)]
+
+
+def _read(data: Mapping[str, Any], passages: Passages) -> Run:
+    """Formats 1 and 2 alike: format-1 names are read as their format-2 names (_LEGACY_KEYS)."""
+
+    def key(name: str, old: str) -> Any:
+        return data.get(name, data.get(old))
+
     return Run(
         info=RunInfo.from_json(data["run"]),
         summary=Summary.from_json(data["summary"]),
         languages=_each(LanguageSummary.from_json, data.get("languages")),
-        questions=_each(QuestionResult.from_json, data["questions"]),
+        questions=[QuestionResult.from_json(q, passages) for q in data["questions"]],
         ingest_errors=_each(IngestError.from_json, data["ingest_errors"]),
         documents=_each(DocumentEntry.from_json, data.get("documents")),
-        briefs=_each(Brief.from_json, data.get("briefs")),
+        briefs=_each(Brief.from_json, key("to_write", "briefs")),
         history=_each(HistoryEntry.from_json, data.get("history")),
         diff=Diff.from_json(data.get("diff")),
-        gate=GateResult.from_json(data.get("gate")),
+        gate=GateResult.from_json(key("limits", "gate")),
     )
 
 
-_READERS: dict[int, Callable[[Mapping[str, Any]], Run]] = {1: _read_format1}
+def _read_format1(data: Mapping[str, Any]) -> Run:
+    return _read(data, Passages())
+
+
+def _read_format2(data: Mapping[str, Any]) -> Run:
+    return _read(data, Passages.of(data["passages"]))
+
+
+_READERS: dict[int, Callable[[Mapping[str, Any]], Run]] = {1: _read_format1, 2: _read_format2}

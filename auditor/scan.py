@@ -6,7 +6,7 @@ The CLI commands are thin wrappers over these; each stage function can also be c
 from __future__ import annotations
 
 import contextlib
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from datetime import date
 from pathlib import Path
 
@@ -46,6 +46,7 @@ class QuestionSet:
     path: Path
     questions: list[Question]
     log_summary: QueryLogSummary | None  # when the file was a query log
+    notes: list[str] = field(default_factory=list)  # e.g. the columns kept beyond the known ones
 
 
 def load_question_files(config: Config, paths: list[Path] | None = None) -> list[QuestionSet]:
@@ -57,7 +58,8 @@ def load_question_files(config: Config, paths: list[Path] | None = None) -> list
     sets: list[QuestionSet] = []
     seen: dict[str, Path] = {}
     for path in files:
-        questions, log_summary = read_question_file(path, config.redaction)
+        notes: list[str] = []
+        questions, log_summary = read_question_file(path, config.redaction, warn=notes.append)
         for question in questions:
             if question.id in seen:
                 raise InputError(
@@ -65,7 +67,7 @@ def load_question_files(config: Config, paths: list[Path] | None = None) -> list
                     f"{str(seen[question.id])!r}; give the files an `id` column with distinct ids"
                 )
             seen[question.id] = path
-        sets.append(QuestionSet(Path(path), questions, log_summary))
+        sets.append(QuestionSet(Path(path), questions, log_summary, notes))
     return sets
 
 
@@ -89,10 +91,13 @@ def audit_and_report(
     out_dir: Path | None = None,
     gate: bool = True,
     backend: Backend | None = None,
+    progress: bool = False,
 ) -> tuple[Run, Path]:
     """Audit, attach the diff against the previous run and the gate outcome, write the report."""
     questions = store_question_sets(store, sets)
-    run = run_audit(store, config, questions, as_of=as_of, horizon_days=horizon_days, backend=backend)
+    run = run_audit(
+        store, config, questions, as_of=as_of, horizon_days=horizon_days, backend=backend, progress=progress
+    )
     run_id = run.info.id
     assert run_id is not None  # run_audit stored it
     base_id = previous_run(store, run_id)
@@ -101,7 +106,9 @@ def audit_and_report(
     if run.gate is not None:
         record_gate(store, run_id, run.gate)
     out_dir = out_dir or default_out_dir(config, as_of)
-    write_report(run, out_dir)
+    write_report(
+        run, out_dir, outputs=config.report.outputs, stale_in_junit=config.report.stale_in_junit, progress=progress
+    )
     update_latest(out_dir)
     if config.report.keep_runs:
         apply_retention(store, config.report.keep_runs)
@@ -126,15 +133,22 @@ def scan(
         with Store(config.database) as store, cluster as backend:
             runner = backend.runner if backend is not None else None
             summary = ingest_corpus(store, config, jobs=jobs, progress=progress, runner=runner)
-            run, out_dir = audit_and_report(store, config, sets, as_of=as_of, out_dir=out_dir, backend=backend)
+            run, out_dir = audit_and_report(
+                store, config, sets, as_of=as_of, out_dir=out_dir, backend=backend, progress=progress
+            )
     return ScanOutcome(
         run=run, out_dir=out_dir, ingest_line=summary.line(), gate=run.gate, question_lines=question_lines(sets)
     )
 
 
 def question_lines(sets: list[QuestionSet]) -> list[str]:
-    """What a query-log import merged and redacted, one line per log."""
-    return [f"{qset.path.name}: {qset.log_summary.line()}" for qset in sets if qset.log_summary is not None]
+    """What a query-log import merged and redacted, one line per log, and each set's notes."""
+    lines = []
+    for qset in sets:
+        if qset.log_summary is not None:
+            lines.append(f"{qset.path.name}: {qset.log_summary.line()}")
+        lines.extend(f"warning: {note}" for note in qset.notes)
+    return lines
 
 
 def summary_lines(run: Run) -> list[str]:
@@ -144,7 +158,7 @@ def summary_lines(run: Run) -> list[str]:
     lines = [
         f"audit {info.as_of} (run {info.id}, horizon {info.horizon_days} days): "
         f"{corpus.documents} documents, {corpus.passages} passages, {corpus.failed} failed",
-        f"{s.questions} questions: {s.covered} covered, {s.stale} stale, {s.gap} gap",
+        f"{s.questions} questions: {s.supported} supported, {s.stale} stale, {s.gap} gap",
         f"weighted fallback exposure {s.fallback_exposure:.1%}, stale exposure {s.stale_exposure:.1%}",
     ]
     if run.diff:

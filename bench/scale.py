@@ -320,7 +320,7 @@ def main(argv=None) -> int:
         f"corpus: {files:,} files, {passages:,} passages ({summary.line()}; {summary.passages:,} written, "
         f"{summary.bytes_parsed / 1e6:,.0f} MB parsed)"
     )
-    print(f"questions: {s['questions']:,}: {s['covered']:,} covered, {s['stale']:,} stale, {s['gap']:,} gap")
+    print(f"questions: {s['questions']:,}: {s['supported']:,} supported, {s['stale']:,} stale, {s['gap']:,} gap")
     print(
         f"ingest {times['ingest']:.1f} s ({passages / max(times['ingest'], 1e-9):,.0f} passages/s, "
         f"{files / max(times['ingest'], 1e-9):,.0f} files/s, jobs {args.jobs}); index {times['index']:.1f} s; "

@@ -139,7 +139,7 @@ def question(
 def summarize(questions):
     weight = sum(q["weight"] for q in questions)
     out = {"questions": len(questions)}
-    for v in ("covered", "stale", "gap"):
+    for v in ("supported", "stale", "gap"):
         out[v] = sum(1 for q in questions if q["verdict"] == v)
     out["weight"] = weight
     out["fallback_exposure"] = round(sum(q["weight"] for q in questions if q["verdict"] == "gap") / weight, 4)
@@ -188,6 +188,11 @@ HOSTILE_TEXT = (
 
 def sample_json() -> dict:
     """The demo-shaped run with every verdict, reason, flag and hostile string, as results.json holds it."""
+    return format2(sample_json_format1())
+
+
+def sample_json_format1() -> dict:
+    """`sample_json` as results.json format 1 held it: each passage inside every evidence item."""
     st_phone = statement(
         "As of February 2023",
         "2023-02-01",
@@ -461,7 +466,7 @@ def sample_json() -> dict:
             owner="Water Quality",
             topic="advisories",
             weight=60.0,
-            verdict="covered",
+            verdict="supported",
             support=0.88,
             evidence_items=ranked(ev_boil),
         ),
@@ -483,7 +488,7 @@ def sample_json() -> dict:
             owner="Customer Care",
             topic="service",
             weight=95.0,
-            verdict="covered",
+            verdict="supported",
             support=0.79,
             evidence_items=ranked(ev_start, ev_start_file),
         ),
@@ -493,7 +498,7 @@ def sample_json() -> dict:
             owner="Customer Care",
             topic="service",
             weight=20.0,
-            verdict="covered",
+            verdict="supported",
             support=0.41,
             flags=["weak", "file_dated"],
             evidence_items=ranked(ev_start_file),
@@ -504,7 +509,7 @@ def sample_json() -> dict:
             owner="Field Operations",
             topic="emergencies",
             weight=70.0,
-            verdict="covered",
+            verdict="supported",
             support=0.74,
             flags=["stale_competitor"],
             evidence_items=ranked(ev_leak, ev_leak_old),
@@ -527,7 +532,7 @@ def sample_json() -> dict:
             owner=HOSTILE_OWNER,
             topic=f"web {HOSTILE_TEMPLATE}",
             weight=3.0,
-            verdict="covered",
+            verdict="supported",
             support=0.66,
             flags=["no_answer_type"],
             evidence_items=ranked(ev_hostile),
@@ -740,7 +745,7 @@ def sample_json() -> dict:
             "as_of": "2026-09-01",
             "summary": {
                 "questions": 11,
-                "covered": 8,
+                "supported": 8,
                 "stale": 1,
                 "gap": 2,
                 "weight": 560.0,
@@ -753,7 +758,7 @@ def sample_json() -> dict:
             "as_of": "2026-10-01",
             "summary": {
                 "questions": 12,
-                "covered": 7,
+                "supported": 7,
                 "stale": 2,
                 "gap": 3,
                 "weight": 590.0,
@@ -766,7 +771,7 @@ def sample_json() -> dict:
             "as_of": "2026-11-01",
             "summary": {
                 "questions": 12,
-                "covered": 6,
+                "supported": 6,
                 "stale": 3,
                 "gap": 3,
                 "weight": 600.0,
@@ -790,8 +795,8 @@ def sample_json() -> dict:
     by_id = {q["id"]: q for q in qs}
     lists = {
         "new_gaps": [change(by_id["q-012"], "stale", "gap")],
-        "newly_stale": [change(by_id["q-001"], "covered", "stale")],
-        "resolved_gaps": [change(by_id["q-007"], "gap", "covered")],
+        "newly_stale": [change(by_id["q-001"], "supported", "stale")],
+        "resolved_gaps": [change(by_id["q-007"], "gap", "supported")],
         "refreshed": [],
         "added": [change(by_id["q-013"], None, "stale")],
         "removed": [
@@ -800,7 +805,7 @@ def sample_json() -> dict:
                 "question": "Where do I buy a rain barrel?",
                 "owner": "Conservation Programs",
                 "weight": 4.0,
-                "before": "covered",
+                "before": "supported",
                 "after": None,
                 "reasons": [],
             }
@@ -1025,7 +1030,7 @@ def large_json(n: int = 10_000, passages: int = 4_000, seed: int = 7) -> dict:
         if not sup:
             verdict, action = "gap", "write"
         elif any(e["fresh"] for e in sup):
-            verdict, action = "covered", None
+            verdict, action = "supported", None
         else:
             verdict, action = "stale", "refresh"
         qs.append(
@@ -1043,7 +1048,7 @@ def large_json(n: int = 10_000, passages: int = 4_000, seed: int = 7) -> dict:
                 action=action,
             )
         )
-    run = sample_json()
+    run = sample_json_format1()
     run["questions"] = qs
     run["summary"] = summarize(qs)
     run["run"]["corpus"] = {
@@ -1055,7 +1060,54 @@ def large_json(n: int = 10_000, passages: int = 4_000, seed: int = 7) -> dict:
     }
     run["diff"] = None
     run["briefs"] = []
-    return run
+    return format2(run)
+
+
+# Written out by hand from docs/results-json.md, apart from auditor/results.py, so that the
+# tests compare the writer with the documented format rather than with itself.
+PASSAGE_KEYS = ("document", "page", "section", "owner", "as_of", "as_of_source", "expires", "statements", "text")
+EVIDENCE_KEYS = (
+    "rank", "passage", "score", "support", "signals", "answer_type", "answer_type_found", "supporting",
+    "horizon", "fresh", "reasons", "terms",
+)  # fmt: skip
+QUESTION_KEYS = (
+    "id", "question", "owner", "topic", "weight", "extra", "verdict", "reasons", "flags", "action",
+    "support", "horizon", "explanation", "missing_terms", "terms", "evidence",
+    "missing_constraint", "needs_look", "look_reasons", "conflict",
+)  # fmt: skip
+QUESTION_DEFAULTS = {"missing_constraint": None, "needs_look": False, "look_reasons": [], "conflict": None}
+
+
+def format2(data: dict) -> dict:
+    """A format-1 run of these samples as format 2: passages once, by id; the names of format 2."""
+    passages: dict[int, dict] = {}
+    questions = []
+    for q in data["questions"]:
+        default = {"days": q.get("horizon_days") or data["run"]["horizon_days"], "source": "default", "rule": None}
+        items = []
+        for e in q["evidence"]:
+            passages.setdefault(e["passage"], {"id": e["passage"], **{k: e.get(k) for k in PASSAGE_KEYS}})
+            item = {**e, "horizon": default}
+            items.append({k: item.get(k) for k in EVIDENCE_KEYS})
+        new = {**q, "extra": {}, "horizon": default, "explanation": "", "evidence": items}
+        questions.append({k: new.get(k, QUESTION_DEFAULTS.get(k)) for k in QUESTION_KEYS})
+    gate = data["gate"]
+    if gate is not None:
+        checks = [{**{k: v for k, v in c.items() if k != "passed"}, "within": c["passed"]} for c in gate["checks"]]
+        gate = {"within": gate["passed"], "checks": checks, "message": gate["message"]}
+    return {
+        "format": 2,
+        "run": data["run"],
+        "summary": data["summary"],
+        "questions": questions,
+        "passages": [passages[k] for k in sorted(passages)],
+        "ingest_errors": data["ingest_errors"],
+        "documents": data["documents"],
+        "to_write": data["briefs"],
+        "history": data["history"],
+        "diff": data["diff"],
+        "limits": gate,
+    }
 
 
 def sample_run() -> Run:

@@ -12,7 +12,7 @@ from auditor.ingest.pipeline import ingest_corpus
 from auditor.judgement.audit import current_thresholds, run_audit
 from auditor.models import Question
 from auditor.report import write_report
-from auditor.results import IngestError, Run, Thresholds
+from auditor.results import Horizon, IngestError, Run, Thresholds
 from auditor.retrieval.index import PassageIndex
 from auditor.retrieval.tokenize import Tokenizer
 from auditor.retrieval.vocabulary import Vocabulary
@@ -129,7 +129,7 @@ def test_verdicts_summary_and_run_object(kb):
     run = run_audit(kb, Config(), QUESTIONS, as_of=AS_OF)
     by_id = {q.id: q for q in run.questions}
     assert [q.id for q in run.questions] == ["q1", "q2", "q3"]
-    assert by_id["q1"].verdict == "covered" and by_id["q1"].action is None
+    assert by_id["q1"].verdict == "supported" and by_id["q1"].action is None
     assert by_id["q2"].verdict == "stale" and by_id["q2"].reasons == ["too_old"]
     assert by_id["q2"].action == "refresh"
     assert by_id["q3"].verdict == "gap" and by_id["q3"].action == "write"
@@ -137,7 +137,7 @@ def test_verdicts_summary_and_run_object(kb):
     assert {"autopay", "debit"} <= set(by_id["q3"].missing_terms)
     # Weighted exposures (docs/judgement.md): gap weight 25 and stale weight 5 of 40.
     s = run.summary
-    assert (s.questions, s.covered, s.stale, s.gap, s.weight) == (3, 1, 1, 1, 40.0)
+    assert (s.questions, s.supported, s.stale, s.gap, s.weight) == (3, 1, 1, 1, 40.0)
     assert s.fallback_exposure == pytest.approx(25 / 40) and s.stale_exposure == pytest.approx(5 / 40)
     # The best evidence of q1 is the phone passage, with its score breakdown and owner.
     top = by_id["q1"].evidence[0]
@@ -158,7 +158,7 @@ def test_verdicts_summary_and_run_object(kb):
     assert head.horizon_days == 365 and head.as_of == "2026-12-01" and head.id is not None and head.id >= 1
     assert (head.corpus.documents, head.corpus.passages, head.corpus.failed) == (3, 4, 1)
     assert run.ingest_errors == [IngestError(document="quality/scan.pdf", error="encrypted PDF, no password given")]
-    assert run.to_json()["format"] == 1 and run.diff is None and run.gate is None
+    assert run.to_json()["format"] == 2 and run.diff is None and run.gate is None
 
 
 def test_statements_are_written_as_their_temporal_expression(kb):
@@ -223,13 +223,18 @@ def test_horizon_override_rules_and_question_horizons(kb):
     # --horizon 3000 makes the 2021 meter passage fresh again.
     run = run_audit(kb, Config(), QUESTIONS, as_of=AS_OF, horizon_days=3000)
     assert run.info.horizon_days == 3000
-    assert run.questions[1].verdict == "covered" and run.questions[1].horizon_days == 3000
+    assert run.questions[1].verdict == "supported" and run.questions[1].horizon == Horizon(days=3000, source="default")
     # A topic rule, and a per-question override that wins over it.
     config = Config(freshness=FreshnessConfig(365, (HorizonRule(3000, topic="meters"),)))
-    assert run_audit(kb, config, QUESTIONS, as_of=AS_OF).questions[1].verdict == "covered"
+    assert run_audit(kb, config, QUESTIONS, as_of=AS_OF).questions[1].verdict == "supported"
     strict = [QUESTIONS[0], Question("q2", QUESTIONS[1].question, topic="meters", horizon_days=30)]
     q2 = run_audit(kb, config, strict, as_of=AS_OF).questions[1]
-    assert q2.verdict == "stale" and q2.horizon_days == 30
+    assert q2.verdict == "stale" and q2.horizon == Horizon(days=30, source="question")
+    topical = run_audit(kb, config, [QUESTIONS[0], Question("q2", QUESTIONS[1].question, topic="meters")], as_of=AS_OF)
+    assert topical.questions[1].horizon == Horizon(days=3000, source="topic_rule", rule="meters")
+    # The explanation names that horizon and where it came from.
+    assert "within the 3000-day horizon (the topic rule `meters`)" in topical.questions[1].explanation
+    assert "older than the 30-day horizon (the question's own horizon_days)" in q2.explanation
 
 
 def test_thresholds_come_from_calibration_then_config_then_default(kb):
@@ -257,7 +262,7 @@ def test_empty_question_set_and_empty_store(store):
 
 
 def test_run_follows_the_format_and_reloads_equal(kb, tmp_path):
-    # results.json format 1 (docs/results-json.md): every key of every part, in the documented order.
+    # results.json format 2 (docs/results-json.md): every key of every part, in the documented order.
     run = run_audit(kb, Config(), QUESTIONS, as_of=AS_OF)
     write_report(run, tmp_path / "report")
     written = json.loads((tmp_path / "report" / "results.json").read_text(encoding="utf-8"))
@@ -267,12 +272,13 @@ def test_run_follows_the_format_and_reloads_equal(kb, tmp_path):
         "summary",
         "languages",
         "questions",
+        "passages",
         "ingest_errors",
         "documents",
-        "briefs",
+        "to_write",
         "history",
         "diff",
-        "gate",
+        "limits",
     ]
     assert list(written["run"]) == [
         "id",
@@ -295,12 +301,14 @@ def test_run_follows_the_format_and_reloads_equal(kb, tmp_path):
             "owner",
             "topic",
             "weight",
+            "extra",
             "verdict",
             "reasons",
             "flags",
             "action",
             "support",
-            "horizon_days",
+            "horizon",
+            "explanation",
             "missing_terms",
             "terms",
             "language",
@@ -313,26 +321,34 @@ def test_run_follows_the_format_and_reloads_equal(kb, tmp_path):
         for e in q["evidence"]:
             assert list(e) == [
                 "rank",
-                "document",
-                "page",
-                "section",
                 "passage",
-                "owner",
                 "score",
                 "support",
                 "signals",
                 "answer_type",
                 "answer_type_found",
                 "supporting",
-                "as_of",
-                "as_of_source",
-                "expires",
+                "horizon",
                 "fresh",
                 "reasons",
                 "terms",
-                "statements",
-                "text",
             ]
+            assert list(e["horizon"]) == ["days", "source", "rule"]
+    cited = {e["passage"] for q in written["questions"] for e in q["evidence"]}
+    assert [p["id"] for p in written["passages"]] == sorted(cited)  # each passage once, by id
+    for p in written["passages"]:
+        assert list(p) == [
+            "id",
+            "document",
+            "page",
+            "section",
+            "owner",
+            "as_of",
+            "as_of_source",
+            "expires",
+            "statements",
+            "text",
+        ]
     for d in written["documents"]:
         assert list(d) == [
             "path",
@@ -348,8 +364,8 @@ def test_run_follows_the_format_and_reloads_equal(kb, tmp_path):
             "fresh",
             "reasons",
         ]
-    assert [q["verdict"] for q in written["questions"]] == ["covered", "stale", "gap"]
-    # The gap question becomes a content brief (judgement/briefs.py) naming it.
+    assert [q["verdict"] for q in written["questions"]] == ["supported", "stale", "gap"]
+    # The gap question becomes a passage to write (judgement/briefs.py) naming it.
     assert any("q3" in b.questions for b in run.briefs)
     # What runs.load_run rebuilds from the store is the run we returned, and results.json reads back as it.
     loaded = load_run(kb, run.info.id)

@@ -1,4 +1,4 @@
-"""Content briefs from the gap questions of a run (auditor/judgement/briefs.py: gaps grouped by shared
+"""Passages to write from the gap questions of a run (auditor/judgement/briefs.py: gaps grouped by shared
 missing terms and nearest topic, with total weight, example questions and a suggested owner)."""
 
 from __future__ import annotations
@@ -51,7 +51,7 @@ def ev(document, section="", owner="unassigned", rank=1):
 
 # Invented demo questions (fixtures/demo/README.md).
 RUN = [
-    q("q01", "How much is the base charge?", verdict="covered", weight=96, topic="rates", owner="Billing"),
+    q("q01", "How much is the base charge?", verdict="supported", weight=96, topic="rates", owner="Billing"),
     q("q02", "Can I sign up for autopay?", weight=40, missing=["autopay"], topic="payments", owner="Billing"),
     q(
         "q03",
@@ -224,7 +224,7 @@ def test_nearest_topic():
         st.tuples(
             st.sets(st.sampled_from(["autopay", "meter", "leak", "fee", "rebate"]), max_size=3),
             st.sampled_from([None, "rates", "leaks"]),
-            st.sampled_from(["gap", "gap", "covered", "stale"]),
+            st.sampled_from(["gap", "gap", "supported", "stale"]),
         ),
         max_size=25,
     ),

@@ -159,7 +159,7 @@ def test_calibration_is_stored_and_the_next_audit_uses_it(labelled):
     assert after.info.thresholds.support == threshold
     verdicts = {q.id: q.verdict for q in after.questions}
     assert all(verdicts[i] == "gap" for i in ("u1", "u2", "u3", "u4"))
-    assert verdicts["a1"] == verdicts["a2"] == verdicts["a4"] == "covered" and verdicts["a3"] == "stale"
+    assert verdicts["a1"] == verdicts["a2"] == verdicts["a4"] == "supported" and verdicts["a3"] == "stale"
 
 
 def test_holdout_hides_expected_documents(labelled):
@@ -226,7 +226,7 @@ def test_demo_calibration_restores_the_expected_verdicts(demo_store):
     with open(target / "expected.csv", newline="", encoding="utf-8") as f:
         expected = {row["id"]: row["verdict"] for row in csv.DictReader(f)}
     questions = load_questions(target / "questions.csv")
-    # A threshold far too strict for this knowledge base: covered questions turn into gaps.
+    # A threshold far too strict for this knowledge base: supported questions turn into gaps.
     strict = config.replace(support=SupportConfig(threshold=0.8, weak_margin=0.05))
     before = run_audit(store, strict, questions, as_of=AS_OF)
     wrong = [q.id for q in before.questions if (q.verdict == "gap") != (expected[q.id] == "gap")]
@@ -243,7 +243,7 @@ def test_demo_calibration_restores_the_expected_verdicts(demo_store):
     assert after.info.thresholds.source == "calibration"
     assert after.info.thresholds.support == outcome["thresholds"]["support"] < 0.8
     # Calibration tunes the gap verdict: every question is a gap exactly when the demo expects one.
-    # (Covered vs stale is not its business: a lower threshold can let a fresh but loosely related
+    # (Supported vs stale is not its business: a lower threshold can let a fresh but loosely related
     # passage count as support, as q32's boil-water advisory does at 0.32.)
     assert [q.id for q in after.questions if (q.verdict == "gap") != (expected[q.id] == "gap")] == []
 

@@ -99,3 +99,27 @@ def test_invalid_toml_and_missing_file(tmp_path):
         load_config(write(tmp_path, "database = \n"), env={})
     with pytest.raises(ConfigError, match="config file not found"):
         load_config(tmp_path / "nope.toml", env={})
+
+
+def test_release_limits_table_and_its_former_name(tmp_path):
+    new = write(tmp_path, name="new.toml", text="[limits]\nmax_gap_share = 0.25\n")
+    old = write(tmp_path, name="old.toml", text="[gate]\nmax_gap_share = 0.25\n")
+    assert load_config(new, env={}).gate == load_config(old, env={}).gate
+    assert load_config(new, env={}).gate.max_gap_share == 0.25
+    both = write(tmp_path, name="both.toml", text="[gate]\nmax_gap_share = 0.25\n[limits]\nmax_gap_share = 0.5\n")
+    with pytest.raises(ConfigError, match=r"both.toml': \[limits\] and \[gate\] are the same table; keep one"):
+        load_config(both, env={})
+    bad = write(tmp_path, name="bad.toml", text="[limits]\nmax_gap_share = 2\n")
+    with pytest.raises(ConfigError, match="limits.max_gap_share must be a share between 0 and 1"):
+        load_config(bad, env={})
+
+
+def test_report_outputs_are_checked(tmp_path):
+    good = write(tmp_path, name="good.toml", text='[report]\noutputs = ["junit", "summary"]\nstale_in_junit = "skip"\n')
+    assert load_config(good, env={}).report.outputs == ("junit", "summary")
+    bad = write(tmp_path, name="bad.toml", text='[report]\noutputs = ["pdf"]\n')
+    with pytest.raises(ConfigError, match="report.outputs: unknown output 'pdf'; choose from junit, summary"):
+        load_config(bad, env={})
+    stale = write(tmp_path, name="stale.toml", text='[report]\nstale_in_junit = "pass"\n')
+    with pytest.raises(ConfigError, match="report.stale_in_junit must be 'fail' or 'skip'"):
+        load_config(stale, env={})

@@ -111,10 +111,10 @@ def test_audit_flags_conflicting_fees_in_results_and_report(tmp_path):
         config = Config(support=SupportConfig(threshold=0.3))
         run = run_audit(store, config, [Question("q1", "How much is the reconnection fee?")], as_of=date(2026, 12, 1))
     q = run.questions[0]
-    assert q.verdict == "covered" and "conflicting_values" in q.flags
+    assert q.verdict == "supported" and "conflicting_values" in q.flags
     assert q.conflict is not None and q.conflict["type"] == "amount"
     assert sorted(v["value"] for v in q.conflict["values"]) == ["$45", "$60"]
-    sentence = verdict_sentence(q, run.info.thresholds)
+    sentence = verdict_sentence(q, run.info)
     assert "$45" in sentence and "$60" in sentence and "reconcile" in sentence
     index = write_report(run, tmp_path / "report")
     written = json.loads((index.parent / "results.json").read_text(encoding="utf-8"))

@@ -85,7 +85,7 @@ page.
 }
 
 # December: the leak page is replaced by an old text (its question goes stale), and a rain-barrel
-# rebate page is published (its question, a gap in November, is covered).
+# rebate page is published (its question, a gap in November, is supported).
 DECEMBER_EDIT = (
     "field/report-a-leak.md",
     """---

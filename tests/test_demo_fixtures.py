@@ -4,7 +4,7 @@ These checks hold the fixture files to what fixtures/demo/README.md promises: ev
 expected verdict, every verdict and stale reason is exercised, the labelled set points at real
 documents, the PDFs are real PDFs with the Info dates their generator states and regenerate
 byte-identically, front matter parses, and the questions are clear-cut for a lexical judge (a gap
-question uses a term the knowledge base never uses; a covered or stale question shares its terms
+question uses a term the knowledge base never uses; a supported or stale question shares its terms
 with the document that decides it). The audit itself is held to expected.csv by the end-to-end test.
 """
 
@@ -119,9 +119,9 @@ def test_expected_verdicts_cover_every_verdict_and_reason():
         assert set(reasons) <= set(STALE_REASONS), r
         assert bool(reasons) == (r["verdict"] == "stale"), f"{r['id']}: reasons only and always on stale"
         seen_reasons.update(reasons)
-        # the flags the README promises; both are flags of a covered verdict (auditor/judgement/support.py)
+        # the flags the README promises; both are flags of a supported verdict (auditor/judgement/support.py)
         assert set(filter(None, r["flags"].split(";"))) <= {"stale_competitor", "file_dated"}, r
-        assert not r["flags"] or r["verdict"] == "covered", r
+        assert not r["flags"] or r["verdict"] == "supported", r
         assert r["why"].strip(), r
         if r["verdict"] == "gap":
             assert r["document"] == "", r
@@ -129,8 +129,8 @@ def test_expected_verdicts_cover_every_verdict_and_reason():
             assert r["document"] in docs and r["document"] not in (BROKEN, EXCLUDED), r
     assert {r["verdict"] for r in rows} == set(VERDICTS)
     assert seen_reasons == set(STALE_REASONS)
-    # covered questions whose stale competitor is the superseded rate schedule
-    assert sum(1 for r in rows if r["verdict"] == "covered" and "stale competitor" in r["why"]) >= 2
+    # supported questions whose stale competitor is the superseded rate schedule
+    assert sum(1 for r in rows if r["verdict"] == "supported" and "stale competitor" in r["why"]) >= 2
     # the question that shows the file_dated flag rests on the one undated document
     assert any("file_dated" in r["why"] and r["document"] == "customer-care/contact-directory.txt" for r in rows)
 

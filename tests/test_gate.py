@@ -33,19 +33,19 @@ def test_figures_of_a_worked_run():
 
 
 def test_failing_limit_is_named_with_its_figures():
-    # a gap of weight 27 and a covered question of weight 73: fallback exposure 27/100 = 0.27
-    questions = [question("q-001", "gap", weight=27.0), question("q-002", "covered", weight=73.0)]
+    # a gap of weight 27 and a supported question of weight 73: fallback exposure 27/100 = 0.27
+    questions = [question("q-001", "gap", weight=27.0), question("q-002", "supported", weight=73.0)]
     run = make_run("2026-12-01", questions)
     gate = evaluate_gate(run, None, GateConfig(max_fallback_exposure=0.20))
     assert gate.passed is False
-    assert gate.message == "gate failed: fallback_exposure 0.27 > max 0.20"
+    assert gate.message == "release limits breached: fallback exposure 0.27 (ceiling 0.20)"
     assert [c.to_json() for c in gate.checks] == [
         {
             "limit": "max_fallback_exposure",
             "figure": "fallback_exposure",
             "max": 0.20,
             "value": pytest.approx(0.27),
-            "passed": False,
+            "within": False,
         }
     ]
 
@@ -60,7 +60,10 @@ def test_every_failed_limit_is_listed_in_order_and_passing_ones_are_not():
     # gap share 3/8 = 0.375 > 0.25; exposure 0.393 <= 0.5; stale share 1/8 = 0.125 > 0.1;
     # stale exposure 7/267 = 0.026 <= 0.05; new gaps 3 > 2
     assert gate.passed is False
-    assert gate.message == ("gate failed: gap_share 0.38 > max 0.25, stale_share 0.12 > max 0.10, new_gaps 3 > max 2")
+    assert gate.message == (
+        "release limits breached: gap share 0.38 (ceiling 0.25); stale share 0.12 (ceiling 0.10); "
+        "new gaps 3 (ceiling 2); within: fallback exposure 0.39 (ceiling 0.50); stale exposure 0.03 (ceiling 0.05)"
+    )
     assert [(c.limit, c.passed) for c in gate.checks] == [
         ("max_gap_share", False),
         ("max_fallback_exposure", True),
@@ -73,29 +76,32 @@ def test_every_failed_limit_is_listed_in_order_and_passing_ones_are_not():
 def test_a_figure_equal_to_its_limit_passes():
     run = make_run(
         "2026-12-01",
-        [question("q-001", "gap", weight=1.0)] + [question(f"q-00{i}", "covered", weight=1.0) for i in range(2, 6)],
+        [question("q-001", "gap", weight=1.0)] + [question(f"q-00{i}", "supported", weight=1.0) for i in range(2, 6)],
     )
     gate = evaluate_gate(run, None, GateConfig(max_gap_share=0.2, max_fallback_exposure=0.2, max_new_gaps=1))
     # 1 of 5 questions, weight 1 of 5: exactly 0.2; one gap, no previous run: 1 new gap
     assert gate.passed is True
     assert gate.message == (
-        "gate passed: gap_share 0.20 <= max 0.20, fallback_exposure 0.20 <= max 0.20, new_gaps 1 <= max 1"
+        "release limits within: gap share 0.20 (ceiling 0.20); fallback exposure 0.20 (ceiling 0.20); "
+        "new gaps 1 (ceiling 1)"
     )
 
 
 def test_a_narrow_failure_never_reads_as_equal():
     # weight 2004 of 10000 gaps: 0.2004 > 0.20 must not print as "0.20 > max 0.20"
-    run = make_run("2026-12-01", [question("q-001", "gap", weight=2004.0), question("q-002", "covered", weight=7996.0)])
+    run = make_run(
+        "2026-12-01", [question("q-001", "gap", weight=2004.0), question("q-002", "supported", weight=7996.0)]
+    )
     gate = evaluate_gate(run, None, GateConfig(max_fallback_exposure=0.2))
-    assert gate.message == "gate failed: fallback_exposure 0.2004 > max 0.2000"
+    assert gate.message == "release limits breached: fallback exposure 0.2004 (ceiling 0.2000)"
 
 
 def test_no_limits_and_an_empty_question_set():
     run = make_run("2026-12-01", [])
     assert evaluate_gate(run, None, GateConfig()).to_json() == {
-        "passed": True,
+        "within": True,
         "checks": [],
-        "message": "gate passed: no limits set",
+        "message": "release limits: none set",
     }
     gate = evaluate_gate(run, None, GateConfig(max_gap_share=0.0, max_new_gaps=0))
     assert gate.passed is True and [c.value for c in gate.checks] == [0.0, 0]
@@ -107,4 +113,4 @@ def test_limits_read_from_a_config_file(tmp_path):
     config = load_config(path, env={})
     gate = evaluate_gate(make_run("2026-12-01", DECEMBER), None, config.gate)
     # stale exposure 7/267 = 0.026 > 0.01; 3 new gaps <= 5
-    assert gate.message == "gate failed: stale_exposure 0.03 > max 0.01"
+    assert gate.message == "release limits breached: stale exposure 0.03 (ceiling 0.01); within: new gaps 3 (ceiling 5)"

@@ -72,7 +72,8 @@ def test_questions_and_passages_keep_the_payloads(hostile_report):
     results = json.loads((hostile_report / "results.json").read_text(encoding="utf-8"))
     texts = [q["question"] for q in results["questions"]]
     assert SCRIPT in texts[0] and TEMPLATE in texts[2] and LINK in texts[2]
-    evidence = " ".join(e["text"] for q in results["questions"] for e in q["evidence"])
+    passages = {p["id"]: p["text"] for p in results["passages"]}  # format 2: each passage once, by id
+    evidence = " ".join(passages[e["passage"]] for q in results["questions"] for e in q["evidence"])
     assert "window.__pwned = 1" in evidence or "window.__pwned = 5" in evidence
 
 

@@ -211,7 +211,7 @@ def test_low_support_is_a_gap():
 
 def test_a_fresh_supporting_passage_covers_and_flags_competitors():
     v = judge([Judged(0.80, False, ("too_old",)), Judged(0.47, True, (), "file")], threshold=T, weak_margin=M)
-    assert v.verdict == "covered" and v.action is None and v.reasons == []
+    assert v.verdict == "supported" and v.action is None and v.reasons == []
     assert v.flags == ["stale_competitor", "weak", "file_dated"]
     assert v.support == 0.47 and v.supporting == [True, True]
 
@@ -219,14 +219,14 @@ def test_a_fresh_supporting_passage_covers_and_flags_competitors():
 def test_support_resting_on_undated_passages_is_flagged():
     # Undated passages count as fresh for want of evidence (freshness.py); the flag says so.
     v = judge([Judged(0.90, True, (), "none")], threshold=T, weak_margin=M)
-    assert (v.verdict, v.flags) == ("covered", ["undated"])
+    assert (v.verdict, v.flags) == ("supported", ["undated"])
     mixed = judge([Judged(0.90, True, (), "none"), Judged(0.60, True, (), "statement")], threshold=T, weak_margin=M)
     assert mixed.flags == []
 
 
-def test_covered_without_flags():
+def test_supported_without_flags():
     v = judge([Judged(0.90, True, (), "statement"), Judged(0.10, False, ("expired",))], threshold=T, weak_margin=M)
-    assert (v.verdict, v.flags) == ("covered", [])
+    assert (v.verdict, v.flags) == ("supported", [])
 
 
 def test_stale_only_support_is_refreshed_or_retired():
@@ -242,14 +242,14 @@ def test_missing_answer_type_is_flagged_on_the_strongest_passage():
     support = 0.48 * ANSWER_TYPE_PENALTY  # below T only because of the downgrade
     v = judge([Judged(support, True, answer_type_found=False)], threshold=T, weak_margin=M)
     assert v.verdict == "gap" and v.reasons == [] and v.flags == ["no_answer_type"]
-    covered = judge([Judged(0.3, True), Judged(0.6, True, answer_type_found=False)], threshold=T, weak_margin=M)
-    assert covered.verdict == "covered" and covered.flags == ["no_answer_type"]
+    supported = judge([Judged(0.3, True), Judged(0.6, True, answer_type_found=False)], threshold=T, weak_margin=M)
+    assert supported.verdict == "supported" and supported.flags == ["no_answer_type"]
     fine = judge([Judged(0.6, True), Judged(0.3, True, answer_type_found=False)], threshold=T, weak_margin=M)
     assert fine.flags == []
 
 
 def test_threshold_is_inclusive():
-    assert judge([Judged(T, True)], threshold=T, weak_margin=0.0).verdict == "covered"
+    assert judge([Judged(T, True)], threshold=T, weak_margin=0.0).verdict == "supported"
     assert judge([Judged(math.nextafter(T, 0), True)], threshold=T, weak_margin=0.0).verdict == "gap"
 
 
@@ -273,7 +273,7 @@ def test_fact_check_reports_missing_constraint_weak_band_and_conflict():
     checked = fact_check(
         question,
         evidence,
-        verdict="covered",
+        verdict="supported",
         support=0.80,
         threshold=0.45,
         weak_margin=0.05,
@@ -290,7 +290,7 @@ def test_fact_check_reports_missing_constraint_weak_band_and_conflict():
     alone = fact_check(
         question,
         evidence,
-        verdict="covered",
+        verdict="supported",
         support=0.80,
         threshold=0.72,
         weak_margin=0.05,
@@ -300,14 +300,14 @@ def test_fact_check_reports_missing_constraint_weak_band_and_conflict():
     assert alone.conflict is None
 
 
-def test_fact_check_weak_band_only_for_covered_questions():
+def test_fact_check_weak_band_only_for_supported_questions():
     question = "How do I put a package on hold with a graphical tool?"
     idf = {t: 1.0 for t in TOKENIZE(question)} | {"hold": 2.0, "graphic": 3.0}
     evidence = [_evidence(1, "pkg.html", "To hold a package, run apt-mark hold with its name.", 0.47)]
     near = fact_check(
         question,
         evidence,
-        verdict="covered",
+        verdict="supported",
         support=0.47,
         threshold=0.45,
         weak_margin=0.05,

@@ -197,13 +197,15 @@ def test_question_with_count_column_is_a_query_log(tmp_path):
         ("wbool.jsonl", '{"question": "One?", "weight": true}\n', r"line 1: weight True is not a number"),
         ("hz.csv", "question,horizon_days\nOne?,30.5\n", r"line 2: horizon_days '30.5' is not a whole number"),
         ("hz0.jsonl", '{"question": "One?", "horizon_days": 0}\n', r"line 1: horizon_days must be above 0"),
-        ("unknown.csv", "question,wieght\nOne?,3\n", r"line 1: unknown column 'wieght'"),
-        ("unknown_header_only.csv", "question,wieght\n", r"line 1: unknown column 'wieght'"),
-        ("late_header.csv", "\n\nquestion,wieght\nOne?,1\n", r"line 3: unknown column 'wieght'"),
+        # A misspelt known column is refused, naming the column it probably means.
+        ("misspelt.csv", "question,wieght\nOne?,3\n", r"line 1: column 'wieght' looks like a misspelling of 'weight'"),
+        ("misspelt_header_only.csv", "question,wieght\n", r"line 1: column 'wieght' looks like a misspelling"),
+        ("late_header.csv", "\n\nquestion,wieght\nOne?,1\n", r"line 3: column 'wieght' looks like a misspelling"),
+        ("qestion.csv", "id,qestion\n1,One?\n", r"line 1: column 'qestion' looks like a misspelling of 'question'"),
         (
-            "unknown.jsonl",
+            "misspelt.jsonl",
             '{"question": "One?"}\n{"question": "Two?", "ownr": "x"}\n',
-            r"line 2: unknown column 'ownr'",
+            r"line 2: column 'ownr' looks like a misspelling of 'owner'",
         ),
         ("noquestion.csv", "id,owner\n1,Billing\n", r"line 1: the header needs a 'question' column"),
         ("emptyq.csv", "id,question\n1,\n", r"line 2: empty question"),
@@ -260,3 +262,24 @@ def test_store_questions_replaces_the_set_in_one_transaction(tmp_path):
         store_questions(store, [Question("d", None)], "set.csv")  # type: ignore[arg-type]
     assert stored_questions(store, "set.csv") == second
     store.close()
+
+
+def test_extra_columns_are_kept_with_one_warning_line(tmp_path):
+    path = write(
+        tmp_path, "team.csv", "id,question,notes,URL,channel\nq1,One?,ask Dana,https://x.example/a,chat\nq2,Two?,,,\n"
+    )
+    warnings: list[str] = []
+    questions, summary = read_question_file(path, warn=warnings.append)
+    assert summary is None
+    assert questions == [
+        Question("q1", "One?", extra=(("notes", "ask Dana"), ("url", "https://x.example/a"), ("channel", "chat"))),
+        Question("q2", "Two?", extra=(("notes", ""), ("url", ""), ("channel", ""))),
+    ]
+    assert warnings == [
+        f"{str(path)!r}: kept columns 'notes', 'url', 'channel' as they are "
+        "(known columns: id, question, owner, topic, weight, horizon_days)"
+    ]
+    # JSON Lines: other keys too, numbers as JSON text; and a known column that is also spelt right
+    # stays a kept column ("questions" beside "question").
+    lines = write(tmp_path, "team.jsonl", '{"question": "One?", "rank": 3, "questions": "x"}\n')
+    assert load_questions(lines) == [Question("q-001", "One?", extra=(("rank", "3"), ("questions", "x")))]

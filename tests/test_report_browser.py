@@ -14,7 +14,7 @@ from pathlib import Path
 import pytest
 
 from auditor.report import write_report
-from auditor.report.html import SERVER_ROWS, verdict_sentence
+from auditor.report.html import SERVER_ROWS, VERDICT_GLYPHS, verdict_sentence
 from tests import report_samples as samples
 
 CHROMIUM = shutil.which("chromium") or ("/usr/bin/chromium" if Path("/usr/bin/chromium").exists() else None)
@@ -86,11 +86,12 @@ def test_filter_by_verdict_shows_the_right_rows(sample):
     page, results = sample
     p = page.page
     counts = Counter(q["verdict"] for q in results["questions"])
-    for verdict in ("gap", "stale", "covered"):
+    for verdict in ("gap", "stale", "supported"):
         p.select_option("#f-verdict", verdict)
         rows = p.locator(VISIBLE_ROWS)
         assert rows.count() == counts[verdict]
-        assert set(rows.locator(".v").all_text_contents()) == {verdict}
+        # Each badge: its glyph and its word (WCAG 2.1 §1.4.1, colour is not the only cue).
+        assert set(rows.locator(".v").all_text_contents()) == {f"{VERDICT_GLYPHS[verdict]} {verdict}"}
         assert p.inner_text("#shown") == f"{counts[verdict]} of {len(results['questions'])} questions shown"
     p.select_option("#f-verdict", "")
     assert p.locator(VISIBLE_ROWS).count() == len(results["questions"])
@@ -145,7 +146,8 @@ def test_expanding_a_row_shows_its_evidence(sample):
     items = evidence.locator("article.ev")
     assert items.count() == len(q["evidence"])
     first = items.nth(0)
-    assert shown_text(first.locator("blockquote.passage")) == q["evidence"][0]["text"]
+    passages = {x["id"]: x for x in results["passages"]}  # results.json format 2: each passage once
+    assert shown_text(first.locator("blockquote.passage")) == passages[q["evidence"][0]["passage"]]["text"]
     assert first.locator("mark").all_text_contents() == ["pay", "bill", "phone", "phone"]
     assert first.locator("table").nth(0).locator("tbody .chip").all_text_contents() == ["phone", "pay", "bill"]
     assert first.locator("table.st tbody tr").count() == 1
@@ -181,7 +183,8 @@ def test_hostile_strings_show_literally_and_never_run(sample):
     for s in (samples.HOSTILE_CLOSE, samples.HOSTILE_LINK, samples.HOSTILE_TEMPLATE):
         assert s in q12
     passage = shown_text(p.locator("#q10 + tr.ev-row blockquote.passage"))
-    assert passage == " ".join(results["questions"][10]["evidence"][0]["text"].split())
+    passages = {x["id"]: x for x in results["passages"]}
+    assert passage == " ".join(passages[results["questions"][10]["evidence"][0]["passage"]]["text"].split())
     assert samples.HOSTILE_OWNER in shown_text(p.locator("#q10 td:nth-child(2)"))
     assert p.evaluate("typeof window.__pwned") == "undefined"
     assert page.console_errors() == []  # a script blocked by the CSP would have logged an error
@@ -190,7 +193,7 @@ def test_hostile_strings_show_literally_and_never_run(sample):
 def test_a_brief_link_opens_its_question_even_when_filtered_out(sample):
     page, _ = sample
     p = page.page
-    p.select_option("#f-verdict", "covered")  # q-002 (a gap) is not listed
+    p.select_option("#f-verdict", "supported")  # q-002 (a gap) is not listed
     assert p.locator("#q1").count() == 0
     p.click(".brief a[href='#q1']")
     assert p.locator("#q1").count() == 1
@@ -281,8 +284,11 @@ def test_large_run_opens_and_filters(tmp_path_factory, browser):
     p.locator(f"#q{late} + tr.ev-row").wait_for()
     assert p.locator(f"#q{late} + tr.ev-row article.ev").count() == 3
     q = run.questions[late]
-    assert shown_text(p.locator(f"#q{late} .why p").first) == verdict_sentence(q, run.info.thresholds)
-    assert shown_text(p.locator(f"#q{late} td:nth-child(5) .v")) == q.verdict
+    assert shown_text(p.locator(f"#q{late} .why p").first) == verdict_sentence(q, run.info)
+    # A row built by the script has the same badge: glyph, then word.
+    badge = p.locator(f"#q{late} td:nth-child(5) .v")
+    assert shown_text(badge) == f"{VERDICT_GLYPHS[q.verdict]} {q.verdict}"
+    assert badge.locator(".glyph").get_attribute("aria-hidden") == "true"
     assert shown_text(p.locator(f"#q{late} .why .act")).startswith("Write:")
     assert p.locator(f"#q{late} .why .chip.miss").all_text_contents() == q.missing_terms
     ARTIFACTS.mkdir(exist_ok=True)

@@ -35,9 +35,17 @@ def read_csv(path):
         return list(csv.reader(fh))
 
 
-def test_results_json_is_the_run_with_format1_keys_first(out):
-    text = (out / "results.json").read_text(encoding="utf-8")
+def without_explanations(data: dict) -> dict:
+    # The report writes each question's explanation (auditor/judgement/explain.py); the sample has none.
+    return {**data, "questions": [{**q, "explanation": ""} for q in data["questions"]]}
+
+
+def test_results_json_is_the_run_with_format2_keys_first(out):
+    raw = (out / "results.json").read_text(encoding="utf-8")
     data = samples.sample_json()
+    written = json.loads(raw)
+    assert all(q["explanation"] for q in written["questions"])
+    text = json.dumps(without_explanations(written), ensure_ascii=False)
     assert json.loads(text) == data
     # Key order too, at every level: the sample is written in the order of docs/results-json.md.
     assert json.dumps(json.loads(text)) == json.dumps(data)
@@ -48,22 +56,47 @@ def test_results_json_is_the_run_with_format1_keys_first(out):
         "summary",
         "languages",
         "questions",
+        "passages",
         "ingest_errors",
         "documents",
-        "briefs",
+        "to_write",
         "history",
         "diff",
-        "gate",
+        "limits",
     ]
-    # Pretty-printed UTF-8: characters stay as written, not \\u escapes.
-    lines = text.splitlines()
-    assert lines[0] == "{" and lines[1] == '  "format": 1,'
-    assert any("›" in line for line in lines) and "\\u203a" not in text
+    # UTF-8, characters as written, not \\u escapes; a line per question and per passage.
+    lines = raw.splitlines()
+    assert lines[0] == "{" and lines[1] == '  "format": 2,' and lines[-1] == "}" and raw.endswith("}\n")
+    assert any("›" in line for line in lines) and "\\u203a" not in raw
+    starts = [i for i, line in enumerate(lines) if line.startswith('  "')]
+    assert [lines[i].split('"')[1] for i in starts] == keys  # a line per top-level key
+    at = lines.index('  "questions": [')
+    assert [json.loads(line.rstrip(",")) for line in lines[at + 1 : at + 14]] == written["questions"]
     # And it reads back as the same run.
     assert Run.from_json(json.loads(text)) == samples.sample_run()
+    # Each passage once: 11 distinct passages behind the sample's evidence items.
+    assert [p["id"] for p in data["passages"]] == sorted(
+        {e["passage"] for q in data["questions"] for e in q["evidence"]}
+    )
+    assert sum(len(q["evidence"]) for q in data["questions"]) > len(data["passages"]) == 11
 
 
-def test_results_json_key_order_follows_format1_even_when_its_input_does_not():
+def test_a_format1_run_reads_as_format2():
+    # The sample as format 1 held it: passages inline, the names of before ("covered", "briefs", "gate").
+    old = samples.sample_json_format1()
+    old["summary"]["covered"] = old["summary"].pop("supported")
+    for q in old["questions"]:
+        q["verdict"] = {"supported": "covered"}.get(q["verdict"], q["verdict"])
+    assert "passed" in old["gate"] and "text" in old["questions"][0]["evidence"][0]
+    expected = samples.sample_json()
+    for q in expected["questions"]:  # format 1 kept a question's horizon days, not where they came from
+        q["horizon"] = {"days": q["horizon"]["days"], "source": "unrecorded", "rule": None}
+        for e in q["evidence"]:
+            e["horizon"] = None
+    assert Run.from_json(old).to_json() == expected
+
+
+def test_results_json_key_order_follows_format2_even_when_its_input_does_not():
     data = samples.sample_json()
     shuffled = {k: data[k] for k in reversed(list(data))}
     shuffled["run"] = {k: data["run"][k] for k in reversed(list(data["run"]))}
@@ -72,8 +105,8 @@ def test_results_json_key_order_follows_format1_even_when_its_input_does_not():
 
 def test_results_json_of_an_unknown_format_is_refused():
     data = samples.sample_json()
-    data["format"] = 2
-    with pytest.raises(ValueError, match="results format 2 is not one this auditor reads"):
+    data["format"] = 3
+    with pytest.raises(ValueError, match=r"results format 3 is not one this auditor reads \(it reads \[1, 2\]\)"):
         Run.from_json(data)
 
 
@@ -106,6 +139,13 @@ def test_gaps_csv_lists_gap_and_stale_questions_by_weight(out):
         "best_document": "billing/payment-options.md",
         "best_section": "Paying › Options",
         "best_as_of": "2026-03-31",
+        # The sample's questions are judged with the run's default horizon.
+        "horizon_days": "365",
+        "horizon_source": "default",
+        "explanation": (
+            "No passage supports this question (best support 0.22, threshold 0.35); "
+            "the assistant would fall back to an outside source or answer without grounding."
+        ),
     }
     rebate = next(r for r in body if r["id"] == "q-003")
     assert rebate["reasons"] == "too_old;expired" and rebate["action"] == "retire"
@@ -183,7 +223,12 @@ def test_owner_slugs_never_collide():
 
 def test_question_owner_rule():
     q = samples.bare_run().questions[0]
-    a, b = (dataclasses.replace(q.evidence[0], owner=name, supporting=False) for name in ("A", "B"))
+    a, b = (
+        dataclasses.replace(
+            q.evidence[0], source=dataclasses.replace(q.evidence[0].source, owner=name), supporting=False
+        )
+        for name in ("A", "B")
+    )
     b.supporting = True
     q.owner, q.evidence = None, [a, b]
     assert question_owner(q) == "B"  # the best *supporting* evidence
@@ -202,10 +247,9 @@ def test_owner_files_of_a_former_owner_are_removed(tmp_path):
         if q.owner == "Customer Care":
             q.owner = "Billing"
     run.documents = [d for d in run.documents if d.owner != "Customer Care"]
-    for q in run.questions:
-        for e in q.evidence:
-            if e.owner == "Customer Care":
-                e.owner = "Billing"
+    for p in run.passages:
+        if p.owner == "Customer Care":
+            p.owner = "Billing"
     write_report(run, tmp_path)
     names = sorted(p.name for p in (tmp_path / "owners").iterdir())
     assert "customer-care.csv" not in names and "customer-care.html" not in names

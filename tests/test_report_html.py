@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import base64
+import colorsys
 import hashlib
 import json
 import os
@@ -13,6 +14,7 @@ from bs4 import BeautifulSoup
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
+from auditor import models
 from auditor.report import html as report_html
 from auditor.report import write_report
 from auditor.report.charts import age_histogram, trend, verdicts_by_owner
@@ -61,7 +63,7 @@ def test_write_report_returns_index_and_writes_every_file(report):
 def test_headline_figures_equal_results_json(report):
     _, soup, results = report
     summary, corpus = results["summary"], results["run"]["corpus"]
-    for key in ("questions", "covered", "stale", "gap"):
+    for key in ("questions", "supported", "stale", "gap"):
         assert int(figure(soup, key)) == summary[key]
     for key in ("fallback_exposure", "stale_exposure"):
         assert float(figure(soup, key)) == pytest.approx(summary[key])
@@ -95,7 +97,11 @@ def test_question_table_has_one_row_per_question_in_order(report):
     assert [r.select_one(".qid").get_text() for r in rows] == [q["id"] for q in results["questions"]]
     for row, q in zip(rows, results["questions"]):
         cells = row.find_all("td", recursive=False)
-        assert cells[4].select_one(".v").get_text() == q["verdict"]
+        badge = cells[4].select_one(".v")
+        # WCAG 2.1 §1.4.1: colour is not the only cue. The badge shows its glyph and its word.
+        glyph = badge.select_one(".glyph")
+        assert glyph["aria-hidden"] == "true" and glyph.get_text() == report_html.VERDICT_GLYPHS[q["verdict"]]
+        assert badge.get_text() == f"{glyph.get_text()} {q['verdict']}"
         assert cells[3].get_text() == report_html._num(q["weight"])
         assert (cells[6].get_text() or None) == q["action"]
     # Owner rule: own owner, else best evidence's owner, else "unassigned".
@@ -233,7 +239,7 @@ def test_trend_absent_without_history(tmp_path):
     run.history = []
     soup = BeautifulSoup(write_report(run, tmp_path).read_text(encoding="utf-8"), "lxml")
     assert len(soup.select("svg.chart")) == 2
-    assert trend([{"label": "a", "covered_share": 0.5, "stale_exposure": 0.1, "fallback_exposure": 0.2}])
+    assert trend([{"label": "a", "supported_share": 0.5, "stale_exposure": 0.1, "fallback_exposure": 0.2}])
 
 
 def test_verdicts_by_owner_merges_the_long_tail():
@@ -245,14 +251,15 @@ def test_verdicts_by_owner_merges_the_long_tail():
 
 def test_diff_and_gate_are_shown(report):
     _, soup, results = report
-    gate = soup.select_one("section.gate")
-    assert gate.select_one('[data-field="gate"]').get_text() == "failed"
-    assert gate.select_one(".gate-message").get_text() == results["gate"]["message"]
-    rows = gate.select("tbody tr")
-    assert [r.find_all("td")[-1].get_text() for r in rows] == ["failed", "passed", "failed"]
-    assert [("failed" in (r.get("class") or [])) for r in rows] == [
-        False if c["passed"] else True for c in results["gate"]["checks"]
-    ]
+    # One line of figures against their ceilings, breached ones first and marked in words.
+    line = soup.select_one("#limits")
+    assert line.select_one('[data-field="within"]').get_text() == "breached"
+    shown = [(x["data-figure"], x.get_text(), "over" in x["class"]) for x in line.select(".lim")]
+    checks = sorted(results["limits"]["checks"], key=lambda c: c["within"])
+    assert [(f, over) for f, _, over in shown] == [(c["figure"], not c["within"]) for c in checks]
+    assert all(text.startswith("over: ") == over for _, text, over in shown)
+    assert shown[0][1] == "over: fallback exposure 0.28 (ceiling 0.25)"
+    assert soup.select_one("section.gate") is None and soup.select_one(".gate-table") is None
     diff = results["diff"]
     groups = [g["data-diff"] for g in soup.select("[data-diff]")]
     assert groups == ["new_gaps", "newly_stale", "resolved_gaps", "refreshed", "added", "removed"]
@@ -261,7 +268,7 @@ def test_diff_and_gate_are_shown(report):
         assert int(group.select_one(".count").get_text()) == len(diff[key]) == diff["counts"][key]
         assert [li.select_one(".qid").get_text() for li in group.select("li")] == [i["id"] for i in diff[key]]
     stale = soup.select_one('[data-diff="newly_stale"] li')
-    assert stale.select_one(".change").get_text() == "covered → stale"
+    assert stale.select_one(".change").get_text() == "supported → stale"
     assert soup.select_one("section[aria-labelledby=diff-h] .lead").get_text() == diff["summary"]
 
 
@@ -312,7 +319,7 @@ def test_owner_page_holds_only_that_owner(report):
     soup = BeautifulSoup((out / "owners" / "field-operations.html").read_text(encoding="utf-8"), "lxml")
     ids = [q.get_text() for q in soup.select("#questions > tbody .qid")]
     assert ids == ["q-004", "q-009"]  # q-004 through its evidence's owner
-    assert int(figure(soup, "questions")) == 2 and int(figure(soup, "covered")) == 1
+    assert int(figure(soup, "questions")) == 2 and int(figure(soup, "supported")) == 1
     assert float(figure(soup, "stale_exposure")) == pytest.approx(12 / 82)
     docs = [tr.td.get_text() for tr in soup.select("#inv-oldest tbody tr")]
     assert sorted(docs) == ["field/alder-street-main.txt", "field/leaks-2021.md", "field/leaks.md"]
@@ -321,7 +328,7 @@ def test_owner_page_holds_only_that_owner(report):
     index = BeautifulSoup((out / "index.html").read_text(encoding="utf-8"), "lxml")
     row = next(tr for tr in index.select("#owners tbody tr") if tr.td.get_text() == "Field Operations")
     cells = [td.get_text() for td in row.find_all("td")]
-    assert cells[1:6] == ["2", "1", "1", "0", "12"]  # questions, covered, stale, gap, weight at risk
+    assert cells[1:6] == ["2", "1", "1", "0", "12"]  # questions, supported, stale, gap, weight at risk
     assert [a["href"] for a in row.select("a")] == ["owners/field-operations.html", "owners/field-operations.csv"]
 
 
@@ -330,7 +337,8 @@ def test_page_evidence_is_short_and_highlighted(report):
     data = page_data(soup)
     q1 = data["q"][0]
     assert q1["k"] == ["bill", "pay", "payment", "phone"]  # terms scored in its evidence
-    key, rank, score, support, ok, fresh, reasons, contrib, coded, signals, found = q1["e"][0]
+    key, rank, score, support, ok, fresh, reasons, contrib, coded, signals, found, horizon = q1["e"][0]
+    assert data["H"][horizon] == "the 365-day horizon (the default horizon)"
     assert (key, rank, score, support, ok, fresh) == ("213", 1, 11.92, 0.71, 1, 0)
     assert [data["R"][r] for r in reasons] == ["too_old"]
     assert contrib == [2.7, 3.1, 0.0, 6.12]
@@ -374,7 +382,8 @@ def test_large_run_stays_under_the_page_limit(tmp_path):
     assert all(len(p["txt"]) <= report_html.PASSAGE_CHARS + 2 for p in data["p"].values())
     # results.json keeps every evidence item with its full text.
     results = json.loads((tmp_path / "results.json").read_text(encoding="utf-8"))
-    assert results["questions"][0]["evidence"][0]["text"] == run.questions[0].evidence[0].text
+    passages = {p["id"]: p for p in results["passages"]}
+    assert passages[results["questions"][0]["evidence"][0]["passage"]]["text"] == run.questions[0].evidence[0].text
 
 
 def test_a_bare_format1_run_renders(tmp_path):
@@ -420,7 +429,7 @@ def test_text_colours_meet_wcag_aa_contrast():
     var = dict(re.findall(r"--([\w-]+):\s*(#[0-9a-fA-F]{6})", root))
     white = "#ffffff"
     pairs = [  # (text, background) as the stylesheet uses them
-        (white, var["covered"]),
+        (white, var["supported"]),
         (white, var["stale"]),
         (white, var["gap"]),
         (white, var["ink-2"]),
@@ -429,7 +438,7 @@ def test_text_colours_meet_wcag_aa_contrast():
         (var["muted"], white),
         (var["gap"], var["gap-bg"]),
         (var["stale"], var["stale-bg"]),
-        (var["covered"], var["covered-bg"]),
+        (var["supported"], var["supported-bg"]),
         (var["accent"], white),
         (var["ink"], var["mark"]),
         ("#9fd6d2", var["ink"]),
@@ -452,7 +461,7 @@ def test_any_text_shows_literally(tmp_path, question, owner, passage):
     run = samples.bare_run()
     run.questions[0].question = question
     run.questions[0].owner = owner
-    run.questions[0].evidence[0].text = passage
+    run.questions[0].evidence[0].source.text = passage
     index = write_report(run, tmp_path)
     # Python's own parser keeps control characters as the WHATWG tokenizer does; libxml2 drops some.
     soup = BeautifulSoup(index.read_text(encoding="utf-8"), "html.parser")
@@ -462,3 +471,19 @@ def test_any_text_shows_literally(tmp_path, question, owner, passage):
     assert [s.get("type") for s in soup.find_all("script")] == ["application/json", None]
     data = page_data(soup)
     assert data["p"]["1"]["txt"] == " ".join(passage.split())
+
+
+def test_palette_is_no_traffic_light_and_draws_no_edge_stripes():
+    css = report_html._static()[0]
+    root = css[css.index(":root {") : css.index("}", css.index(":root {"))]
+    var = dict(re.findall(r"--([\w-]+):\s*(#[0-9a-fA-F]{6})", root))
+    hues = {}
+    for verdict in models.VERDICTS:
+        r, g, b = (int(var[verdict][i : i + 2], 16) / 255 for i in (1, 3, 5))
+        hues[verdict] = colorsys.rgb_to_hsv(r, g, b)[0] * 360
+    # Common practice, no published bound: green reads 75-165 degrees of hue, red and amber 0-60.
+    assert not any(75 <= h <= 165 for h in hues.values()), hues
+    assert sum(h <= 60 or h >= 345 for h in hues.values()) <= 1, hues
+    # No coloured stripe down the left edge of rows, tiles or cards.
+    assert not re.search(r"border-left[^;]*var\(--(supported|stale|gap)", css)
+    assert "box-shadow: inset" not in css

@@ -62,8 +62,13 @@ def model_classes() -> list[type]:
     return seen
 
 
+def json_fields(cls: type) -> list[dataclasses.Field]:
+    """The fields results.json holds (`Evidence.source` is in memory only)."""
+    return [f for f in dataclasses.fields(cls) if json_key(f) is not None]
+
+
 def model_keys(cls: type) -> list[str]:
-    keys = [json_key(f) for f in dataclasses.fields(cls)]
+    keys = [json_key(f) for f in json_fields(cls)]
     return ["format", *keys] if cls is Run else keys
 
 
@@ -74,7 +79,7 @@ def has_default(f: dataclasses.Field) -> bool:
 def test_every_model_class_has_its_section_with_every_key_in_order():
     page = sections()
     classes = model_classes()
-    assert len(classes) == 19  # Run and every part of it; a new part needs a section
+    assert len(classes) == 21  # Run and every part of it; a new part needs a section
     for cls in classes:
         assert cls.__name__ in page, f"docs/results-json.md has no section naming `{cls.__name__}`"
         assert list(page[cls.__name__]["rows"]) == model_keys(cls), cls.__name__
@@ -82,6 +87,8 @@ def test_every_model_class_has_its_section_with_every_key_in_order():
 
 # Defaults that the reader supplies rather than the field: an evidence item's rank is its place.
 READER_DEFAULTS = {("Evidence", "rank"): "its place in the list, from 1"}
+# Keys a format-1 run has under its own name (auditor/results.py _LEGACY_KEYS).
+FORMAT1_NAMES = {"supported": "covered", "to_write": "briefs", "limits": "gate", "within": "passed"}
 
 
 def test_the_default_column_says_which_keys_older_runs_may_lack():
@@ -89,7 +96,7 @@ def test_the_default_column_says_which_keys_older_runs_may_lack():
     page = sections()
     for cls in model_classes():
         rows = page[cls.__name__]["rows"]
-        for f in dataclasses.fields(cls):
+        for f in json_fields(cls):
             documented = rows[json_key(f)][1]
             if (cls.__name__, f.name) in READER_DEFAULTS:
                 assert documented == READER_DEFAULTS[cls.__name__, f.name]
@@ -128,7 +135,7 @@ def walk(value, hint, page: dict, where: str, seen: set[str]) -> None:
         rows = page[hint.__name__]["rows"]
         assert list(value) == list(rows), f"{where}: keys not as documented"
         hints = typing.get_type_hints(hint)
-        for f in dataclasses.fields(hint):
+        for f in json_fields(hint):
             walk(value[json_key(f)], hints[f.name], page, f"{where}.{json_key(f)}", seen)
     elif origin in (typing.Union, types.UnionType):
         walk(value, next(a for a in args if a is not type(None)), page, where, seen)
@@ -140,7 +147,7 @@ def walk(value, hint, page: dict, where: str, seen: set[str]) -> None:
 def test_a_real_results_json_emits_only_documented_keys(demo_results):
     page = sections()
     for data in demo_results:
-        assert data["format"] == results.FORMAT == 1
+        assert data["format"] == results.FORMAT == 2
         seen: set[str] = set()
         walk(data, Run, page, "results.json", seen)
     # The later scan holds every part of the format, so every section was held against real output.
@@ -148,6 +155,10 @@ def test_a_real_results_json_emits_only_documented_keys(demo_results):
     # Map keys that are names, not data: the support signals and the diff's lists.
     later = demo_results[1]
     signals = {k for q in later["questions"] for e in q["evidence"] for k in e["signals"]}
+    # Horizons of every source the demo's config uses, each documented.
+    sources = {e["horizon"]["source"] for q in later["questions"] for e in q["evidence"]}
+    assert sources == {"default", "path_rule", "topic_rule", "question"}, sources
+    assert all(f"`{name}`" in page["Horizon"]["text"] for name in results.HORIZON_SOURCES)
     evidence_text = page["Evidence"]["text"]
     assert signals and all(f"`{name}` (" in evidence_text for name in signals), signals
     for name in ("counts", "weights"):
@@ -171,9 +182,11 @@ def test_an_older_run_reads_with_the_documented_defaults():
         origin, args = typing.get_origin(hint), typing.get_args(hint)
         if isinstance(hint, type) and issubclass(hint, Record):
             hints = typing.get_type_hints(hint)
-            for f in dataclasses.fields(hint):
+            for f in json_fields(hint):
                 key = json_key(f)
-                if key in old:
+                if FORMAT1_NAMES.get(key) in old:
+                    compare(old[FORMAT1_NAMES[key]], new[key], hints[f.name])
+                elif key in old:
                     compare(old[key], new[key], hints[f.name])
                 else:
                     filled.append((hint.__name__, key, new[key]))
@@ -189,5 +202,9 @@ def test_an_older_run_reads_with_the_documented_defaults():
         documented = page[cls]["rows"][key][1]
         if (cls, key) == ("Evidence", "rank"):
             assert value == 1  # the only item of its list
+        elif (cls, key) == ("Run", "passages"):
+            assert [p["id"] for p in value] == [1]  # gathered from the evidence items
+        elif (cls, key) == ("Evidence", "passage"):
+            assert value == 1
         else:
             assert documented == f"`{json.dumps(value)}`", (cls, key, value)

@@ -84,7 +84,7 @@ def run_json(as_of: str, questions: list[dict]) -> dict:
         },
         "summary": {
             "questions": len(questions),
-            **{v: sum(q["verdict"] == v for q in questions) for v in ("covered", "stale", "gap")},
+            **{v: sum(q["verdict"] == v for q in questions) for v in ("supported", "stale", "gap")},
             "weight": weight,
             "fallback_exposure": share("gap"),
             "stale_exposure": share("stale"),
@@ -162,20 +162,20 @@ def store_run(store, run: dict, status: str = "done", gate: dict | None = None) 
 
 # November and December: every kind of change once, q-001 and q-005 unchanged.
 NOVEMBER = [
-    question("q-001", "covered"),
-    question("q-002", "covered"),
+    question("q-001", "supported"),
+    question("q-002", "supported"),
     question("q-003", "gap"),
     question("q-004", "stale"),
-    question("q-005", "covered"),
+    question("q-005", "supported"),
     question("q-006", "stale"),
-    question("q-008", "covered"),
+    question("q-008", "supported"),
 ]
 DECEMBER = [
-    question("q-001", "covered"),
+    question("q-001", "supported"),
     question("q-002", "gap"),
-    question("q-003", "covered"),
-    question("q-004", "covered"),
-    question("q-005", "covered"),
+    question("q-003", "supported"),
+    question("q-004", "supported"),
+    question("q-005", "supported"),
     question("q-006", "gap"),
     question("q-007", "gap"),
     question("q-008", "stale", ["expired"]),
@@ -185,8 +185,8 @@ DECEMBER = [
 def test_diff_sorts_every_verdict_change_into_exactly_one_list():
     diff = diff_runs(make_run("2026-11-01", NOVEMBER), make_run("2026-12-01", DECEMBER))
     ids = {name: [i.id for i in items] for name, items in diff.lists().items()}
-    # q-002 covered->gap and q-006 stale->gap are new gaps; q-008 covered->stale; q-003 gap->covered;
-    # q-004 stale->covered; q-007 is new to the set; nothing was dropped.
+    # q-002 supported->gap and q-006 stale->gap are new gaps; q-008 supported->stale; q-003 gap->supported;
+    # q-004 stale->supported; q-007 is new to the set; nothing was dropped.
     assert ids == {
         "new_gaps": ["q-002", "q-006"],
         "newly_stale": ["q-008"],
@@ -238,7 +238,7 @@ def test_diff_of_removed_question_and_of_identical_runs():
 
 
 def test_diff_uses_head_weight_when_traffic_changed():
-    base = make_run("2026-11-01", [question("q-001", "covered", weight=88.0)])
+    base = make_run("2026-11-01", [question("q-001", "supported", weight=88.0)])
     head = make_run("2026-12-01", [question("q-001", "gap", weight=120.0)])
     assert diff_runs(base, head).weights["new_gaps"] == 120.0
 
@@ -267,10 +267,12 @@ def test_list_runs_and_load_run_round_trip(store):
     loaded = load_run(store)  # newest done, not the running one
     assert loaded.info.id == second
     stored = loaded.to_json()
-    for key in ("format", "run", "summary", "questions", "ingest_errors", "documents"):
-        assert stored[key] == december[key], key
+    expected = Run.from_json(december).to_json()  # the format-1 input as format 2
+    for key in ("format", "run", "summary", "questions", "passages", "ingest_errors", "documents"):
+        assert stored[key] == expected[key], key
+    assert stored["format"] == 2
     # The brief was stored without the keys added later (examples, topic): they load as their defaults.
-    assert stored["briefs"] == [dict(december["briefs"][0], examples=[], topic=None)]
+    assert stored["to_write"] == [dict(december["briefs"][0], examples=[], topic=None)]
     assert loaded.gate == GateResult(passed=True, checks=[], message="gate passed: no limits set")
     assert loaded.history == [
         HistoryEntry(id=first, as_of="2026-11-01", summary=Summary.from_json(november["summary"]))
@@ -333,7 +335,13 @@ def test_record_gate(store):
     assert json.loads(store.query("SELECT gate FROM runs WHERE id = ?", [run_id])[0]["gate"]) == typed.to_json()
     assert load_run(store, run_id).gate == typed
     # A check stored without its figure (an older shape) loads with an empty one.
-    assert typed.checks[0].figure == "" and typed.to_json()["checks"][0] == {"figure": "", **gate["checks"][0]}
+    assert typed.checks[0].figure == "" and typed.to_json()["checks"][0] == {
+        "limit": "max_new_gaps",
+        "figure": "",
+        "max": 1,
+        "value": 3,
+        "within": False,
+    }
     with pytest.raises(StoreError, match="no run 99 to record"):
         record_gate(store, 99, typed)
 
@@ -395,14 +403,14 @@ def test_format_runs_and_diff(store):
         "started",
         "finished",
         "questions",
-        "covered",
+        "supported",
         "stale",
         "gap",
         "fallback",
         "stale",
         "exp.",
     ]
-    # December: 8 questions, 4 covered, 1 stale, 3 gap; fallback 105/267 = 0.39, stale 7/267 = 0.03
+    # December: 8 questions, 4 supported, 1 stale, 3 gap; fallback 105/267 = 0.39, stale 7/267 = 0.03
     assert table[2].split() == [
         "2",
         "done",
@@ -419,5 +427,5 @@ def test_format_runs_and_diff(store):
     text = format_diff(load_run(store).diff).splitlines()
     assert text[0].startswith("run 2 (2026-12-01) against run 1 (2026-11-01): 2 new gaps (weight 45)")
     assert "new gaps (2, weight 45):" in text
-    assert any(line.split()[:5] == ["q-008", "weight", "7", "covered", "->"] and "(expired)" in line for line in text)
+    assert any(line.split()[:5] == ["q-008", "weight", "7", "supported", "->"] and "(expired)" in line for line in text)
     assert format_diff(None) == "no earlier finished run to compare with"

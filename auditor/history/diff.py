@@ -1,10 +1,10 @@
 """The diff of two runs: which questions changed verdict, sorted into the lists a reader acts on.
 
 Each change is in exactly one list (results.DIFF_CATEGORIES, what got worse first):
-  new_gaps       covered or stale before, gap now
-  newly_stale    covered before, stale now
-  resolved_gaps  gap before, covered or stale now (`after` says which)
-  refreshed      stale before, covered now
+  new_gaps       supported or stale before, gap now
+  newly_stale    supported before, stale now
+  resolved_gaps  gap before, supported or stale now (`after` says which)
+  refreshed      stale before, supported now
   added          in head's question set only (whatever its verdict)
   removed        in base's question set only
 """

@@ -1,7 +1,8 @@
-"""The release gate: limits on a run's figures, turned into pass/fail and one line for the operator.
+"""Release limits: ceilings on a run's figures, turned into within / breached and one line for the operator.
 
-`auditor scan` exits with code 3 when the gate fails; the outcome is also stored with the run
-(`runs.gate`) and written into results.json (`gate`).
+`auditor scan` exits with code 3 when a limit is breached; the outcome is also stored with the run
+(`runs.gate`) and written into results.json (`limits`). The limits are the config's `[limits]`
+table (`[gate]` in configs written before, still read).
 
 Figures (all from the run object, docs/judgement.md):
   gap_share          gap questions / questions (unweighted)
@@ -11,9 +12,11 @@ Figures (all from the run object, docs/judgement.md):
   new_gaps           questions that are gaps now and were not gaps in the previous done run;
                      a question new to the set that is a gap counts (it was not a gap before,
                      because nobody asked it), so with no previous run every gap is new. A
-                     release gate should not pass vacuously on its first run; use only the share
+                     release check should not pass vacuously on its first run; use only the share
                      limits if that is not wanted.
-A figure passes when it is at most its limit; limits left unset (None) are not checked.
+A figure is within its limit when it is at most the ceiling; limits left unset (None) are not checked.
+The line names every checked figure against its ceiling, breached ones first, e.g.
+"release limits breached: fallback exposure 0.27 (ceiling 0.20); within: gap share 0.10 (ceiling 0.25)".
 """
 
 from __future__ import annotations
@@ -49,10 +52,7 @@ def gate_figures(run: Run, diff: Diff | None) -> dict[str, float | int]:
 
 
 def evaluate_gate(run: Run, diff: Diff | None, limits: GateConfig) -> GateResult:
-    """Check the run against the configured limits.
-
-    The message is one line, e.g. "gate failed: fallback_exposure 0.27 > max 0.20".
-    """
+    """Hold the run against the configured limits; the message is one line (see the module docstring)."""
     figures = gate_figures(run, diff)
     checks = []
     for limit, figure in LIMITS.items():
@@ -62,18 +62,26 @@ def evaluate_gate(run: Run, diff: Diff | None, limits: GateConfig) -> GateResult
         value = figures[figure]
         checks.append(GateCheck(limit=limit, figure=figure, max=maximum, value=value, passed=value <= maximum))
     failed = [c for c in checks if not c.passed]
+    kept = [c for c in checks if c.passed]
     if failed:
-        message = "gate failed: " + ", ".join(_describe(c, ">") for c in failed)
+        message = "release limits breached: " + "; ".join(describe_check(c) for c in failed)
+        if kept:
+            message += "; within: " + "; ".join(describe_check(c) for c in kept)
     elif checks:
-        message = "gate passed: " + ", ".join(_describe(c, "<=") for c in checks)
+        message = "release limits within: " + "; ".join(describe_check(c) for c in checks)
     else:
-        message = "gate passed: no limits set"
+        message = "release limits: none set"
     return GateResult(passed=not failed, checks=checks, message=message)
 
 
-def _describe(check: GateCheck, relation: str) -> str:
-    value, maximum = _pair(check.value, check.max, integer=check.figure == "new_gaps")
-    return f"{check.figure} {value} {relation} max {maximum}"
+def describe_check(check: GateCheck) -> str:
+    """ "fallback exposure 0.27 (ceiling 0.20)": the figure against its ceiling."""
+    value, maximum = _pair(
+        check.value, check.max, integer=(check.figure or check.limit) in ("new_gaps", "max_new_gaps")
+    )
+    # A check stored without its figure (an older run) is named by its limit.
+    name = check.figure or check.limit.removeprefix("max_")
+    return f"{name.replace('_', ' ')} {value} (ceiling {maximum})"
 
 
 def _pair(value: float, maximum: float, *, integer: bool) -> tuple[str, str]:

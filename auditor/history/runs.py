@@ -1,7 +1,7 @@
 """Stored runs: save a run, list the stored runs, load one back, keep the last N, point `latest` at a report.
 
 A run is stored as one `runs` row (summary, corpus, thresholds, ingest errors, report-only extras as
-JSON) and one `results` row per question (the results.json question object, in question-set order);
+JSON, the passages its evidence cites among them) and one `results` row per question (the results.json question object, in question-set order);
 see `store.SCHEMA`. `save_run` writes them from an `auditor.results.Run`; `load_run` turns them back
 into the same run, so `auditor report --run ID` renders an old run exactly as it was, with its
 history, its diff against the run before it and its gate outcome. Runs stored by older versions,
@@ -27,10 +27,12 @@ from auditor.results import (
     HistoryEntry,
     IngestError,
     LanguageSummary,
+    Passages,
     QuestionResult,
     Run,
     RunInfo,
     Summary,
+    used_passages,
 )
 from auditor.store import Store, chunked, dumps, marks
 
@@ -90,6 +92,8 @@ def save_run(store: Store, run: Run) -> int:
                     {
                         "documents": [d.to_json() for d in run.documents],
                         "briefs": [b.to_json() for b in run.briefs],
+                        # Format 2: each passage once; the results rows name them by id.
+                        "passages": [p.to_json() for p in used_passages(run.questions)],
                         "title": info.title,
                         "tokenizer": info.tokenizer.to_json() if info.tokenizer else None,
                     }
@@ -201,10 +205,12 @@ def _run_object(store: Store, row: dict) -> Run:
         "corpus_fingerprint": row["corpus_fingerprint"],
     }
     results = store.query("SELECT position, result FROM results WHERE run_id = ? ORDER BY position", [run_id])
+    # Format-1 runs have none: their evidence items hold their passage and add it here.
+    passages = part("extras", lambda d: Passages.of(d.get("passages")), extras)
     questions = [
         part(
             f"results[{r['position']}]",
-            QuestionResult.from_json,
+            lambda data: QuestionResult.from_json(data, passages),
             _json(store, run_id, f"results[{r['position']}]", r["result"], None),
         )
         for r in results
@@ -355,7 +361,7 @@ def format_runs(runs: list[StoredRun]) -> str:
         "started",
         "finished",
         "questions",
-        "covered",
+        "supported",
         "stale",
         "gap",
         "fallback",
@@ -372,7 +378,7 @@ def format_runs(runs: list[StoredRun]) -> str:
                 r.started or "",
                 r.finished or "-",
                 _count(s.questions if s else None),
-                _count(s.covered if s else None),
+                _count(s.supported if s else None),
                 _count(s.stale if s else None),
                 _count(s.gap if s else None),
                 _share(s.fallback_exposure if s else None),

@@ -5,8 +5,10 @@ and stores it through `history.runs.save_run`: one `runs` row plus one `results`
 one transaction, so a failed audit leaves nothing half-written.
 
 A question's `support` is the support its verdict rests on: the best fresh supporting passage's
-for a covered question, else the best passage's. Each evidence item carries its own support, the
-signals it came from (`signals`), and whether the asked-for answer type was found.
+for a supported question, else the best passage's. Each evidence item carries its own support, the
+signals it came from (`signals`), whether the asked-for answer type was found and the horizon it
+was judged with; its passage is built once per run (`SourcePassage`, results.json `passages`) and
+shared by every item that cites it. Each question gets its explanation (judgement/explain.py).
 """
 
 from __future__ import annotations
@@ -25,10 +27,12 @@ from auditor.history.runs import history, save_run
 from auditor.ingest.owners import owner_from_config
 from auditor.judgement import freshness
 from auditor.judgement.briefs import content_briefs
+from auditor.judgement.explain import deciding_evidence, explain
 from auditor.judgement.support import Judged, judge, ordered_flags, passage_support
 from auditor.judgement.thresholds import resolve_thresholds
 from auditor.judgement.verdicts import CONFLICT_FLAG, EvidencePassage, diversify, fact_check
 from auditor.models import Freshness, Question, TemporalExpression
+from auditor.progress import Progress
 from auditor.results import (
     Corpus,
     DocumentEntry,
@@ -38,6 +42,7 @@ from auditor.results import (
     QuestionResult,
     Run,
     RunInfo,
+    SourcePassage,
     Statement,
     Summary,
     Thresholds,
@@ -73,11 +78,13 @@ def run_audit(
     as_of: date,
     horizon_days: int | None = None,
     backend: Backend | None = None,
+    progress: bool = False,
 ) -> Run:
     """Audit `questions` against the searched passages in `store` at audit date `as_of`; store the run.
 
     `horizon_days` replaces the configured default horizon (path and topic rules and per-question
-    overrides still apply). Returns the stored run, with its id and its history; the diff and the
+    overrides still apply). `progress` draws a bar on stderr while the questions are judged
+    (auditor/progress.py). Returns the stored run, with its id and its history; the diff and the
     gate are the caller's (`scan.audit_and_report`). With `backend` (auditor/cluster/session.py),
     retrieval and judging run on a cluster; the answers are the same.
     """
@@ -108,6 +115,7 @@ def run_audit(
         as_of=as_of,
         fresh_config=fresh_config,
         thresholds=thresholds,
+        progress=progress and backend is None,  # workers have no terminal
     )
     corpus, documents = _corpus_and_documents(store, config, fresh_config, as_of)
     run = Run(
@@ -153,10 +161,12 @@ def judge_questions(
     as_of: date,
     fresh_config: FreshnessConfig,
     thresholds: Thresholds,
+    progress: bool = False,
 ) -> list[QuestionResult]:
     """Each question's result from its search result and the retrieved passages and statements.
 
     Pure work over plain data, so a cluster can run it on its workers (auditor/cluster/judge.py).
+    `progress` draws a bar on stderr (auditor/progress.py).
     """
     freshness_cache: dict[tuple[int, int], Freshness] = {}
 
@@ -166,10 +176,38 @@ def judge_questions(
             freshness_cache[key] = _freshness(passages[pid], statements.get(pid, []), as_of, horizon)
         return freshness_cache[key]
 
-    return [
-        _judge_question(question, result, passages, statements, passage_fresh, fresh_config, thresholds, tokenizer)
-        for question, result in zip(questions, found)
-    ]
+    sources: dict[int, SourcePassage] = {}  # each passage once, shared by the evidence that cites it
+
+    def passage_source(pid: int, fresh: Freshness) -> SourcePassage:
+        if pid not in sources:
+            passage = passages[pid]
+            sources[pid] = SourcePassage(
+                id=pid,
+                document=passage["path"],
+                page=passage["page"],
+                section=" › ".join(passage["heading_path"]),
+                owner=passage["owner"],
+                as_of=_iso(fresh.as_of),
+                as_of_source=fresh.as_of_source,
+                expires=_iso(fresh.expires),
+                statements=[Statement.of(s) for s in statements.get(pid, [])],
+                text=passage["text"],
+            )
+        return sources[pid]
+
+    bar = Progress("audit", len(questions), enabled=progress)
+    results = []
+    for question, result in zip(questions, found):
+        results.append(
+            _judge_question(
+                question, result, passages, passage_fresh, passage_source, fresh_config, thresholds, tokenizer
+            )
+        )
+        bar.step()
+    bar.done()
+    for q in results:
+        q.explanation = explain(q, audit_date=as_of.isoformat(), threshold=thresholds.support)
+    return results
 
 
 class Backend(Protocol):
@@ -184,8 +222,8 @@ def _judge_question(
     question: Question,
     result: SearchResult,
     passages: dict[int, dict],
-    statements: dict[int, list[TemporalExpression]],
     passage_fresh: Callable[[int, int], Freshness],
+    passage_source: Callable[[int, Freshness], SourcePassage],
     fresh_config: FreshnessConfig,
     thresholds: Thresholds,
     tokenizer: Tokenizer,
@@ -196,10 +234,10 @@ def _judge_question(
         passage = passages.get(hit.passage_id)
         if passage is None:  # the index is newer than the store read; cannot happen in one process
             continue
-        horizon = freshness.horizon_for(
+        horizon = freshness.horizon_choice(
             fresh_config, path=passage["path"], topic=question.topic, override=question.horizon_days
         )
-        fresh = passage_fresh(hit.passage_id, horizon)
+        fresh = passage_fresh(hit.passage_id, horizon.days)
         scored = passage_support(
             question.question,
             passage["text"],
@@ -219,25 +257,18 @@ def _judge_question(
         evidence.append(
             Evidence(
                 rank=rank,
-                document=passage["path"],
-                page=passage["page"],
-                section=" › ".join(passage["heading_path"]),
                 passage=hit.passage_id,
-                owner=passage["owner"],
                 score=round(float(hit.score), 4),
                 support=scored.support,
                 signals={k: round(v, 4) for k, v in scored.signals.items()},
                 answer_type=scored.answer_type,
                 answer_type_found=scored.answer_type_found,
                 supporting=False,
-                as_of=_iso(fresh.as_of),
-                as_of_source=fresh.as_of_source,
-                expires=_iso(fresh.expires),
+                horizon=horizon,
                 fresh=fresh.fresh,
                 reasons=list(fresh.reasons),
                 terms={t: round(float(s), 4) for t, s in sorted(hit.term_scores.items()) if s},
-                statements=[Statement.of(s) for s in statements.get(hit.passage_id, [])],
-                text=passage["text"],
+                source=passage_source(hit.passage_id, fresh),
             )
         )
     verdict = judge(judged, threshold=thresholds.support, weak_margin=thresholds.weak_margin)
@@ -253,24 +284,29 @@ def _judge_question(
         idf=idf,
         tokenize=tokenizer.tokenize,
     )
-    return QuestionResult(
+    qr = QuestionResult(
         id=question.id,
         question=question.question,
         owner=question.owner or _nearest_owner(evidence),
         topic=question.topic,
         weight=float(question.weight),
+        extra=dict(question.extra),
         verdict=verdict.verdict,
         reasons=verdict.reasons,
         flags=ordered_flags(verdict.flags + ([CONFLICT_FLAG] if check.conflict else [])),
         action=verdict.action,
         support=round(verdict.support, 4),
-        horizon_days=freshness.horizon_for(fresh_config, topic=question.topic, override=question.horizon_days),
+        horizon=freshness.horizon_choice(fresh_config, topic=question.topic, override=question.horizon_days),
         missing_terms=list(result.missing_terms),
         terms=list(result.terms),
         language=tokenizer.language_of(question.question),
         evidence=evidence,
         **check.as_json(),
     )
+    deciding = deciding_evidence(qr)
+    if deciding is not None:  # the horizon of the passage the verdict rests on
+        qr.horizon = deciding.horizon
+    return qr
 
 
 def question_support(

@@ -1,4 +1,4 @@
-"""Content briefs: the gap questions of a run, grouped into a to-do list an owner can write from.
+"""Passages to write: the gap questions of a run, grouped into a to-do list an owner can write from.
 
 Grouping, in two passes over the gap questions taken heaviest first (question-set order on a tie):
 
@@ -133,7 +133,7 @@ def _brief(members: list[QuestionResult], shared_only: bool) -> Brief:
 
 
 def content_briefs(question_results: Sequence[QuestionResult], *, min_shared_terms: int = 1) -> list[Brief]:
-    """Content briefs (module docstring) for the gap questions of a run's `questions`."""
+    """Passages to write (module docstring) for the gap questions of a run's `questions`."""
     if not isinstance(min_shared_terms, int) or min_shared_terms < 1:
         raise ValueError(f"min_shared_terms must be a whole number of at least 1, got {min_shared_terms!r}")
     gaps = [(pos, q) for pos, q in enumerate(question_results) if q.verdict == "gap"]

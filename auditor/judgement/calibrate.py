@@ -21,6 +21,7 @@ from auditor.errors import InputError
 from auditor.judgement.measures import roc_auc
 from auditor.judgement.thresholds import resolve_thresholds
 from auditor.judgement.verdicts import assess_questions
+from auditor.progress import Progress
 from auditor.retrieval.index import PassageIndex
 from auditor.store import Store, dumps
 
@@ -144,18 +145,23 @@ def calibrate(
     *,
     target_precision: float | None = None,
     holdout: bool = False,
+    progress: bool = False,
 ) -> dict:
     """Measure the gap verdict on labelled questions, choose a threshold and store it.
 
     With `holdout`, each answerable question's expected documents are hidden and the share of those
     questions that then get the gap verdict is measured (how often a removed answer would be caught).
+    `progress` draws a bar on stderr over the questions searched (auditor/progress.py).
     """
     labels = load_labels(labels_path)
     index = PassageIndex.load_or_build(store, config.retrieval)
     previous = resolve_thresholds(store, config, index)
     k = config.retrieval.top_k
     texts = [l.question for l in labels]
+    picked = [l for l in labels if l.answerable and l.expected_documents] if holdout else []
+    bar = Progress("calibrate", 2 if picked else 1, enabled=progress)  # one step per batch searched
     supports = [a.support for a in assess_questions(store, index, texts, k)]
+    bar.step()
     unanswerable = [not l.answerable for l in labels]
     auc = roc_auc(
         [-s for s, u in zip(supports, unanswerable) if u], [-s for s, u in zip(supports, unanswerable) if not u]
@@ -167,12 +173,12 @@ def calibrate(
     held = None
     if holdout:
         known = {r["path"] for r in store.query("SELECT path FROM documents WHERE status = 'active'")}
-        picked = [l for l in labels if l.answerable and l.expected_documents]
         if picked:
             hidden = [set(l.expected_documents) for l in picked]
             hidden_supports = [
                 a.support for a in assess_questions(store, index, [l.question for l in picked], k, hidden=hidden)
             ]
+            bar.step()
             fired = sum(1 for s in hidden_supports if s < threshold)
             held = {
                 "questions": len(picked),
@@ -183,6 +189,7 @@ def calibrate(
         else:
             held = {"questions": 0, "gap": 0, "gap_rate": None, "unknown_documents": []}
 
+    bar.done()
     thresholds = {"support": threshold, "weak_margin": config.support.weak_margin}
     metrics = {
         "auc": auc,

@@ -1,7 +1,7 @@
 """Conflicting answers (docs/judgement.md): two fresh supporting passages that give different values
 of the asked-for type for the same question.
 
-When one page says the reconnection fee is $45 and another says $60, the question is covered twice
+When one page says the reconnection fee is $45 and another says $60, the question is supported twice
 and answered wrongly once; the owner must reconcile them. The flag is `conflicting_values`, and the
 question carries both values with where they stand.
 

@@ -13,8 +13,8 @@ constraint of a question is what sets it apart from other questions on the same 
   (`answer_types`).
 
 `missing_constraint` says what the best passage lacks (empty when nothing); `weak_band` puts a
-covered question in the weak band: its support is within the weak margin above the threshold (the
-band of the `weak` flag, support.judge), or a constraint is missing. Such a question stays covered (the verdict vocabulary of results.json is
+supported question in the weak band: its support is within the weak margin above the threshold (the
+band of the `weak` flag, support.judge), or a constraint is missing. Such a question stays supported (the verdict vocabulary of results.json is
 unchanged) and is shown to its owner as "needs a look" with the reason.
 """
 
@@ -82,14 +82,14 @@ def missing_constraint(
 
 @dataclass(frozen=True)
 class WeakBand:
-    """Whether a covered question needs a look, and why."""
+    """Whether a supported question needs a look, and why."""
 
     needs_look: bool
     reasons: list[str] = field(default_factory=list)  # near_threshold, missing_constraint
 
 
 def weak_band(support: float, threshold: float, missing: MissingConstraint, band: float) -> WeakBand:
-    """A covered question needs a look when its support is within `band` (the weak margin) above
+    """A supported question needs a look when its support is within `band` (the weak margin) above
     the threshold or its best passage lacks part of the constraint."""
     reasons = []
     if threshold <= support < threshold + band:

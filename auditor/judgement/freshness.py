@@ -46,8 +46,9 @@ from datetime import date
 
 from auditor.config import FreshnessConfig
 from auditor.models import Freshness, TemporalExpression
+from auditor.results import Horizon
 
-__all__ = ["passage_freshness", "horizon_for", "corpus_freshness", "is_range"]
+__all__ = ["passage_freshness", "horizon_for", "horizon_choice", "corpus_freshness", "is_range"]
 
 # Longest interval, in days, of one unit of each granularity: an expression longer than that is a
 # range written with two ends ("July 1, 2024 through June 30, 2025").
@@ -163,21 +164,28 @@ def _glob_match(path: str, pattern: str) -> bool:
 def horizon_for(
     freshness_config: FreshnessConfig, *, path: str | None = None, topic: str | None = None, override: int | None = None
 ) -> int:
-    """The freshness horizon in days: a per-question override, else the first topic rule that names
-    `topic` (case-insensitive), else the first path-glob rule matching `path` (relative document
-    path), else the default."""
+    """The freshness horizon in days (see `horizon_choice`)."""
+    return horizon_choice(freshness_config, path=path, topic=topic, override=override).days
+
+
+def horizon_choice(
+    freshness_config: FreshnessConfig, *, path: str | None = None, topic: str | None = None, override: int | None = None
+) -> Horizon:
+    """The freshness horizon and where it came from: a per-question override, else the first topic
+    rule that names `topic` (case-insensitive), else the first path-glob rule matching `path`
+    (relative document path), else the default."""
     if override is not None:
-        return int(override)
+        return Horizon(days=int(override), source="question")
     rules = freshness_config.rules
     if topic:
         for rule in rules:
             if rule.topic is not None and rule.topic.casefold() == topic.casefold():
-                return rule.horizon_days
+                return Horizon(days=rule.horizon_days, source="topic_rule", rule=rule.topic)
     if path:
         for rule in rules:
             if rule.path is not None and _glob_match(str(path), rule.path):
-                return rule.horizon_days
-    return freshness_config.horizon_days
+                return Horizon(days=rule.horizon_days, source="path_rule", rule=rule.path)
+    return Horizon(days=freshness_config.horizon_days, source="default")
 
 
 def corpus_freshness(items: list[Freshness]) -> tuple[float, float]:

@@ -1,5 +1,5 @@
 """Support judgement (docs/judgement.md): how well a retrieved passage supports a question, and the
-verdict (covered / stale / gap) of a question from its evidence.
+verdict (supported / stale / gap) of a question from its evidence.
 
 Scoring is a handful of small pure functions over plain values, so each signal can be tested and
 measured on its own (bench/holdout.py prints what each one contributes):
@@ -8,7 +8,7 @@ measured on its own (bench/holdout.py prints what each one contributes):
                       (the bound holds because a BM25 term weight tf·(k1+1)/(tf + k1·norm) < k1+1).
 * `term_coverage`   — the IDF-weighted share of the question's terms that the passage contains.
                       Terms the corpus never uses carry the highest IDF, so a question about
-                      something the knowledge base never mentions cannot be covered.
+                      something the knowledge base never mentions cannot be supported.
 * `window_coverage` — the same share inside the best window of consecutive sentences: a passage
                       supports a question when the question's terms occur *together*, not
                       scattered over a long passage (proximity, common practice in passage
@@ -195,7 +195,7 @@ class Judged:
 
 @dataclass
 class Verdict:
-    verdict: str  # covered | stale | gap
+    verdict: str  # supported | stale | gap
     reasons: list[str]
     flags: list[str]
     action: str | None
@@ -209,7 +209,7 @@ _STALE_ORDER = ("too_old", "expired", "overtaken")
 def judge(evidence: Sequence[Judged], *, threshold: float, weak_margin: float) -> Verdict:
     """Verdict of a question from its judged evidence (docs/judgement.md).
 
-    covered — some supporting passage is fresh; flags `stale_competitor` (a stale passage supports
+    supported — some supporting passage is fresh; flags `stale_competitor` (a stale passage supports
               it too), `weak` (best fresh support < threshold + weak_margin), `file_dated` (the
               fresh support rests on file times only), `undated` (it rests on passages with no
               date at all, which count as fresh for want of evidence).
@@ -240,7 +240,7 @@ def judge(evidence: Sequence[Judged], *, threshold: float, weak_margin: float) -
             flags.append("file_dated")
         elif all(e.as_of_source == "none" for e in fresh):
             flags.append("undated")
-        return Verdict("covered", [], _ordered(flags), None, top, supporting)
+        return Verdict("supported", [], _ordered(flags), None, top, supporting)
     if stale:
         reasons = sorted({r for e in stale for r in e.reasons}, key=_reason_key)
         ended = all(set(e.reasons) & {"expired", "overtaken"} for e in stale)

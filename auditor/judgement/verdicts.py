@@ -6,7 +6,7 @@ hidden, for the hold-out protocols), scores each with `support.passage_support`,
 `Assessment` per question: its best support, the documents of its evidence, and the judged passages.
 
 `fact_check` is what the audit adds to a judged question beyond its verdict: the missing constraint
-of its best passage, whether a covered question needs a look, and a conflict between the values its
+of its best passage, whether a supported question needs a look, and a conflict between the values its
 fresh supporting passages give (docs/judgement.md).
 """
 
@@ -174,14 +174,14 @@ def fact_check(
     idf: Mapping[str, float],
     tokenize: Callable[[str], list[str]],
 ) -> FactCheck:
-    """Missing constraint (best passage), weak band (covered questions only) and conflict (fresh
+    """Missing constraint (best passage), weak band (supported questions only) and conflict (fresh
     supporting passages, best first) of one judged question."""
     if evidence:
         best = max(evidence, key=lambda e: e.support)
         missing = missing_constraint(question, best.text, idf=idf, tokenize=tokenize)
     else:
         missing = MissingConstraint(tuple(constraint_terms(tokenize(without_cue(question)), idf)))
-    look = weak_band(support, threshold, missing, weak_margin) if verdict == "covered" else WeakBand(False)
+    look = weak_band(support, threshold, missing, weak_margin) if verdict == "supported" else WeakBand(False)
     fresh = sorted((e for e in evidence if e.fresh and e.support >= threshold), key=lambda e: -e.support)
     conflict = find_conflict(question, [(e.passage_id, e.document, e.text[e.window[0] : e.window[1]]) for e in fresh])
     return FactCheck(missing, look, conflict)

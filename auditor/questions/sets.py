@@ -16,9 +16,13 @@ Plain text is always a question set.
 Question-set rules (each breach is an InputError naming the file and the line):
 
 * columns: ``question`` (required), ``id``, ``owner``, ``topic``, ``weight``, ``horizon_days``
-  (case and surrounding spaces ignored). An **unknown column is an error**: a typo such as
-  ``wieght`` would otherwise silently give every question weight 1. (Query logs differ: their
-  extra columns — session, user — are dropped and listed in the import summary, never stored.)
+  (case and surrounding spaces ignored). Any **other column is kept** (``notes``, ``url``,
+  ``channel``: teams keep such columns) and carried to gaps.csv, the owner files and the report's
+  row details; `read_question_file` says once which columns it keeps. A column whose name looks
+  like a misspelt known one (``qestion``, ``wieght``: `difflib` similarity at least
+  ``MISSPELT_RATIO``) is an error naming the column it probably means, since a typo would
+  otherwise silently give every question weight 1. (Query logs differ: their extra columns —
+  session, user — are dropped and listed in the import summary, never stored.)
 * ``weight``: a finite number > 0, default 1; ``horizon_days``: a whole number > 0.
 * a missing id becomes ``q-NNN``, NNN being the question's position in the file (1-based,
   zero-padded to at least 3 digits), so ids stay stable while the order stays; a generated id
@@ -33,8 +37,11 @@ Curated question sets are not redacted (their authors chose the wording); query 
 
 from __future__ import annotations
 
+import difflib
+import json
 import logging
 import math
+from collections.abc import Callable
 from pathlib import Path
 
 from auditor.errors import InputError
@@ -45,6 +52,11 @@ from auditor.questions.querylog import import_parsed_log
 log = logging.getLogger(__name__)
 
 QUESTION_COLUMNS = ("id", "question", "owner", "topic", "weight", "horizon_days")
+# How alike (difflib.SequenceMatcher ratio) a column name must be to a known one to count as its
+# misspelling: "qestion" ~ "question" 0.93, "wieght" ~ "weight" 0.83, "owners" ~ "owner" 0.91, while
+# "notes", "url", "channel", "source" stay below 0.6 against every known column. Common practice
+# for "did you mean", no published threshold; chosen on these examples.
+MISSPELT_RATIO = 0.8
 
 
 # --- reading --------------------------------------------------------------------------------------
@@ -116,9 +128,27 @@ def build_questions(path: Path, rows: list[tuple[int, dict]]) -> list[Question]:
                 topic=_text_field(path, line, "topic", fields.get("topic")),
                 weight=_weight(path, line, fields.get("weight")),
                 horizon_days=_horizon(path, line, fields.get("horizon_days")),
+                extra=tuple(
+                    (name, _extra_value(value)) for name, value in fields.items() if name not in QUESTION_COLUMNS
+                ),
             )
         )
     return questions
+
+
+def _extra_value(value) -> str:
+    """A kept column's cell as text (JSON Lines values may be numbers or lists)."""
+    if value is None:
+        return ""
+    return value if isinstance(value, str) else json.dumps(value, ensure_ascii=False)
+
+
+def likely_meant(column: str) -> str | None:
+    """The known column `column` is probably a misspelling of, or None (see MISSPELT_RATIO)."""
+    if column in QUESTION_COLUMNS:
+        return None
+    close = difflib.get_close_matches(column, QUESTION_COLUMNS, n=1, cutoff=MISSPELT_RATIO)
+    return close[0] if close else None
 
 
 def load_questions(path) -> list[Question]:
@@ -134,11 +164,13 @@ def load_questions(path) -> list[Question]:
     return questions
 
 
-def read_question_file(path, redaction=None):
+def read_question_file(path, redaction=None, warn: Callable[[str], None] | None = None):
     """`load_questions`, also returning the query-log summary (None for a question set).
 
     For commands that print what a query-log import merged and redacted; `redaction` is the
-    config's `[redaction]` table for a query log (default: every kind redacted).
+    config's `[redaction]` table for a query log (default: every kind redacted). `warn` gets the one
+    line that names the columns a question set keeps beyond the known ones (default: logged as a
+    warning).
     """
     path = Path(path)
     text = read_text(path)
@@ -154,19 +186,36 @@ def read_question_file(path, redaction=None):
     if is_query_log(columns):
         return import_parsed_log(path, fmt, columns, records, redaction)
     if fmt == "csv" and "question" not in columns:
+        for name in columns:
+            if likely_meant(name) == "question":
+                raise InputError(
+                    f"{str(path)!r}: line {header_line(records)}: column {name!r} looks like a misspelling of "
+                    f"'question'; rename it (known columns: {', '.join(QUESTION_COLUMNS)})"
+                )
         raise InputError(
             f"{str(path)!r}: line {header_line(records)}: the header needs a 'question' column "
             f"(found: {', '.join(columns) or 'nothing'})"
         )
     # CSV: the header is checked even when no row follows; JSON Lines: each object on its line.
     checks = [(header_line(records), dict.fromkeys(columns))] if fmt == "csv" else records
+    kept: dict[str, None] = {}
     for line, fields in checks:
-        unknown = [c for c in fields if c not in QUESTION_COLUMNS]
-        if unknown:
-            raise InputError(
-                f"{str(path)!r}: line {line}: unknown column {unknown[0]!r}; expected {', '.join(QUESTION_COLUMNS)}"
-            )
-    return build_questions(path, records), None
+        for name in fields:
+            meant = likely_meant(name)
+            if meant is not None and meant not in fields:
+                raise InputError(
+                    f"{str(path)!r}: line {line}: column {name!r} looks like a misspelling of {meant!r}; "
+                    f"rename it (known columns: {', '.join(QUESTION_COLUMNS)})"
+                )
+            if name not in QUESTION_COLUMNS:
+                kept.setdefault(name)
+    questions = build_questions(path, records)
+    if kept:
+        (warn or log.warning)(
+            f"{str(path)!r}: kept column{'s' if len(kept) > 1 else ''} {', '.join(map(repr, kept))} "
+            f"as they are (known columns: {', '.join(QUESTION_COLUMNS)})"
+        )
+    return questions, None
 
 
 # --- storing --------------------------------------------------------------------------------------

@@ -1,4 +1,5 @@
-"""The report of a run: index.html, results.json, gaps.csv, owners/<slug>.csv and owners/<slug>.html.
+"""The report of a run: index.html, results.json, gaps.csv, owners/<slug>.csv and owners/<slug>.html,
+and when asked for, junit.xml and summary.md for CI servers and chat (auditor/report/ci.py).
 
 `write_report(run, out_dir)` reads only the run (`auditor.results.Run`, docs/results-json.md), so a
 stored run can be reported again at any time with the same bytes out. Who owns a question, and the
@@ -8,8 +9,12 @@ CSV columns, are documented in `auditor.report.exports`.
 from __future__ import annotations
 
 import re
+from collections.abc import Iterable
 from pathlib import Path
 
+from auditor.judgement.explain import explain
+from auditor.progress import Progress
+from auditor.report.ci import junit_xml, summary_markdown
 from auditor.report.exports import all_owners, document_owner, owner_questions, owner_slugs, write_atomic, write_exports
 from auditor.report.html import Highlighter, build_view, render_page
 from auditor.results import Run, Summary
@@ -29,7 +34,17 @@ def _render_within_limit(run: Run, **view_args) -> str:
     return page
 
 
-__all__ = ["write_report"]
+__all__ = ["write_report", "fill_explanations"]
+
+
+def fill_explanations(run: Run) -> None:
+    """Give every question of a run stored before explanations were kept (format 1) its sentence."""
+    threshold = run.info.thresholds.support if run.info.thresholds else None
+    for q in run.questions:
+        if not q.explanation:
+            q.explanation = explain(q, audit_date=run.info.as_of, threshold=threshold)
+
+
 _OWNER_FILE = re.compile(r"^[a-z0-9-]+\.(csv|html)$")
 
 
@@ -42,21 +57,32 @@ def _remove_stale_owner_files(owners_dir: Path, written: set[str]) -> None:
             path.unlink()
 
 
-def write_report(run: Run, out_dir: Path) -> Path:
+def write_report(
+    run: Run, out_dir: Path, *, outputs: Iterable[str] = (), stale_in_junit: str = "fail", progress: bool = False
+) -> Path:
     """Write every file of the report into `out_dir` and return the path of index.html.
 
     Each file goes to a temporary name and is renamed into place; index.html is renamed last so
-    that a reader who finds it also finds the files it links to. Owner files left in owners/ by an
-    earlier report for owners this run no longer has are removed. Output is deterministic: the
+    that a reader who finds it also finds the files it links to. `outputs` adds "junit" (junit.xml,
+    stale questions failing or, with `stale_in_junit="skip"`, skipped) and "summary" (summary.md).
+    `progress` draws a bar on stderr over the pages written (auditor/progress.py). Owner files left
+    in owners/ by an earlier report for owners this run no longer has are removed. Output is deterministic: the
     same run object gives the same bytes (no clock is read; every date comes from the run).
     """
     out_dir = Path(out_dir)
     out_dir.mkdir(parents=True, exist_ok=True)
+    fill_explanations(run)
     owners = all_owners(run)
     highlighter = Highlighter(run.info.tokenizer)  # one word cache for every page
     slugs = owner_slugs(owners)
     write_exports(run, out_dir, slugs)
+    wanted = set(outputs)
+    if "junit" in wanted:
+        write_atomic(out_dir / "junit.xml", junit_xml(run, stale=stale_in_junit))
+    if "summary" in wanted:
+        write_atomic(out_dir / "summary.md", summary_markdown(run))
 
+    bar = Progress("report", len(owners) + 1, enabled=progress)
     owner_links = []
     for owner in owners:
         own_q = owner_questions(run, owner)
@@ -80,12 +106,13 @@ def write_report(run: Run, out_dir: Path) -> Path:
             highlighter=highlighter,
         )
         write_atomic(out_dir / "owners" / f"{slug}.html", page)
+        bar.step()
         owner_links.append(
             {
                 "name": owner,
                 "slug": slug,
                 "questions": len(own_q),
-                "covered": counts.covered,
+                "supported": counts.supported,
                 "stale": counts.stale,
                 "gap": counts.gap,
                 "at_risk": sum(float(q.weight or 0) for q in own_q if q.verdict in ("gap", "stale")),
@@ -109,4 +136,6 @@ def write_report(run: Run, out_dir: Path) -> Path:
     )
     index = out_dir / "index.html"
     write_atomic(index, page)
+    bar.step()
+    bar.done()
     return index

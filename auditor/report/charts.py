@@ -2,7 +2,7 @@
 
 Every chart returns `markupsafe.Markup`; every piece of text that comes from the run (owner names,
 dates) goes through `escape`, so a hostile owner name shows literally. Colours are set through CSS
-classes of the page (`v-covered`, `v-stale`, `v-gap`, ...) so print and screen styles stay in one
+classes of the page (`v-supported`, `v-stale`, `v-gap`, ...) so print and screen styles stay in one
 place; each chart carries a <title> and an aria-label, and the page shows the same figures as text.
 """
 
@@ -36,7 +36,7 @@ def _truncate(text: str, limit: int) -> str:
 
 
 def verdicts_by_owner(counts: dict[str, dict[str, int]]) -> Markup:
-    """Stacked horizontal bars: one bar per owner, segments covered / stale / gap.
+    """Stacked horizontal bars: one bar per owner, segments supported / stale / gap.
 
     `counts` maps owner → {verdict: count}. Owners are sorted by question count (highest first),
     then by name; past MAX_OWNER_BARS the rest are merged into one "other owners" bar.
@@ -138,7 +138,7 @@ def age_histogram(ages: list[int], horizon_days: int, undated: int = 0) -> Marku
         )
     for i, n in enumerate(counts):
         lo, hi = round(i * step), round((i + 1) * step)
-        cls = "v-covered" if hi <= horizon else "v-stale"
+        cls = "v-supported" if hi <= horizon else "v-stale"
         h = plot_h * n / peak
         x = left + i * bw
         body.append(
@@ -161,7 +161,7 @@ def age_histogram(ages: list[int], horizon_days: int, undated: int = 0) -> Marku
         caption += f" · {undated} undated"
     body.append(f'<text x="{left}" y="{height - 8}" class="axis">{escape(caption)}</text>')
     lx = width - right - 230
-    for cls, name in (("v-covered", "within horizon"), ("v-stale", "beyond horizon")):
+    for cls, name in (("v-supported", "within horizon"), ("v-stale", "beyond horizon")):
         body.append(
             f'<rect x="{lx}" y="{height - 18}" width="12" height="12" class="{cls}"/>'
             f'<text x="{lx + 17}" y="{height - 8}" class="axis">{name}</text>'
@@ -171,16 +171,16 @@ def age_histogram(ages: list[int], horizon_days: int, undated: int = 0) -> Marku
 
 
 TREND_SERIES = (
-    ("covered_share", "covered share", "t-covered"),
+    ("supported_share", "supported share", "t-supported"),
     ("stale_exposure", "stale exposure", "t-stale"),
     ("fallback_exposure", "fallback exposure", "t-gap"),
 )
 
 
 def trend(points: list[dict], width: int = 1160) -> Markup:
-    """Line chart across runs: covered share of questions, stale and fallback exposure (0–100 %).
+    """Line chart across runs: supported share of questions, stale and fallback exposure (0–100 %).
 
-    `points` are {"label", "covered_share", "stale_exposure", "fallback_exposure"}, oldest first.
+    `points` are {"label", "supported_share", "stale_exposure", "fallback_exposure"}, oldest first.
     The chart is wide and low: it spans the page under the other two.
     """
     height, left, right, top, bottom = 230, 44, 24, 14, 52
@@ -233,4 +233,4 @@ def trend(points: list[dict], width: int = 1160) -> Markup:
             f'<text x="{lx + 24}" y="{height - 8}" class="axis">{escape(name)}</text>'
         )
         lx += 160
-    return _svg(width, height, "Trend across runs: covered share, stale and fallback exposure", body)
+    return _svg(width, height, "Trend across runs: supported share, stale and fallback exposure", body)

@@ -17,16 +17,24 @@ question        question text
 owner           owner by the rule above
 topic           topic, empty when none
 weight          traffic weight (1 when the question set has no counts)
-verdict         covered | stale | gap
+verdict         supported | stale | gap
 reasons         stale reasons, ``;``-separated (too_old, expired, overtaken)
 flags           ``;``-separated (stale_competitor, weak, file_dated, ...)
 support         best support in [0, 1]
 missing_terms   question terms the corpus never uses, ``;``-separated
-action          write | refresh | retire, empty for covered
+action          write | refresh | retire, empty for supported
 best_document   document of the best evidence
 best_section    heading path of the best evidence
 best_as_of      as-of date of the best evidence (ISO 8601), empty when undated
+horizon_days    the freshness horizon that decided (of the passage the verdict rests on)
+horizon_source  where it came from: default, path_rule, topic_rule, question (unrecorded for
+                runs stored in format 1)
+explanation     why the question has its verdict, naming that passage and that horizon
 ==============  ==============================================================================
+
+After these come the question file's own other columns (`notes`, `url`, ...), in the order they
+first appear, so that a team's spreadsheet columns travel with its questions; one that has the name
+of a column above is written as ``extra_<name>``.
 
 Rows are ordered by weight (highest first), then by question-set order. Text cells that a
 spreadsheet would read as a formula (starting with ``= + - @``, tab or carriage return) get a leading
@@ -43,7 +51,7 @@ import os
 import re
 import tempfile
 import unicodedata
-from collections.abc import Iterable
+from collections.abc import Iterable, Sequence
 from pathlib import Path
 from typing import Any
 
@@ -65,6 +73,9 @@ CSV_COLUMNS = (
     "best_document",
     "best_section",
     "best_as_of",
+    "horizon_days",
+    "horizon_source",
+    "explanation",
 )
 _FORMULA_START = ("=", "+", "-", "@", "\t", "\r")
 
@@ -165,13 +176,30 @@ def _finite(value: Any) -> Any:
 
 
 def results_json(run: Run) -> str:
-    """results.json: the run's JSON (`Run.to_json`), pretty-printed (UTF-8, not ASCII-escaped)."""
+    """results.json: the run's JSON (`Run.to_json`), UTF-8, not ASCII-escaped, laid out as
+    docs/results-json.md says: a line per top-level key, and in each top-level list a line per item
+    (a question, a passage, ...), each item compact. Indenting inside items would make a large run's
+    file about 70 % bigger for no reader's gain; a line per question still diffs and greps well."""
     ordered = run.to_json()
     try:
-        text = json.dumps(ordered, indent=2, ensure_ascii=False, allow_nan=False)
+        return _layout(ordered)
     except ValueError:  # a NaN or infinity somewhere: write null there rather than invalid JSON
-        text = json.dumps(_finite(ordered), indent=2, ensure_ascii=False, allow_nan=False)
-    return text + "\n"
+        return _layout(_finite(ordered))
+
+
+def _compact(value: Any) -> str:
+    return json.dumps(value, ensure_ascii=False, allow_nan=False, separators=(",", ":"))
+
+
+def _layout(data: dict) -> str:
+    parts = []
+    for key, value in data.items():
+        if isinstance(value, list) and value:
+            items = ",\n".join("    " + _compact(item) for item in value)
+            parts.append(f"  {_compact(key)}: [\n{items}\n  ]")
+        else:
+            parts.append(f"  {_compact(key)}: {_compact(value)}")
+    return "{\n" + ",\n".join(parts) + "\n}\n"
 
 
 def _cell(value: object) -> str:
@@ -189,8 +217,14 @@ def _number(value: float | None) -> str:
     return repr(value) if isinstance(value, float) else str(value)
 
 
-def csv_row(question: QuestionResult) -> list[str]:
+def extra_columns(questions: list[QuestionResult]) -> list[str]:
+    """The question files' own columns of `questions`, in first-seen order."""
+    return list(dict.fromkeys(k for q in questions for k in q.extra))
+
+
+def csv_row(question: QuestionResult, extra: Sequence[str] = ()) -> list[str]:
     best = best_evidence(question)
+    horizon = question.horizon
     return [
         _cell(question.id),
         _cell(question.question),
@@ -206,17 +240,22 @@ def csv_row(question: QuestionResult) -> list[str]:
         _cell(best.document if best else None),
         _cell(best.section if best else None),
         _cell(best.as_of if best else None),
+        _number(horizon.days if horizon else None),
+        _cell(horizon.source if horizon else None),
+        _cell(question.explanation),
+        *(_cell(question.extra.get(name)) for name in extra),
     ]
 
 
 def questions_csv(questions: list[QuestionResult]) -> str:
     """CSV text (RFC 4180, CRLF line ends) of `questions`, ordered by weight then input order."""
     order = sorted(range(len(questions)), key=lambda i: (-float(questions[i].weight or 0.0), i))
+    extra = extra_columns(questions)
     buf = io.StringIO(newline="")
     writer = csv.writer(buf, lineterminator="\r\n")
-    writer.writerow(CSV_COLUMNS)
+    writer.writerow([*CSV_COLUMNS, *(f"extra_{c}" if c in CSV_COLUMNS else c for c in extra)])
     for i in order:
-        writer.writerow(csv_row(questions[i]))
+        writer.writerow(csv_row(questions[i], extra))
     return buf.getvalue()
 
 

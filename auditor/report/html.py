@@ -29,6 +29,7 @@ from pathlib import Path
 from jinja2 import Environment, FileSystemLoader, select_autoescape
 from markupsafe import Markup
 
+from auditor.judgement.explain import explain, horizon_text
 from auditor.models import STALE_REASONS, VERDICTS
 from auditor.report import charts
 from auditor.report.exports import best_evidence, question_owner
@@ -41,8 +42,8 @@ from auditor.results import (
     HistoryEntry,
     QuestionResult,
     Run,
+    RunInfo,
     Summary,
-    Thresholds,
     TokenizerSettings,
 )
 from auditor.retrieval.tokenize import Tokenizer
@@ -85,8 +86,26 @@ FLAG_TEXT = {
 }
 
 
+# A shape per verdict, so that colour is never the only cue (WCAG 2.1 §1.4.1): a check for
+# supported, a half-filled circle for stale (support there, out of date), an empty one for a gap.
+# A verdict added to models.VERDICTS without its own glyph gets a plain bullet.
+VERDICT_GLYPHS = {"supported": "✓", "stale": "◐", "gap": "○"}
+OTHER_GLYPH = "•"
+
+
 def _verdict_class(verdict: str) -> str:
     return verdict if verdict in VERDICTS else "other"
+
+
+def verdict_glyph(verdict: str) -> str:
+    return VERDICT_GLYPHS.get(verdict, OTHER_GLYPH)
+
+
+def badge(verdict: str) -> Markup:
+    """The verdict's badge: its glyph (hidden from screen readers, which read the word) and its word."""
+    return Markup('<span class="v v-{}"><span class="glyph" aria-hidden="true">{}</span> {}</span>').format(
+        _verdict_class(verdict), verdict_glyph(verdict), verdict
+    )
 
 
 def script_json(value) -> Markup:
@@ -122,7 +141,7 @@ def _environment() -> Environment:
         lstrip_blocks=True,
         keep_trailing_newline=True,
     )
-    env.filters.update(pct=_pct, num=_num, verdict_class=_verdict_class, humanize=_humanize)
+    env.filters.update(pct=_pct, num=_num, verdict_class=_verdict_class, humanize=_humanize, badge=badge)
     return env
 
 
@@ -183,25 +202,14 @@ def _cut(text: str, limit: int) -> tuple[str, bool]:
 # --- explanations (plain text; the template escapes them) -----------------------------------------
 
 
-def verdict_sentence(q: QuestionResult, thresholds: Thresholds | None) -> str:
-    verdict, support = q.verdict, q.support
-    threshold = thresholds.support if thresholds else None
-    if verdict == "gap":
-        s = "No passage supports this question"
-        if support is not None and threshold is not None:
-            s += f" (best support {_num(support)}, threshold {_num(threshold)})"
-        s += "; the assistant would fall back to an outside source or answer without grounding."
-        return s + _fact_sentence(q)
-    if verdict == "stale":
-        reasons = [REASON_TEXT.get(r, str(r)) for r in q.reasons]
-        s = "Supported only by stale passages"
-        return s + (": " + "; ".join(reasons) + "." if reasons else ".")
-    if verdict == "covered":
-        s = "Supported by at least one fresh passage."
-        if q.needs_look:
-            s += " Needs a look: " + "; ".join(LOOK_TEXT.get(r, r) for r in q.look_reasons) + "."
-        return s + _fact_sentence(q)
-    return f"Verdict: {verdict}."
+def verdict_sentence(q: QuestionResult, run: RunInfo) -> str:
+    """The question's explanation (as stored, else built now from its result, judgement/explain.py),
+    then what needs a look and the fact-level findings in words."""
+    threshold = run.thresholds.support if run.thresholds else None
+    s = q.explanation or explain(q, audit_date=run.as_of, threshold=threshold)
+    if q.needs_look:
+        s += " Needs a look: " + "; ".join(LOOK_TEXT.get(r, r) for r in q.look_reasons) + "."
+    return s + _fact_sentence(q)
 
 
 LOOK_TEXT = {
@@ -226,8 +234,8 @@ def _fact_sentence(q: QuestionResult) -> str:
 
 
 def best_line(q: QuestionResult, best: Evidence | None) -> str | None:
-    """Which passage supports a covered question (stale and gap rows name it in their action)."""
-    if q.verdict != "covered" or best is None or not best.document:
+    """Which passage supports a supported question (stale and gap rows name it in their action)."""
+    if q.verdict != "supported" or best is None or not best.document:
         return None
     line = "Supported by " + str(best.document)
     if best.section:
@@ -246,6 +254,7 @@ def _script_row(row: dict) -> dict:
         ("m", q.missing_terms),
         ("f", [list(f) for f in row["flags"]]),
         ("b", row["best_line"]),
+        ("xc", [[k, v] for k, v in q.extra.items()]),
     ):
         if value:
             out[key] = value
@@ -366,7 +375,7 @@ def _trend_points(run: Run) -> list[dict]:
         points.append(
             {
                 "label": str(e.as_of or e.id or ""),
-                "covered_share": _share(s.covered or 0, s.questions or 0),
+                "supported_share": _share(s.supported or 0, s.questions or 0),
                 "stale_exposure": s.stale_exposure,
                 "fallback_exposure": s.fallback_exposure,
             }
@@ -392,7 +401,8 @@ def _page_data(
     from the page-wide value: "h" horizon days, "sk" support signal names, "at" the kind of answer
     asked for}. Each evidence item is the array [passage key, rank, BM25 score, support,
     supporting 0/1, fresh 0/1, reasons (indexes into "R"), contribution of each term of "k",
-    highlights, value of each support signal of "sk", answer type found 1/0/null]. Highlights
+    highlights, value of each support signal of "sk", answer type found 1/0/null, the horizon it
+    was judged with (index into "H", the horizons named with their source; -1: not recorded)]. Highlights
     are delta-coded [gap, length, gap, length, ...] in UTF-16 code units, each gap counted from
     the previous end. Passages ("p") are keyed by passage id. The shape keeps a 10,000-question
     page small.
@@ -400,6 +410,7 @@ def _page_data(
     hl = highlighter
     passages: dict[str, dict] = {}
     reason_codes: dict[str, int] = {r: k for k, r in enumerate(STALE_REASONS)}
+    horizon_codes: dict[str, int] = {}  # "the 180-day horizon (the path rule `billing/rates-*`)" -> index
     all_signals = sorted({k for q in questions for e in q.evidence[:page_evidence] for k in e.signals})
     rows = []
     keyed = []  # (evidence item, passage key, matched terms): highlight once the text is cut
@@ -434,6 +445,8 @@ def _page_data(
                 [reason_codes.setdefault(str(r), len(reason_codes)) for r in e.reasons],
                 contrib,
             ]
+            horizon_key = horizon_text(e.horizon) if e.horizon else ""
+            horizon_code = horizon_codes.setdefault(horizon_key, len(horizon_codes)) if horizon_key else -1
             found = e.answer_type_found
             keyed.append(
                 (
@@ -442,6 +455,7 @@ def _page_data(
                     [t for t in qterms if float(terms.get(t) or 0) > 0],
                     [round(float(e.signals.get(k) or 0), 2) for k in snames],
                     None if found is None else int(bool(found)),
+                    horizon_code,
                 )
             )
             ev_out.append(item)
@@ -454,8 +468,8 @@ def _page_data(
             "k": qterms,
             "e": ev_out,
         }
-        if q.horizon_days and q.horizon_days != horizon:
-            row["h"] = q.horizon_days
+        if q.horizon and q.horizon.days != horizon:
+            row["h"] = q.horizon.days
         if snames != all_signals:
             row["sk"] = snames
         if answer_type:
@@ -466,19 +480,20 @@ def _page_data(
         limit = max(MIN_PASSAGE_CHARS, min(PASSAGE_CHARS, text_budget // len(passages)))
     for p in passages.values():
         p["txt"], p["cut"] = _cut(p.pop("_raw"), limit)
-    for item, key, matched, signal_values, found_code in keyed:
+    for item, key, matched, signal_values, found_code, horizon_code in keyed:
         flat = hl.ranges(passages[key]["txt"], matched)
         coded, end = [], 0
         for k in range(0, len(flat), 2):
             coded += [flat[k] - end, flat[k + 1] - flat[k]]
             end = flat[k + 1]
-        item += [coded, signal_values, found_code]
+        item += [coded, signal_values, found_code, horizon_code]
     return {
         "q": rows,
         "p": passages,
         "h": horizon,
         "sk": all_signals,
         "R": sorted(reason_codes, key=lambda r: reason_codes[r]),
+        "H": sorted(horizon_codes, key=lambda h: horizon_codes[h]),
     }
 
 
@@ -515,7 +530,7 @@ def build_view(
                 "q": q,
                 "owner": own,
                 "verdict": q.verdict,
-                "why": verdict_sentence(q, info.thresholds),
+                "why": verdict_sentence(q, info),
                 "action_text": action_sentence(q),
                 "flags": [(f, FLAG_TEXT.get(f, "")) for f in q.flags],
                 "best_line": best_line(q, best_evidence(q)),
@@ -570,6 +585,8 @@ def build_view(
                 highlighter=highlighter or Highlighter(),
             ),
             audit=info.as_of,
+            V=list(VERDICTS),
+            G={v: verdict_glyph(v) for v in sorted({*VERDICTS, *(q.verdict for q in questions)})},
             server_rows=min(SERVER_ROWS, len(rows)),
             x=[_script_row(r) for r in rows[SERVER_ROWS:]],
         ),

@@ -1,4 +1,4 @@
-"""Views of the run's tables for the page: the diff against the previous run, the gate outcome and
+"""Views of the run's tables for the page: the diff against the previous run, the release limits and
 the document inventory, plus the small number and date formatters the page shares."""
 
 from __future__ import annotations
@@ -6,6 +6,7 @@ from __future__ import annotations
 from datetime import date
 from typing import Any
 
+from auditor.history.gate import describe_check
 from auditor.report.exports import document_owner
 from auditor.results import Diff, DiffItem, DocumentEntry, GateResult, IngestError
 
@@ -88,39 +89,16 @@ def diff_view(diff: Diff | None) -> dict | None:
     return {"groups": groups, "facts": facts, "summary": diff.summary}
 
 
-GATE_COLUMNS = (
-    ("limit", "Limit"),
-    ("figure", "Figure"),
-    ("value", "Value"),
-    ("max", "Limit value"),
-    ("passed", "Result"),
-)
-
-
 def gate_view(gate: GateResult | None) -> dict | None:
-    """The gate outcome (history/gate.py: passed, checks, message) with one row per check."""
+    """The release limits (history/gate.py) as one line: within or breached, then each figure against
+    its ceiling, breached ones first."""
     if gate is None:
         return None
-    rows = []
-    for c in gate.checks:
-        cells = []
-        for k, _ in GATE_COLUMNS:
-            v = getattr(c, k)
-            if k == "passed":
-                cells.append("passed" if v else "failed")
-            elif k in ("value", "max") and isinstance(v, float):
-                cells.append(_num(v, 3))
-            else:
-                cells.append(_scalar_text(v))
-        rows.append({"cells": cells, "failed": c.passed is False})
-    headers = [title for _, title in GATE_COLUMNS] if rows else []
+    ordered = sorted(gate.checks, key=lambda c: c.passed)  # breached first, else in check order
     return {
-        "passed": bool(gate.passed),
+        "within": bool(gate.passed),
         "message": gate.message,
-        "headers": headers,
-        "rows": rows,
-        "row_count": len(rows),
-        "facts": [],
+        "checks": [{"text": describe_check(c), "over": not c.passed, "figure": c.figure} for c in ordered],
     }
 
 

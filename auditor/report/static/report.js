@@ -52,8 +52,8 @@
   // A row the server did not write, built like the template's rows.
   function buildRow(i) {
     var q = data.q[i], x = extra(i);
-    var verdict = ({ covered: 1, stale: 1, gap: 1 })[q.v] ? q.v : "other";
-    var tr = el("tr", "r-" + verdict);
+    var verdict = (data.V || []).indexOf(q.v) !== -1 ? q.v : "other";
+    var tr = el("tr");
     tr.id = "q" + i;
     tr.setAttribute("role", "row");
     function cell() { var td = tr.insertCell(); td.setAttribute("role", "cell"); return td; }
@@ -62,6 +62,13 @@
     summary.appendChild(document.createTextNode(" " + x.q));
     details.appendChild(summary);
     why.appendChild(el("p", null, x.y));
+    if (x.xc) {  // the question file's own columns, [name, value] pairs
+      var kept = el("dl", "kv extra");
+      x.xc.forEach(function (kv) {
+        var d = el("div"); d.appendChild(el("dt", null, kv[0])); d.appendChild(el("dd", null, kv[1])); kept.appendChild(d);
+      });
+      why.appendChild(kept);
+    }
     if (x.ac) { why.appendChild(el("p", "act", x.ac)); }
     if (x.m) {
       var miss = el("p", null, "Never used in the corpus: ");
@@ -83,7 +90,12 @@
     cell().textContent = q.t >= 0 ? topics[q.t] : "";
     cell().textContent = num(q.w, 2);
     var vc = cell();
-    vc.appendChild(el("span", "v v-" + verdict, q.v));
+    var badge = el("span", "v v-" + verdict);
+    var glyph = el("span", "glyph", (data.G || {})[q.v] || "\u2022");
+    glyph.setAttribute("aria-hidden", "true");
+    badge.appendChild(glyph);
+    badge.appendChild(document.createTextNode(" " + q.v));
+    vc.appendChild(badge);
     (x.f || []).forEach(function (f) { vc.appendChild(document.createTextNode(" ")); vc.appendChild(el("span", "flag", f[0])); });
     cell().textContent = num(q.s, 3);
     var ac = cell();
@@ -133,7 +145,9 @@
 
   // --- sort ---------------------------------------------------------------------------------
   var collator = new Intl.Collator(undefined, { sensitivity: "base", numeric: true });
-  var verdictRank = { gap: 0, stale: 1, covered: 2 };
+  // Worst first: the reverse of the verdict order of auditor/models.py VERDICTS (data.V).
+  var verdictRank = {};
+  (data.V || []).forEach(function (v, k) { verdictRank[v] = (data.V.length - 1) - k; });
   var actionRank = { write: 0, retire: 1, refresh: 2 };
   function keyOf(col, i) {
     var q = data.q[i];
@@ -205,15 +219,21 @@
     return isNaN(a) || isNaN(b) ? null : Math.round((a - b) / 86400000);
   }
 
+  // The horizon an item was judged with, named with where it came from (e[11] indexes data.H);
+  // runs stored before horizons were named give only the days.
+  function horizonName(e, horizon) {
+    return (e[11] !== undefined && e[11] >= 0 && data.H) ? data.H[e[11]] : "the " + horizon + "-day horizon";
+  }
+
   function freshnessWhy(p, e, horizon) {
-    var fresh = e[5] === 1, parts = [];
+    var fresh = e[5] === 1, parts = [], named = horizonName(e, horizon);
+    var days = +(/(\d+)-day/.exec(named) || [0, horizon])[1];
     var reasons = e[6].map(function (k) { return data.R[k]; });
     if (p.ao) {
       var s = "As of " + p.ao + " (from " + (SOURCES[p.src] || p.src || "an unknown source") + ")";
       var age = ageDays(p.ao);
       if (age !== null) {
-        s += ", " + age + " days before the audit date — " +
-             (age <= horizon ? "within" : "beyond") + " the " + horizon + "-day horizon";
+        s += ", " + age + " days before the audit date — " + (age <= days ? "within " : "beyond ") + named;
       }
       parts.push(s + ".");
     } else {
@@ -221,7 +241,9 @@
     }
     if (p.ex) { parts.push("Valid until " + p.ex + (reasons.indexOf("expired") !== -1 ? ", before the audit date." : ".")); }
     if (reasons.indexOf("overtaken") !== -1) { parts.push("It announces a planned event whose date has passed."); }
-    parts.push(fresh ? "Fresh." : "Stale: " + reasons.map(function (r) { return REASONS[r] || r; }).join(", ") + ".");
+    parts.push(fresh ? "Fresh." : "Stale: " + reasons.map(function (r) {
+      return r === "too_old" ? "older than " + named : (REASONS[r] || r);
+    }).join(", ") + ".");
     return parts.join(" ");
   }
 
@@ -339,7 +361,7 @@
   form.addEventListener("submit", function (ev) { ev.preventDefault(); });
   document.getElementById("show-more").addEventListener("click", function () { limit += PAGE; render(); });
   document.getElementById("show-all").addEventListener("click", function () { limit = matches.length; render(); });
-  // A link to a question (from a content brief) shows its row even when filters or paging hide it.
+  // A link to a question (from a passage to write) shows its row even when filters or paging hide it.
   function reveal(i) {
     if (matches.indexOf(i) === -1) {
       fVerdict.value = fOwner.value = fTopic.value = fText.value = "";
