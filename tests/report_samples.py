@@ -1072,10 +1072,16 @@ EVIDENCE_KEYS = (
 )  # fmt: skip
 QUESTION_KEYS = (
     "id", "question", "owner", "topic", "weight", "extra", "verdict", "reasons", "flags", "action",
-    "support", "horizon", "explanation", "missing_terms", "terms", "evidence",
+    "support", "horizon", "explanation", "missing_terms", "terms", "language", "evidence",
     "missing_constraint", "needs_look", "look_reasons", "conflict",
 )  # fmt: skip
-QUESTION_DEFAULTS = {"missing_constraint": None, "needs_look": False, "look_reasons": [], "conflict": None}
+QUESTION_DEFAULTS = {
+    "language": None,
+    "missing_constraint": None,
+    "needs_look": False,
+    "look_reasons": [],
+    "conflict": None,
+}
 
 
 def format2(data: dict) -> dict:
@@ -1099,6 +1105,7 @@ def format2(data: dict) -> dict:
         "format": 2,
         "run": data["run"],
         "summary": data["summary"],
+        "languages": data.get("languages", []),
         "questions": questions,
         "passages": [passages[k] for k in sorted(passages)],
         "ingest_errors": data["ingest_errors"],

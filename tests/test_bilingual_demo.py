@@ -71,8 +71,8 @@ def test_verdicts_match_expected(bilingual):
 
 def test_figures_per_language_in_the_run_and_the_report(bilingual):
     run, _, _ = bilingual
-    figures = {s.language: (s.questions, s.covered, s.stale, s.gap) for s in run.languages}
-    # fixtures/bilingual/expected.csv: e01-e03 English (2 covered, 1 gap), g01-g05 German.
+    figures = {s.language: (s.questions, s.supported, s.stale, s.gap) for s in run.languages}
+    # fixtures/bilingual/expected.csv: e01-e03 English (2 supported, 1 gap), g01-g05 German.
     assert figures == {"english": (3, 2, 0, 1), "german": (5, 3, 1, 1)}
     assert {q.id: q.language for q in run.questions}["g03"] == "german"
 
