@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import shutil
+import sqlite3
 from pathlib import Path
 
 import pytest
@@ -32,3 +33,17 @@ def demo_copy(tmp_path):
     )
     (target / "audit.toml").write_text(config, encoding="utf-8")
     return target
+
+
+FORMAT1_SQL = REPO / "tests" / "data" / "format1.sql"
+
+
+def format1_database(path: Path) -> Path:
+    """A database as the auditor of results.json format 1 stored it (tests/test_format1_store.py says
+    how it was made), rebuilt from its SQL text dump at `path`."""
+    conn = sqlite3.connect(path)
+    try:
+        conn.executescript(FORMAT1_SQL.read_text(encoding="utf-8"))
+    finally:
+        conn.close()
+    return path

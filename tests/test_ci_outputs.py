@@ -9,7 +9,6 @@ of CI step summaries and chat), and its figures are held against results.json of
 from __future__ import annotations
 
 import json
-import shutil
 
 import pytest
 from click.testing import CliRunner
@@ -21,7 +20,7 @@ from auditor.report import write_report
 from auditor.report.ci import junit_xml, summary_markdown
 from auditor.results import Summary
 from tests import report_samples as samples
-from tests.conftest import REPO
+from tests.conftest import REPO, format1_database
 
 SCHEMA = etree.XMLSchema(etree.parse(str(REPO / "tests" / "data" / "junit-10.xsd")))
 
@@ -128,8 +127,7 @@ def test_summary_renders_with_the_figures_of_results_json(report):
 
 
 def test_outputs_are_chosen_by_config_and_flag(tmp_path):
-    db = tmp_path / "auditor.db"
-    shutil.copyfile(REPO / "tests" / "data" / "format1.db", db)
+    db = format1_database(tmp_path / "auditor.db")
     config = tmp_path / "audit.toml"
     config.write_text(f'database = "{db.name}"\n[report]\noutputs = ["summary"]\nstale_in_junit = "skip"\n')
     runner = CliRunner()

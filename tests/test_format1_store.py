@@ -1,6 +1,6 @@
 """A database stored before results.json format 2 still lists, reports and diffs.
 
-tests/data/format1.db was made with the auditor of commit b0664e2 (results.json format 1, verdict
+tests/data/format1.sql (a text dump; `tests.conftest.format1_database` rebuilds it) is a database made with the auditor of commit b0664e2 (results.json format 1, verdict
 `covered`), from five Fernhollow billing pages of fixtures/demo/kb and eight of the demo's billing
 questions, `[retrieval] top_k = 3` to keep it small:
 
@@ -18,7 +18,6 @@ from __future__ import annotations
 
 import csv
 import json
-import shutil
 
 import pytest
 from click.testing import CliRunner
@@ -26,20 +25,16 @@ from click.testing import CliRunner
 from auditor.cli import cli
 from auditor.history.runs import list_runs, load_run
 from auditor.store import Store
-from tests.conftest import REPO
-
-FIXTURE = REPO / "tests" / "data" / "format1.db"
+from tests.conftest import format1_database
 
 
 @pytest.fixture
 def old_db(tmp_path):
-    target = tmp_path / "auditor.db"
-    shutil.copyfile(FIXTURE, target)
-    return target
+    return format1_database(tmp_path / "auditor.db")
 
 
-def test_the_fixture_is_format1_as_stored():
-    with Store(FIXTURE) as store:
+def test_the_fixture_is_format1_as_stored(old_db):
+    with Store(old_db) as store:
         rows = store.query("SELECT verdict, result FROM results WHERE run_id = 2 ORDER BY position")
     assert [r["verdict"] for r in rows].count("covered") == 4
     first = json.loads(rows[0]["result"])

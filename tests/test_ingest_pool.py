@@ -2,8 +2,6 @@
 
 from __future__ import annotations
 
-import time
-
 from auditor.ingest.pipeline import ingest_corpus
 from auditor.ingest.pool import run_tasks
 from auditor.store import Store
@@ -12,7 +10,6 @@ from tests.ingest_helpers import config_for, make_pdf, misbehave, replicate_page
 
 def test_hang_crash_and_exception_cost_one_task_each():
     tasks = ["a", "hang", "b", "crash", "c", "raise", "d"]
-    started = time.monotonic()
     outcome = {task: (status, value) for task, status, value in run_tasks(tasks, misbehave, None, jobs=2, timeout=3.0)}
     assert outcome == {
         "a": ("ok", "A"),
@@ -23,7 +20,8 @@ def test_hang_crash_and_exception_cost_one_task_each():
         "crash": ("crash", 3),
         "raise": ("error", "ValueError: bad input"),
     }
-    assert time.monotonic() - started < 60  # the hung worker was killed, not waited for
+    # "timeout" is only reported by killing the hung worker: had the pool waited for it, the
+    # generator would never have finished and "d" (queued behind it on two workers) would be missing.
 
 
 def test_one_job_runs_everything_in_order():

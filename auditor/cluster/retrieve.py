@@ -91,7 +91,7 @@ class ShardedIndex:
         self.params, self.meta = params, self.corpus.meta
         self.n_docs = stats.n_docs
         self.n_terms = self.corpus.n_terms
-        self.df: np.ndarray = self.corpus.df  # type: ignore[attr-defined]  # SparseIndex sets its arrays by name
+        self.df: np.ndarray = self.corpus.df
         self._hits: dict[tuple[tuple[int, ...], int], tuple] = {}
 
     def term_idf(self, term_ids) -> list[float]:

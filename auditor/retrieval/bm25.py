@@ -274,6 +274,19 @@ DENSE_MAX_TERMS = 64
 class SparseIndex:
     """Term-major BM25 index over passage ordinals 0..n_docs−1 (one shard) with exact top-k."""
 
+    # The arrays of `_ARRAYS`, set by name in __init__ (and saved and loaded by name).
+    indptr: np.ndarray
+    indices: np.ndarray
+    weights: np.ndarray
+    tf: np.ndarray
+    doc_len: np.ndarray
+    df: np.ndarray
+    idf: np.ndarray
+    maxw: np.ndarray
+    keys: np.ndarray
+    dense: np.ndarray
+    dense_row: np.ndarray
+
     def __init__(
         self,
         params: Params,
@@ -322,7 +335,8 @@ class SparseIndex:
             (counts.tf, counts.terms, counts.indptr), shape=(counts.n_docs, width), copy=False
         ).tocsc()
         if consume:
-            counts.terms = counts.tf = None
+            # Freed for memory: a consumed TermCounts is not used again.
+            counts.terms = counts.tf = None  # type: ignore[assignment]
         csc.sort_indices()
         indptr = csc.indptr.astype(np.int64)
         indices = csc.indices.astype(np.int32, copy=False)

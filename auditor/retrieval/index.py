@@ -255,14 +255,14 @@ def indexed_tokens(
 def describe_hits(store: Store, result: SearchResult) -> list[dict]:
     """The hits of `result` with where they stand, for `auditor search` (text or JSON)."""
     ids = [hit.passage_id for hit in result.hits]
-    rows = {}
+    rows: dict[int, dict] = {}
     for chunk in chunked(ids):
-        for row in store.query(
+        for stored in store.query(
             "SELECT p.id, p.text, p.heading_path, p.page, d.path FROM passages p "
             f"JOIN documents d ON d.id = p.document_id WHERE p.id IN ({marks(chunk)})",
             chunk,
         ):
-            rows[row["id"]] = row
+            rows[stored["id"]] = stored
     out = []
     for hit in result.hits:
         row = rows.get(hit.passage_id)
