@@ -6,6 +6,9 @@ see `store.SCHEMA`. `save_run` writes them from an `auditor.results.Run`; `load_
 into the same run, so `auditor report --run ID` renders an old run exactly as it was, with its
 history, its diff against the run before it and its gate outcome. Runs stored by older versions,
 which lack keys added since, load through `Run.from_json`'s defaults.
+
+Past 400 lines because saving, reading, retention and the `latest` link of stored runs share one
+store layout; the diff has its own module (history/diff.py).
 """
 
 from __future__ import annotations

@@ -9,6 +9,9 @@ for a supported question, else the best passage's. Each evidence item carries it
 signals it came from (`signals`), whether the asked-for answer type was found and the horizon it
 was judged with; its passage is built once per run (`SourcePassage`, results.json `passages`) and
 shared by every item that cites it. Each question gets its explanation (judgement/explain.py).
+
+Past 400 lines because the stage's store reads (passages, statements, the document inventory)
+and its judging loop stay together, so that a cluster runs `judge_questions` on its workers unchanged.
 """
 
 from __future__ import annotations

@@ -14,6 +14,9 @@ reference libraries' to rounding while the index stays small (docs/judgement.md)
 
 The project's interface puts the pure scoring functions and the sparse index in this one module; it
 is longer than most for that reason, in four sections that do not reach into each other.
+
+Past 400 lines because the scoring functions, their registry and the index that applies them must
+agree to rounding, and the reference tests (tests/test_bm25_references.py) hold them together here.
 """
 
 from __future__ import annotations

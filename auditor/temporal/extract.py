@@ -18,6 +18,9 @@ Every expression is an interval [start, end] with a granularity; conventions:
   keeps the value's; "start/beginning of" a year is January and "end of" a year is December;
 * a date without a year takes the reference date's year (or its range partner's); relative and
   yearless expressions are dropped when no reference date is given, since they cannot be anchored.
+
+Past 400 lines because reading candidates into intervals (ranges, anchors, year inference by tense)
+is one pass over a sentence that shares its state.
 """
 
 from __future__ import annotations

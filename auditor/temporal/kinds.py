@@ -20,6 +20,8 @@ the calendar; a quarter without tense is the latest one begun by the reference d
 An expression with no place on the calendar (a duration not anchored to a date, a schedule, a
 vague span, a clock time with no day) has `placed` False: `extract` gives it the reference date
 as its interval and the role `other`.
+
+Past 400 lines because each TIMEX3 kind's patterns and its reading sit together, one section a kind.
 """
 
 from __future__ import annotations
