@@ -34,9 +34,10 @@ def test_currently_in_a_document_dated_2026_11_20_is_as_of_that_date_in_the_audi
 
 
 def test_a_version_1_store_gains_the_timex_columns(tmp_path):
-    # the version-1 schema is today's without the two TIMEX3 columns
+    # the version-1 schema is today's without the two TIMEX3 columns (version 3) and the document
+    # language columns (version 4)
     path = tmp_path / "old.db"
-    lines = [line for line in SCHEMA.splitlines() if not line.lstrip().startswith("timex_")]
+    lines = [line for line in SCHEMA.splitlines() if not line.lstrip().startswith(("timex_", "language"))]
     old = "\n".join(lines).replace("char_end    INTEGER NOT NULL,\n);", "char_end    INTEGER NOT NULL\n);")
     db = sqlite3.connect(path)
     db.executescript(old)
@@ -45,6 +46,6 @@ def test_a_version_1_store_gains_the_timex_columns(tmp_path):
     db.close()
     assert "timex_type" not in [r[1] for r in sqlite3.connect(path).execute("PRAGMA table_info(statements)")]
     with Store(path) as store:
-        assert store.get_meta("schema_version") == str(SCHEMA_VERSION) == "3"
+        assert store.get_meta("schema_version") == str(SCHEMA_VERSION) == "4"
     columns = [r[1] for r in sqlite3.connect(path).execute("PRAGMA table_info(statements)")]
     assert columns[-2:] == ["timex_type", "timex_value"]
