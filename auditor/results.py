@@ -596,6 +596,8 @@ class Run(Record):
     history: list[HistoryEntry] = field(default_factory=list)
     diff: Diff | None = None
     gate: GateResult | None = field(default=None, metadata={"json": "limits"})
+    # Personal data taken out of the query logs before storage, counts by kind only (never values).
+    redacted: dict[str, int] = field(default_factory=dict)
 
     def __post_init__(self) -> None:
         if not self.passages:

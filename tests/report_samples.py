@@ -1114,6 +1114,7 @@ def format2(data: dict) -> dict:
         "history": data["history"],
         "diff": data["diff"],
         "limits": gate,
+        "redacted": data.get("redacted", {}),
     }
 
 

@@ -279,6 +279,7 @@ def test_run_follows_the_format_and_reloads_equal(kb, tmp_path):
         "history",
         "diff",
         "limits",
+        "redacted",
     ]
     assert list(written["run"]) == [
         "id",

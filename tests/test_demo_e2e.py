@@ -283,6 +283,12 @@ def test_audit_of_a_query_log_reports_merges_and_redactions(demo_scans, tmp_path
     assert total == 854  # README
     assert summary["weight"] == pytest.approx(total)
     assert "@example" not in json.dumps(data) and "4111" not in json.dumps(data)
+    # The same counts by kind, and only counts, in results.json and at the head of the report.
+    assert data["redacted"] == {"card": 2, "email": 2, "phone": 2}
+    page = (tmp_path / "log-report" / "index.html").read_text(encoding="utf-8")
+    for kind in ("card", "email", "phone"):
+        assert f'data-redacted="{kind}" value="2"' in page
+    assert "@example" not in page and "4111" not in page
 
 
 def test_every_explanation_agrees_with_its_verdict(demo_scans):

@@ -63,6 +63,7 @@ def test_results_json_is_the_run_with_format2_keys_first(out):
         "history",
         "diff",
         "limits",
+        "redacted",
     ]
     # UTF-8, characters as written, not \\u escapes; a line per question and per passage.
     lines = raw.splitlines()

@@ -94,6 +94,7 @@ def save_run(store: Store, run: Run) -> int:
                 dumps(
                     {
                         "documents": [d.to_json() for d in run.documents],
+                        "redacted": dict(run.redacted),
                         "briefs": [b.to_json() for b in run.briefs],
                         # Format 2: each passage once; the results rows name them by id.
                         "passages": [p.to_json() for p in used_passages(run.questions)],
@@ -229,6 +230,7 @@ def _run_object(store: Store, row: dict) -> Run:
         documents=part("extras", lambda d: [DocumentEntry.from_json(e) for e in d.get("documents", [])], extras),
         briefs=part("extras", lambda d: [Brief.from_json(b) for b in d.get("briefs", [])], extras),
         gate=part("gate", GateResult.from_json, column("gate", None)),
+        redacted=part("extras", lambda d: {str(k): int(n) for k, n in (d.get("redacted") or {}).items()}, extras),
     )
 
 

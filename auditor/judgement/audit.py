@@ -145,6 +145,7 @@ def run_audit(
         ],
         documents=documents,
         briefs=content_briefs(results),
+        redacted=_redacted(store),
     )
     run_id = save_run(store, run)
     run.history = history(store, run_id)
@@ -490,6 +491,12 @@ def _corpus_fingerprint(store: Store) -> str:
     ):
         digest.update(f"{row[0]}\0{row[1]}\n".encode())
     return digest.hexdigest()[:16]
+
+
+def _redacted(store: Store) -> dict[str, int]:
+    """Counts by kind of what redaction took out of the query logs stored in this database."""
+    rows = store.query("SELECT kind, SUM(count) AS n FROM redaction_counts GROUP BY kind ORDER BY kind")
+    return {r["kind"]: int(r["n"]) for r in rows if r["n"]}
 
 
 def _iso(value: date | None) -> str | None:

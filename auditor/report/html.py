@@ -571,6 +571,7 @@ def build_view(
         "topics": topics,
         "inventory": inventory(documents, run.ingest_errors if owner is None else [], audit),
         "caution": CAUTION,
+        "redacted": sorted(run.redacted.items()) if owner is None else [],
         "verdicts": VERDICTS,
         "links": links or {},
         "data": dict(
